@@ -1,0 +1,56 @@
+// Complex relative permittivity ε_r(f) = ε' − jε'' of every bulk model, e^{+jωt} convention.
+// The returned im part is −ε'' (≤ 0 for a passive medium).
+
+import type { Complex } from '../complex.ts';
+import { EPS0_F_per_m, GHz, ps } from '../units.ts';
+import type { BulkModel } from './types.ts';
+
+/** ε_r at f_Hz (> 0). */
+export function permittivity(m: BulkModel, f_Hz: number): Complex {
+  const w = 2 * Math.PI * f_Hz;
+  switch (m.model) {
+    case 'fixed':
+      return { re: m.eps_r, im: -m.sigma_S_per_m / (w * EPS0_F_per_m) };
+    case 'debye': {
+      let re = m.eps_inf, im = -m.sigma_S_per_m / (w * EPS0_F_per_m);
+      for (const p of m.poles) {
+        // Δε / (1 + jωτ) = Δε (1 − jωτ) / (1 + ω²τ²)
+        const wt = w * p.tau_ps * ps, d = 1 + wt * wt;
+        re += p.delta_eps / d;
+        im -= (p.delta_eps * wt) / d;
+      }
+      return { re, im };
+    }
+    case 'lorentz': {
+      let re = m.eps_inf, im = -m.sigma_S_per_m / (w * EPS0_F_per_m);
+      for (const p of m.poles) {
+        // Δε ω0² / (ω0² − ω² + jωγ)
+        const w0 = 2 * Math.PI * p.f0_GHz * GHz, g = 2 * Math.PI * p.gamma_GHz * GHz;
+        const a = w0 * w0 - w * w, b = w * g, d = a * a + b * b;
+        const num = p.delta_eps * w0 * w0;
+        re += (num * a) / d;
+        im -= (num * b) / d;
+      }
+      return { re, im };
+    }
+    case 'drude': {
+      // ε∞ − ωp² / (ω² − jωγ) = ε∞ − ωp² (ω² + jωγ) / (ω⁴ + ω²γ²)
+      const wp = 2 * Math.PI * m.plasma_GHz * GHz, g = 2 * Math.PI * m.collision_GHz * GHz;
+      const d = w * w * w * w + w * w * g * g;
+      return {
+        re: m.eps_inf - (wp * wp * w * w) / d,
+        im: -(wp * wp * w * g) / d - m.sigma_S_per_m / (w * EPS0_F_per_m),
+      };
+    }
+    case 'power-law': {
+      const f_GHz = f_Hz / GHz;
+      const sigma = m.c * Math.pow(f_GHz, m.d);
+      return { re: m.a * Math.pow(f_GHz, m.b), im: -sigma / (w * EPS0_F_per_m) };
+    }
+  }
+}
+
+/** Effective conductivity σ_eff = ω ε0 ε'' in S/m at f_Hz, as the catalog reports it. */
+export function effectiveConductivity(m: BulkModel, f_Hz: number): number {
+  return -permittivity(m, f_Hz).im * 2 * Math.PI * f_Hz * EPS0_F_per_m;
+}
