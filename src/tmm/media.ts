@@ -1,0 +1,72 @@
+// Per-frequency description of a stack for the exact solver: each bulk region's longitudinal
+// wavenumber k_x and wave admittance, and the sheet conductance at each interface.
+//
+// Geometry: the wave travels along +x; x = 0 is the front face. For oblique incidence the
+// transverse wavenumber k_t = k0 √ε_front sin θ is conserved (phase matching), and each region has
+// k_x = k0 √(ε_r − ε_front sin²θ), branch chosen with Im k_x ≤ 0 so e^{−j k_x x} decays forward.
+// Admittance Y = H_t / E_t of a forward wave: TE  Y = k_x / (ω μ0);  TM  Y = ω ε0 ε_r / k_x.
+
+import { type Complex, div, scale, sqrt, sub } from '../complex.ts';
+import { permittivity } from '../materials/permittivity.ts';
+import type { BulkMaterial, Stack } from '../stack/types.ts';
+import { C0_m_per_s, EPS0_F_per_m, MU0_H_per_m } from '../units.ts';
+
+/** One homogeneous region at one frequency. */
+export interface Region {
+  eps: Complex;
+  /** Longitudinal wavenumber, rad/m, Im ≤ 0. */
+  kx: Complex;
+  /** Wave admittance H_t/E_t of a forward wave, siemens. */
+  Y: Complex;
+  /** Thickness in metres (Infinity for the half-spaces). */
+  thickness_m: number;
+}
+
+/** A stack at one frequency: front half-space, bulk layers, back half-space (null = perfect conductor). */
+export interface StackAtFrequency {
+  f_Hz: number;
+  front: Region;
+  layers: Region[];
+  back: Region | null;
+  /** Sheet conductance (S, = 1/R_s summed over sheets) at interface k: k = 0 front face … k = layers.length back face. */
+  sheetG: Float64Array;
+  /** Position of interface k in metres. */
+  interface_m: Float64Array;
+}
+
+function region(material: BulkMaterial, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region {
+  const w = 2 * Math.PI * f_Hz;
+  const k0 = w / C0_m_per_s;
+  const eps = permittivity(material.spec, f_Hz);
+  let q = sqrt(sub(eps, kt2_over_k02)); // k_x / k0
+  if (q.im > 0 || (q.im === 0 && q.re < 0)) q = scale(q, -1);
+  const kx = scale(q, k0);
+  const Y = pol === 'TE'
+    ? scale(kx, 1 / (w * MU0_H_per_m))
+    : div(scale(eps, w * EPS0_F_per_m), kx);
+  return { eps, kx, Y, thickness_m };
+}
+
+/** Evaluates every region of the stack at f_Hz for the stack's incidence. */
+export function stackAtFrequency(stack: Stack, f_Hz: number): StackAtFrequency {
+  const { angle_rad, polarization } = stack.incidence;
+  const epsFront = permittivity(stack.front.spec, f_Hz);
+  const s = Math.sin(angle_rad);
+  const kt2 = scale(epsFront, s * s); // (k_t / k0)²
+  const front = region(stack.front, Infinity, f_Hz, kt2, polarization);
+  const layers: Region[] = [];
+  const sheetG = new Float64Array(stack.layers.filter((l) => l.kind === 'bulk').length + 1);
+  const interface_m = new Float64Array(sheetG.length);
+  let x = 0;
+  for (const l of stack.layers) {
+    if (l.kind === 'sheet') {
+      sheetG[layers.length] += 1 / l.material.spec.ohm_per_sq;
+    } else {
+      layers.push(region(l.material, l.thickness_m, f_Hz, kt2, polarization));
+      x += l.thickness_m;
+      interface_m[layers.length] = x;
+    }
+  }
+  const back = stack.back === 'pec' ? null : region(stack.back, Infinity, f_Hz, kt2, polarization);
+  return { f_Hz, front, layers, back, sheetG, interface_m };
+}

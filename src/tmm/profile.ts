@@ -1,0 +1,89 @@
+// The exact standing-wave profile E(x) at one frequency (normal incidence), and the positions
+// at which every method samples it.
+
+import { add, mul } from '../complex.ts';
+import { permittivity } from '../materials/permittivity.ts';
+import type { Profile } from '../results.ts';
+import type { Stack } from '../stack/types.ts';
+import { C0_m_per_s } from '../units.ts';
+import { stackAtFrequency } from './media.ts';
+import { fieldInLayer, solveAt, wave } from './recursion.ts';
+
+/**
+ * Total tangential E at each x (metres, x = 0 the front face), incident amplitude 1 at x = 0.
+ * In front: e^{−jkx} + R e^{+jkx}; inside a layer from its own amplitudes; behind: T e^{−jk(x−d)}.
+ */
+export function profileTmm(stack: Stack, f_Hz: number, x_m: Float64Array): Profile {
+  const s = stackAtFrequency(stack, f_Hz);
+  const sol = solveAt(s);
+  const n = x_m.length;
+  const E_re = new Float64Array(n), E_im = new Float64Array(n);
+  const faces = s.interface_m, d = faces[faces.length - 1];
+  let layer = 0;
+  for (let k = 0; k < n; k++) {
+    const x = x_m[k];
+    let E;
+    if (x < 0) {
+      E = add(wave(s.front, x), mul(sol.R, wave(s.front, -x)));
+    } else if (x > d || s.layers.length === 0) {
+      E = s.back ? mul(sol.T, wave(s.back, x - d)) : { re: 0, im: 0 };
+    } else {
+      // Positions may come in any order; find the layer holding x (the first, at a shared face).
+      if (!(x >= faces[layer] && x <= faces[layer + 1])) {
+        layer = 0;
+        while (layer < s.layers.length - 1 && x > faces[layer + 1]) layer++;
+      }
+      E = fieldInLayer(s, sol, layer, x - faces[layer]);
+    }
+    E_re[k] = E.re; E_im[k] = E.im;
+  }
+  return { f_Hz, x_m, E_re, E_im };
+}
+
+/**
+ * Sample positions for a profile at f_Hz: at least 1.5 wavelengths of the front medium in front
+ * (and at least as far as the stack is thick), the whole stack with every interface exactly and at
+ * least `minPerLayer` points per layer, and half a wavelength of the back medium behind (nothing
+ * behind a conductor). Spacing at most λ_local / pointsPerWavelength everywhere.
+ */
+export function profilePositions(
+  stack: Stack,
+  f_Hz: number,
+  pointsPerWavelength = 48,
+  minPerLayer = 8,
+): Float64Array {
+  const lambda0 = C0_m_per_s / f_Hz;
+  const lambdaIn = (spec: Parameters<typeof permittivity>[0]) => {
+    const e = permittivity(spec, f_Hz);
+    const n = Math.sqrt((Math.hypot(e.re, e.im) + e.re) / 2); // Re √ε
+    return lambda0 / Math.max(n, 1e-6);
+  };
+  const xs: number[] = [];
+  const segment = (a: number, b: number, step: number, minPoints: number, includeEnd: boolean) => {
+    const m = Math.max(minPoints, Math.ceil((b - a) / step));
+    for (let i = 0; i < m; i++) xs.push(a + ((b - a) * i) / m);
+    if (includeEnd) xs.push(b);
+  };
+  let d = 0;
+  for (const l of stack.layers) if (l.kind === 'bulk') d += l.thickness_m;
+  const lf = lambdaIn(stack.front.spec);
+  segment(-Math.max(1.5 * lf, d), 0, lf / pointsPerWavelength, 1, false);
+  let x = 0;
+  for (const l of stack.layers) {
+    if (l.kind !== 'bulk') continue;
+    segment(x, x + l.thickness_m, lambdaIn(l.material.spec) / pointsPerWavelength, minPerLayer, false);
+    x += l.thickness_m;
+  }
+  xs.push(d);
+  if (stack.back !== 'pec') {
+    const lb = lambdaIn(stack.back.spec);
+    segment(d, d + 0.5 * lb, lb / pointsPerWavelength, 1, true);
+  }
+  return Float64Array.from(dedupeSorted(xs));
+}
+
+function dedupeSorted(xs: number[]): number[] {
+  const out: number[] = [];
+  for (const x of xs) if (out.length === 0 || x > out[out.length - 1]) out.push(x);
+  return out;
+}
