@@ -3,7 +3,7 @@
 import type { BulkModel } from '../../src/materials/types.ts';
 import type { BulkMaterial, Layer, Polarization, SheetMaterial, Stack } from '../../src/stack/types.ts';
 
-export const bulk = (spec: BulkModel, name = spec.model): BulkMaterial => ({ name, spec, source: 'test', valid_GHz: null });
+export const bulk = (spec: BulkModel, name: string = spec.model): BulkMaterial => ({ name, spec, source: 'test', valid_GHz: null });
 export const dielectric = (eps_r: number, sigma_S_per_m = 0, name = `eps${eps_r}`): BulkMaterial =>
   bulk({ model: 'fixed', eps_r, sigma_S_per_m }, name);
 export const AIR = dielectric(1, 0, 'air');
