@@ -1,0 +1,51 @@
+// Discrete dispersion of Lagrange elements and the a-priori error estimate that sizes the default mesh.
+//
+// A uniform chain of identical elements carries discrete plane waves e^{−j k_h x}; after static condensation
+// each element is the 2×2 matrix C on its vertices and the vertex recurrence gives
+//   cos(k_h h) = −(C_00 + C_11) / (2 C_01)                     (exact for any order)
+// For p = 1 this is Ihlenburg & Babuška (Comput. Math. Appl. 30(9), 1995):
+//   cos(k_h h) = (1 − (kh)²/3) / (1 + (kh)²/6).
+// For small kh the relative wavenumber error of order p is (Ainsworth, SIAM J. Numer. Anal. 42(2), 2004)
+//   (k − k_h)/k ≈ ½ [p!/(2p)!]² (kh)^{2p} / (2p + 1),
+// i.e. (kh)²/24, (kh)⁴/1440, (kh)⁶/201600 for p = 1, 2, 3 (k_h < k: the discrete wave is slightly long).
+
+import type { FemOrder } from './basis.ts';
+import { createCondenser } from './condense.ts';
+
+/** Ihlenburg & Babuška's closed form for p = 1: cos(k_h h) as a function of kh. */
+export const linearDispersionCos = (kh: number): number => (1 - (kh * kh) / 3) / (1 + (kh * kh) / 6);
+
+const factorial = (n: number): number => (n <= 1 ? 1 : n * factorial(n - 1));
+
+/** Leading coefficient c_p of the relative wavenumber error c_p (kh)^{2p} (Ainsworth 2004). */
+export const dispersionCoefficient = (p: FemOrder): number =>
+  (0.5 * (factorial(p) / factorial(2 * p)) ** 2) / (2 * p + 1);
+
+/** Ainsworth's asymptotic relative wavenumber error (k − k_h)/k at kh. */
+export const asymptoticPhaseError = (p: FemOrder, kh: number): number => dispersionCoefficient(p) * kh ** (2 * p);
+
+/** k_h h of order p at real kh from the condensed element itself (lossless medium, kh below the cut-off). */
+export function discreteWavenumberTimesH(p: FemOrder, kh: number): number {
+  const c = createCondenser(p).condense(1, 0, kh * kh, 0);
+  return Math.acos(-(c.d0Re + c.d1Re) / (2 * c.oRe));
+}
+
+/** Fewest elements per wavelength any default mesh uses: keeps kh ≤ π/2, well below the interior
+ *  resonance of a p = 3 element (kh ≈ π) that static condensation must avoid. */
+export const MIN_DENSITY = 4;
+
+/**
+ * A-priori estimate of max |R − R_exact|, |T − T_exact| for order p at `density` elements per wavelength on a stack of
+ * electrical size `phase_rad` = Σ |k_z| d over its layers with `interfaces` material boundaries: each radian of path
+ * accumulates the relative wavenumber error (pollution), each interface adds one more, and a round trip doubles it.
+ */
+export function errorEstimate(p: FemOrder, density: number, phase_rad: number, interfaces: number): number {
+  return 2 * asymptoticPhaseError(p, (2 * Math.PI) / density) * (phase_rad + interfaces);
+}
+
+/** Smallest density (elements per wavelength, one decimal, ≥ MIN_DENSITY) whose estimate is within `budget`. */
+export function densityFor(p: FemOrder, budget: number, phase_rad: number, interfaces: number): number {
+  const kh = (budget / (2 * dispersionCoefficient(p) * (phase_rad + interfaces))) ** (1 / (2 * p));
+  const n = Math.ceil(((2 * Math.PI) / kh) * 10) / 10;
+  return Math.max(MIN_DENSITY, n);
+}

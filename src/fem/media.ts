@@ -1,0 +1,37 @@
+// Per-frequency coefficients of the 1D Helmholtz problem in one homogeneous medium (μ_r = 1):
+//   TE (unknown E_y): (E')' + k_z² E = 0,            weight a = 1
+//   TM (unknown H_y): ((1/ε_r) H')' + (k_z²/ε_r) H = 0, weight a = 1/ε_r
+// with k_z² = k0² ε_r − k_t², k_t = k0 √ε_front sin θ the wavenumber along the stack faces.
+// Both read  (a u')' + a k_z² u = 0, so one element matrix a (S/h − k_z² h M) serves both.
+
+import type { Complex } from '../complex.ts';
+import { permittivity } from '../materials/permittivity.ts';
+import type { BulkModel } from '../materials/types.ts';
+import type { Polarization } from '../stack/types.ts';
+import { C0_m_per_s } from '../units.ts';
+
+export const freeSpaceWavenumber = (f_Hz: number): number => (2 * Math.PI * f_Hz) / C0_m_per_s;
+
+/** k_t² = k0² ε_front sin²θ (complex when the front medium is lossy). */
+export function tangentialWavenumber2(front: BulkModel, f_Hz: number, angle_rad: number): Complex {
+  const k0 = freeSpaceWavenumber(f_Hz), e = permittivity(front, f_Hz), s2 = Math.sin(angle_rad) ** 2;
+  return { re: k0 * k0 * e.re * s2, im: k0 * k0 * e.im * s2 };
+}
+
+/** k_z = √(k0² ε − k_t²) on the branch with Im k_z ≤ 0, so e^{−j k_z x} decays (or is undamped) along +x. */
+export function normalWavenumber(eps: Complex, k0: number, kt2: Complex): Complex {
+  const re = k0 * k0 * eps.re - kt2.re, im = k0 * k0 * eps.im - kt2.im;
+  const m = Math.hypot(re, im);
+  let sr = Math.sqrt((m + re) / 2), si = Math.sqrt(Math.max(0, (m - re) / 2));
+  if (im < 0) si = -si;
+  // The principal root has Re ≥ 0; flip to the decaying branch when Im > 0 (evanescent, lossless).
+  if (si > 0) { sr = -sr; si = -si; }
+  return { re: sr, im: si };
+}
+
+/** The weight a of the weak form: 1 for TE, 1/ε_r for TM. */
+export function formWeight(eps: Complex, pol: Polarization): Complex {
+  if (pol === 'TE') return { re: 1, im: 0 };
+  const d = eps.re * eps.re + eps.im * eps.im;
+  return { re: eps.re / d, im: -eps.im / d };
+}

@@ -1,0 +1,166 @@
+// The FEM mesh: a chain of segments between vertices along x. A segment is either a Lagrange element of one
+// region (a bulk layer, or a buffer of the front / back medium used for field profiles) or, in TM, the link a
+// resistive sheet makes between the two vertices it splits (H_y jumps across a sheet; see system.ts). In TE a
+// sheet is a shunt at one vertex. Every interface is a vertex; element size per region comes from the density.
+
+import { permittivity } from '../materials/permittivity.ts';
+import type { BulkModel } from '../materials/types.ts';
+import type { Polarization, Stack } from '../stack/types.ts';
+import type { FemOrder } from './basis.ts';
+import { FEM_ORDERS } from './basis.ts';
+import { densityFor, errorEstimate, MIN_DENSITY } from './dispersion.ts';
+import { freeSpaceWavenumber, normalWavenumber, tangentialWavenumber2 } from './media.ts';
+import type { FemMeshInfo, FemOptions } from './types.ts';
+import { DEFAULT_TOLERANCE, ESTIMATE_SAFETY, MAX_ELEMENTS } from './types.ts';
+
+export interface FemRegion {
+  material: BulkModel;
+  /** Stack layer index; −1 for the front-medium buffer, −2 for the back-medium buffer. */
+  layer: number;
+  x0_m: number;
+  thickness_m: number;
+  elements: number;
+  h_m: number;
+  /** Largest |k_z| over the sizing frequencies, 1/m. */
+  kMax: number;
+}
+
+export interface FemSheet { ohm_per_sq: number; layer: number; vertex: number }
+
+export interface FemMesh {
+  order: FemOrder;
+  density: number;
+  polarization: Polarization;
+  angle_rad: number;
+  front: BulkModel;
+  /** Back half-space material, or null for a perfect conductor. */
+  back: BulkModel | null;
+  regions: FemRegion[];
+  sheets: FemSheet[];
+  /** Per segment: region index (≥ 0) of an element, or −1 − sheet index for a TM sheet link. */
+  segRegion: Int32Array;
+  segX0: Float64Array;
+  segH: Float64Array;
+  vertexX: Float64Array;
+  /** Vertex at x = 0 on the front side of any sheet there, and at the back face behind any sheet there. */
+  frontVertex: number;
+  backVertex: number;
+  info: FemMeshInfo;
+}
+
+/** Largest |k_z| of a medium over the frequencies, for the stack's incidence. */
+function maxNormalWavenumber(stack: Stack, m: BulkModel, f_Hz: ArrayLike<number>): number {
+  let k = 0;
+  for (let i = 0; i < f_Hz.length; i++) {
+    const k0 = freeSpaceWavenumber(f_Hz[i]);
+    const kz = normalWavenumber(permittivity(m, f_Hz[i]), k0, tangentialWavenumber2(stack.front.spec, f_Hz[i], stack.incidence.angle_rad));
+    k = Math.max(k, Math.hypot(kz.re, kz.im));
+  }
+  return k;
+}
+
+interface RegionPlan { material: BulkModel; layer: number; thickness_m: number; kMax: number }
+
+const elementsFor = (r: RegionPlan, density: number): number =>
+  Math.max(1, Math.ceil((density * r.kMax * r.thickness_m) / (2 * Math.PI) - 1e-9));
+
+function validateOptions(o: FemOptions): void {
+  if (o.order !== undefined && !FEM_ORDERS.includes(o.order)) throw new Error(`fem.order: must be 1, 2 or 3 (got ${o.order})`);
+  if (o.density !== undefined && !(Number.isFinite(o.density) && o.density >= 3 && o.density <= 10_000))
+    throw new Error(`fem.density: must be a number of elements per wavelength in [3, 10000] (got ${o.density})`);
+  if (o.tolerance !== undefined && !(Number.isFinite(o.tolerance) && o.tolerance > 0 && o.tolerance < 1))
+    throw new Error(`fem.tolerance: must be in (0, 1) (got ${o.tolerance})`);
+}
+
+/**
+ * Plans the mesh for `stack` sized for the frequencies `sizing_Hz`, optionally with buffers of the front medium
+ * (front_m in front of x = 0) and of the back medium (back_m behind the back face, open back only).
+ * The a-priori estimate covers the stack's layers (the buffers carry their own phase; they do not enter R and T).
+ */
+export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: FemOptions = {}, front_m = 0, back_m = 0, polarization?: Polarization): FemMesh {
+  validateOptions(options);
+  const pol = polarization ?? stack.incidence.polarization;
+  const plans: RegionPlan[] = [];
+  let phase = 0, interfaces = 1;
+  stack.layers.forEach((l, i) => {
+    interfaces++;
+    if (l.kind !== 'bulk') return;
+    const kMax = maxNormalWavenumber(stack, l.material.spec, sizing_Hz);
+    plans.push({ material: l.material.spec, layer: i, thickness_m: l.thickness_m, kMax });
+    phase += kMax * l.thickness_m;
+  });
+  const budget = (options.tolerance ?? DEFAULT_TOLERANCE) / ESTIMATE_SAFETY;
+  const count = (density: number) => plans.reduce((n, r) => n + elementsFor(r, density), 0);
+
+  let order: FemOrder, density: number;
+  const orderAuto = options.order === undefined, densityAuto = options.density === undefined;
+  if (!orderAuto && !densityAuto) { order = options.order!; density = options.density!; }
+  else if (!orderAuto) { order = options.order!; density = densityFor(order, budget, phase, interfaces); }
+  else if (!densityAuto) {
+    density = options.density!;
+    // The lowest order whose estimate meets the budget at this density, else the highest.
+    order = FEM_ORDERS.find((p) => errorEstimate(p, density, phase, interfaces) <= budget) ?? 3;
+  } else {
+    // Cheapest: fewest elements (the per-frequency work is one tridiagonal solve on the vertices plus one
+    // condensation per region); ties go to the higher order.
+    order = 3; density = densityFor(3, budget, phase, interfaces);
+    let best = count(density);
+    for (const p of [2, 1] as FemOrder[]) {
+      const d = densityFor(p, budget, phase, interfaces), n = count(d);
+      if (n < best) { best = n; order = p; density = d; }
+    }
+  }
+  density = Math.max(density, densityAuto ? MIN_DENSITY : 3);
+
+  const back = stack.back === 'pec' ? null : stack.back.spec;
+  const all: RegionPlan[] = [];
+  if (front_m > 0) all.push({ material: stack.front.spec, layer: -1, thickness_m: front_m, kMax: maxNormalWavenumber(stack, stack.front.spec, sizing_Hz) });
+  all.push(...plans);
+  if (back_m > 0 && back) all.push({ material: back, layer: -2, thickness_m: back_m, kMax: maxNormalWavenumber(stack, back, sizing_Hz) });
+  const totalElements = all.reduce((n, r) => n + elementsFor(r, density), 0);
+  if (totalElements > MAX_ELEMENTS)
+    throw new Error(`fem: the mesh would need ${totalElements} elements (limit ${MAX_ELEMENTS}); lower the FEM density or the band top`);
+
+  // Walk front to back building segments and vertices.
+  const regions: FemRegion[] = [];
+  const sheets: FemSheet[] = [];
+  const segRegion: number[] = [], segX0: number[] = [], segH: number[] = [];
+  const elementsPerLayer = stack.layers.map(() => 0);
+  let x = -front_m, vertex = 0, frontVertex = 0;
+  const addRegion = (r: RegionPlan) => {
+    const n = elementsFor(r, density), h = r.thickness_m / n;
+    regions.push({ material: r.material, layer: r.layer, x0_m: x, thickness_m: r.thickness_m, elements: n, h_m: h, kMax: r.kMax });
+    for (let e = 0; e < n; e++) { segRegion.push(regions.length - 1); segX0.push(x + e * h); segH.push(h); }
+    if (r.layer >= 0) elementsPerLayer[r.layer] = n;
+    vertex += n;
+    x += r.thickness_m;
+  };
+  if (front_m > 0) { addRegion(all[0]); x = 0; frontVertex = vertex; }
+  let planIndex = front_m > 0 ? 1 : 0;
+  stack.layers.forEach((l, i) => {
+    if (l.kind === 'bulk') { addRegion(all[planIndex++]); return; }
+    const sheet: FemSheet = { ohm_per_sq: l.material.spec.ohm_per_sq, layer: i, vertex };
+    sheets.push(sheet);
+    if (pol === 'TM') { segRegion.push(-sheets.length); segX0.push(x); segH.push(0); vertex++; }
+  });
+  const backVertex = vertex;
+  if (back_m > 0 && back) addRegion(all[planIndex]);
+
+  const vertexX = new Float64Array(vertex + 1);
+  for (let s = 0; s < segX0.length; s++) { vertexX[s] = segX0[s]; vertexX[s + 1] = segX0[s] + segH[s]; }
+  if (segX0.length === 0) vertexX[0] = 0;
+
+  const elements = segRegion.filter((r) => r >= 0).length;
+  const info: FemMeshInfo = {
+    order, density, order_auto: orderAuto, density_auto: densityAuto,
+    elements_per_layer: elementsPerLayer,
+    elements,
+    unknowns: vertex + 1 + elements * (order - 1),
+    estimate: errorEstimate(order, density, phase, interfaces),
+  };
+  return {
+    order, density, polarization: pol, angle_rad: stack.incidence.angle_rad, front: stack.front.spec, back, regions, sheets,
+    segRegion: Int32Array.from(segRegion), segX0: Float64Array.from(segX0), segH: Float64Array.from(segH),
+    vertexX, frontVertex, backVertex, info,
+  };
+}

@@ -1,0 +1,111 @@
+// The per-frequency FEM system on a planned mesh, allocated once and reused for every frequency.
+//
+// Weak form on the mesh domain [x_p, x_e] (u = E_y in TE, H_y in TM; a = 1 in TE, 1/ε_r in TM):
+//   ∫ a u' v' − a k_z² u v dx  + boundary and sheet terms = right-hand side.
+// Front port at x_p (first-order absorbing condition, exact in 1D for a plane wave): in the front medium
+//   u = u_inc + u_ref with u_inc = e^{−j k_z0 x}, so a u'(x_p) = −j k_z0 a_f (2 u_inc(x_p) − u(x_p)),
+//   giving  + j k_z0 a_f  on the port's diagonal and  2 j k_z0 a_f u_inc(x_p)  on the right-hand side.
+// Open back at x_e: u = T e^{−j k_zb (x − x_e)}, a u' = −j k_zb a_b u, giving + j k_zb a_b on its diagonal.
+// Perfect conductor at the back face: tangential E = 0. TE: E_y = 0 (Dirichlet). TM: tangential E is
+//   a H_y' / (jωε0), so E_t = 0 is the natural condition a H_y' = 0: nothing to add.
+// Resistive sheet (R_s ohms per square, surface current J = E_t / R_s):
+//   TE: E_y is continuous and H jumps by J, i.e. E'(x+) − E'(x−) = jωμ0 E / R_s: a shunt + j k0 η0 / R_s on
+//       the sheet's vertex.
+//   TM: E_t = a H'/(jωε0) is continuous and H_y jumps, H(x+) − H(x−) = E_t / R_s. The sheet's vertex is split
+//       in two and the flux a H' = jωε0 R_s (H+ − H−) couples them: a link [y, −y; −y, y] with y = j k0 R_s / η0.
+
+import { permittivity } from '../materials/permittivity.ts';
+import { ETA0_ohm } from '../units.ts';
+import { createCondenser } from './condense.ts';
+import type { Condenser } from './condense.ts';
+import { formWeight, freeSpaceWavenumber, normalWavenumber, tangentialWavenumber2 } from './media.ts';
+import type { FemMesh } from './mesh.ts';
+import type { Tridiagonal } from './tridiag.ts';
+import { clearTridiagonal, createTridiagonal, solveTridiagonal } from './tridiag.ts';
+
+export interface FemSystem {
+  mesh: FemMesh;
+  tri: Tridiagonal;
+  condenser: Condenser;
+  /** Per region: condensed vertex diagonals and coupling (complex), and the interior recovery G (m×2). */
+  d0Re: Float64Array; d0Im: Float64Array; d1Re: Float64Array; d1Im: Float64Array; oRe: Float64Array; oIm: Float64Array;
+  gRe: Float64Array; gIm: Float64Array;
+  /** Per region: the weak form's weight a (complex), kept for field recovery (TM tangential E). */
+  aRe: Float64Array; aIm: Float64Array;
+  /** Port quantities at the last solved frequency: k_z0 a_f and k_zb a_b (complex). */
+  port: { kaRe: number; kaIm: number; backKaRe: number; backKaIm: number };
+}
+
+export function createFemSystem(mesh: FemMesh): FemSystem {
+  const nr = mesh.regions.length, m = mesh.order - 1;
+  const f = (n: number) => new Float64Array(Math.max(1, n));
+  return {
+    mesh, tri: createTridiagonal(mesh.vertexX.length), condenser: createCondenser(mesh.order),
+    d0Re: f(nr), d0Im: f(nr), d1Re: f(nr), d1Im: f(nr), oRe: f(nr), oIm: f(nr),
+    gRe: f(nr * m * 2), gIm: f(nr * m * 2), aRe: f(nr), aIm: f(nr),
+    port: { kaRe: 0, kaIm: 0, backKaRe: 0, backKaIm: 0 },
+  };
+}
+
+/** Assembles and solves at f_Hz; the vertex values land in sys.tri.xRe / xIm. Incident wave: amplitude 1 at x = 0. */
+export function solveAt(sys: FemSystem, f_Hz: number): void {
+  const { mesh, tri } = sys;
+  const k0 = freeSpaceWavenumber(f_Hz);
+  const kt2 = tangentialWavenumber2(mesh.front, f_Hz, mesh.angle_rad);
+  const m = mesh.order - 1;
+
+  for (let r = 0; r < mesh.regions.length; r++) {
+    const reg = mesh.regions[r];
+    const eps = permittivity(reg.material, f_Hz);
+    const kzRe = k0 * k0 * eps.re - kt2.re, kzIm = k0 * k0 * eps.im - kt2.im; // k_z²
+    const a = formWeight(eps, mesh.polarization);
+    const h = reg.h_m;
+    // α = a / h, β = a k_z² h
+    const c = sys.condenser.condense(a.re / h, a.im / h, (a.re * kzRe - a.im * kzIm) * h, (a.re * kzIm + a.im * kzRe) * h);
+    sys.d0Re[r] = c.d0Re; sys.d0Im[r] = c.d0Im; sys.d1Re[r] = c.d1Re; sys.d1Im[r] = c.d1Im; sys.oRe[r] = c.oRe; sys.oIm[r] = c.oIm;
+    for (let k = 0; k < m * 2; k++) { sys.gRe[r * m * 2 + k] = c.gRe[k]; sys.gIm[r * m * 2 + k] = c.gIm[k]; }
+    sys.aRe[r] = a.re; sys.aIm[r] = a.im;
+  }
+
+  clearTridiagonal(tri);
+  const { dRe, dIm, oRe, oIm, bRe, bIm } = tri;
+  const n = tri.n;
+  for (let s = 0; s < mesh.segRegion.length; s++) {
+    const r = mesh.segRegion[s];
+    if (r >= 0) {
+      dRe[s] += sys.d0Re[r]; dIm[s] += sys.d0Im[r];
+      dRe[s + 1] += sys.d1Re[r]; dIm[s + 1] += sys.d1Im[r];
+      oRe[s] = sys.oRe[r]; oIm[s] = sys.oIm[r];
+    } else {
+      const y = (k0 * mesh.sheets[-1 - r].ohm_per_sq) / ETA0_ohm; // TM sheet link, y = j k0 R_s / η0
+      dIm[s] += y; dIm[s + 1] += y; oIm[s] = -y;
+    }
+  }
+  if (mesh.polarization === 'TE')
+    for (const sh of mesh.sheets) dIm[sh.vertex] += (k0 * ETA0_ohm) / sh.ohm_per_sq;
+
+  // Front port at vertex 0, position x_p.
+  const epsF = permittivity(mesh.front, f_Hz);
+  const kz0 = normalWavenumber(epsF, k0, kt2), aF = formWeight(epsF, mesh.polarization);
+  const kaRe = kz0.re * aF.re - kz0.im * aF.im, kaIm = kz0.re * aF.im + kz0.im * aF.re;
+  sys.port.kaRe = kaRe; sys.port.kaIm = kaIm;
+  dRe[0] += -kaIm; dIm[0] += kaRe; // + j k_z0 a_f
+  // u_inc(x_p) = e^{−j k_z0 x_p}
+  const xp = mesh.vertexX[0];
+  const mag = Math.exp(kz0.im * xp), ph = -kz0.re * xp;
+  const uRe = mag * Math.cos(ph), uIm = mag * Math.sin(ph);
+  // 2 j (k_z0 a_f) u_inc
+  bRe[0] = -2 * (kaRe * uIm + kaIm * uRe); bIm[0] = 2 * (kaRe * uRe - kaIm * uIm);
+
+  if (mesh.back) {
+    const epsB = permittivity(mesh.back, f_Hz);
+    const kzb = normalWavenumber(epsB, k0, kt2), aB = formWeight(epsB, mesh.polarization);
+    const bkRe = kzb.re * aB.re - kzb.im * aB.im, bkIm = kzb.re * aB.im + kzb.im * aB.re;
+    sys.port.backKaRe = bkRe; sys.port.backKaIm = bkIm;
+    dRe[n - 1] += -bkIm; dIm[n - 1] += bkRe;
+  } else if (mesh.polarization === 'TE') {
+    dRe[n - 1] = 1; dIm[n - 1] = 0; bRe[n - 1] = 0; bIm[n - 1] = 0;
+    if (n > 1) { oRe[n - 2] = 0; oIm[n - 2] = 0; }
+  }
+  solveTridiagonal(tri);
+}
