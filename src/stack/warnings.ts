@@ -1,0 +1,43 @@
+// Warnings about a valid stack that a user should see (they do not stop a run):
+// the band leaving a material's validity range, a lossy front half-space.
+
+import type { Material } from '../materials/types.ts';
+import { isSheet } from '../materials/types.ts';
+import { permittivity } from '../materials/permittivity.ts';
+import { ghzFromHz } from '../units.ts';
+import type { Stack } from './types.ts';
+
+/** Compact GHz for messages: 0.5, 12, 1e-3. */
+export const fmtGHz = (f: number): string => String(Number(f.toPrecision(6)));
+
+/** The materials a stack uses, each once, in order of appearance with where it is first used. */
+export function usedMaterials(stack: Stack): { material: Material; where: string }[] {
+  const out: { material: Material; where: string }[] = [];
+  const add = (m: Material, where: string) => { if (!out.some((u) => u.material.name === m.name)) out.push({ material: m, where }); };
+  add(stack.front, 'front');
+  stack.layers.forEach((l, i) => add(l.material, `layers[${i}]`));
+  if (stack.back !== 'pec') add(stack.back, 'back');
+  return out;
+}
+
+export function stackWarnings(stack: Stack): string[] {
+  const out: string[] = [];
+  const lo = ghzFromHz(stack.band_Hz[0]), hi = ghzFromHz(stack.band_Hz[1]);
+  for (const { material: m, where } of usedMaterials(stack)) {
+    if (m.valid_GHz === null) continue;
+    const [vlo, vhi] = m.valid_GHz;
+    if (lo < vlo || hi > vhi) {
+      out.push(`${where}: the band ${fmtGHz(lo)}–${fmtGHz(hi)} GHz leaves the validity range of "${m.name}", ` +
+        `${fmtGHz(vlo)}–${fmtGHz(vhi)} GHz (${m.source}); results outside it are extrapolated`);
+    }
+  }
+  const front = stack.front;
+  if (!isSheet(front.spec)) {
+    const e = permittivity(front.spec, (stack.band_Hz[0] + stack.band_Hz[1]) / 2);
+    if (e.im < 0) {
+      out.push(`front: "${front.name}" is lossy; R and T are referred to the plane x = 0 and the incident wave ` +
+        'is taken with amplitude 1 there');
+    }
+  }
+  return out;
+}
