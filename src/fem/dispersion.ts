@@ -38,14 +38,51 @@ export const MIN_DENSITY = 4;
  * A-priori estimate of max |R − R_exact|, |T − T_exact| for order p at `density` elements per wavelength on a stack of
  * electrical size `phase_rad` = Σ |k_z| d over its layers with `interfaces` material boundaries: each radian of path
  * accumulates the relative wavenumber error (pollution), each interface adds one more, and a round trip doubles it.
+ * Nodal values carry only this error; a conservative figure (measured errors sit 3–10× below it).
  */
 export function errorEstimate(p: FemOrder, density: number, phase_rad: number, interfaces: number): number {
   return 2 * asymptoticPhaseError(p, (2 * Math.PI) / density) * (phase_rad + interfaces);
 }
 
-/** Smallest density (elements per wavelength, one decimal, ≥ MIN_DENSITY) whose estimate is within `budget`. */
-export function densityFor(p: FemOrder, budget: number, phase_rad: number, interfaces: number): number {
+/** max over ξ ∈ [0, 1] of |ω(ξ)| and of |ω'(ξ)|, ω(ξ) = Π_i (ξ − i/p) the node polynomial of the Lagrange remainder. */
+function nodePolynomialMax(p: number): { value: number; slope: number } {
+  let value = 0, slope = 0;
+  const N = 3000;
+  for (let k = 0; k <= N; k++) {
+    const xi = k / N;
+    let v = 1, d = 0;
+    for (let i = 0; i <= p; i++) { d = d * (xi - i / p) + v; v *= xi - i / p; }
+    value = Math.max(value, Math.abs(v));
+    slope = Math.max(slope, Math.abs(d));
+  }
+  return { value, slope };
+}
+const NODE_POLY = [{ value: 0, slope: 0 }, nodePolynomialMax(1), nodePolynomialMax(2), nodePolynomialMax(3)];
+
+/**
+ * Between nodes the field also carries the interpolation error of degree p. For a plane wave of unit amplitude the
+ * Lagrange remainder bounds it by (kh)^{p+1} / (p+1)! · max|ω| (any numerical analysis text, e.g. Süli & Mayers,
+ * An Introduction to Numerical Analysis, 2003, Thm 6.2); its derivative over k, which is what a tangential E read
+ * from an H_y solution carries, to leading order by (kh)^p / (p+1)! · max|ω'|. Used to size profile meshes.
+ */
+export function interpolationEstimate(p: FemOrder, density: number, derivative = false): number {
+  let fact = 1;
+  for (let i = 2; i <= p + 1; i++) fact *= i;
+  const kh = (2 * Math.PI) / density;
+  return derivative ? (kh ** p / fact) * NODE_POLY[p].slope : (kh ** (p + 1) / fact) * NODE_POLY[p].value;
+}
+
+/** What the field between nodes must meet: a budget, for values or for derivatives. */
+export interface BetweenNodes { budget: number; derivative: boolean }
+
+/** Smallest density (elements per wavelength, one decimal, ≥ MIN_DENSITY) whose pollution estimate is within
+ *  `budget` and, when `between` is given, whose interpolation estimate is within its budget. */
+export function densityFor(p: FemOrder, budget: number, phase_rad: number, interfaces: number, between?: BetweenNodes): number {
   const kh = (budget / (2 * dispersionCoefficient(p) * (phase_rad + interfaces))) ** (1 / (2 * p));
-  const n = Math.ceil(((2 * Math.PI) / kh) * 10) / 10;
-  return Math.max(MIN_DENSITY, n);
+  let n = (2 * Math.PI) / kh;
+  if (between) {
+    const unit = interpolationEstimate(p, 2 * Math.PI, between.derivative); // its value at kh = 1
+    n = Math.max(n, (2 * Math.PI) / (between.budget / unit) ** (1 / (between.derivative ? p : p + 1)));
+  }
+  return Math.max(MIN_DENSITY, Math.ceil(n * 10) / 10);
 }

@@ -75,11 +75,22 @@ function validateOptions(o: FemOptions): void {
 /**
  * Plans the mesh for `stack` sized for the frequencies `sizing_Hz`, optionally with buffers of the front medium
  * (front_m in front of x = 0) and of the back medium (back_m behind the back face, open back only).
- * The a-priori estimate covers the stack's layers (the buffers carry their own phase; they do not enter R and T).
+ * The a-priori estimate covers the stack's layers and any buffers.
  */
-export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: FemOptions = {}, front_m = 0, back_m = 0, polarization?: Polarization): FemMesh {
+export interface MeshExtent {
+  /** Buffer of the front medium in front of x = 0, and of the back medium behind the back face (metres). */
+  front_m: number;
+  back_m: number;
+  /** Polarization to solve (a profile at normal incidence solves TE). */
+  polarization: Polarization;
+  /** Size for the field between nodes too (profiles), not just for R and T. */
+  betweenNodes: boolean;
+}
+
+export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: FemOptions = {}, extent?: MeshExtent): FemMesh {
   validateOptions(options);
-  const pol = polarization ?? stack.incidence.polarization;
+  const pol = extent?.polarization ?? stack.incidence.polarization;
+  const front_m = extent?.front_m ?? 0, back_m = extent?.back_m ?? 0;
   const plans: RegionPlan[] = [];
   let phase = 0, interfaces = 1;
   stack.layers.forEach((l, i) => {
@@ -89,13 +100,23 @@ export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
     plans.push({ material: l.material.spec, layer: i, thickness_m: l.thickness_m, kMax });
     phase += kMax * l.thickness_m;
   });
-  const budget = (options.tolerance ?? DEFAULT_TOLERANCE) / ESTIMATE_SAFETY;
-  const count = (density: number) => plans.reduce((n, r) => n + elementsFor(r, density), 0);
+  const back = stack.back === 'pec' ? null : stack.back.spec;
+  // Buffers (profiles only) carry the field too: their phase enters the estimate like a layer's.
+  const frontPlan: RegionPlan | null = front_m > 0
+    ? { material: stack.front.spec, layer: -1, thickness_m: front_m, kMax: maxNormalWavenumber(stack, stack.front.spec, sizing_Hz) } : null;
+  const backPlan: RegionPlan | null = back_m > 0 && back
+    ? { material: back, layer: -2, thickness_m: back_m, kMax: maxNormalWavenumber(stack, back, sizing_Hz) } : null;
+  for (const b of [frontPlan, backPlan]) if (b) { phase += b.kMax * b.thickness_m; interfaces++; }
+  const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
+  const budget = tolerance / ESTIMATE_SAFETY;
+  // Field between nodes (profiles): half the tolerance; TM profiles read E from H_y's derivative.
+  const between = extent?.betweenNodes ? { budget: tolerance / 2, derivative: pol === 'TM' } : undefined;
+  const count = (density: number) => [...plans, frontPlan, backPlan].reduce((n, r) => n + (r ? elementsFor(r, density) : 0), 0);
 
   let order: FemOrder, density: number;
   const orderAuto = options.order === undefined, densityAuto = options.density === undefined;
   if (!orderAuto && !densityAuto) { order = options.order!; density = options.density!; }
-  else if (!orderAuto) { order = options.order!; density = densityFor(order, budget, phase, interfaces); }
+  else if (!orderAuto) { order = options.order!; density = densityFor(order, budget, phase, interfaces, between); }
   else if (!densityAuto) {
     density = options.density!;
     // The lowest order whose estimate meets the budget at this density, else the highest.
@@ -103,20 +124,16 @@ export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
   } else {
     // Cheapest: fewest elements (the per-frequency work is one tridiagonal solve on the vertices plus one
     // condensation per region); ties go to the higher order.
-    order = 3; density = densityFor(3, budget, phase, interfaces);
+    order = 3; density = densityFor(3, budget, phase, interfaces, between);
     let best = count(density);
     for (const p of [2, 1] as FemOrder[]) {
-      const d = densityFor(p, budget, phase, interfaces), n = count(d);
+      const d = densityFor(p, budget, phase, interfaces, between), n = count(d);
       if (n < best) { best = n; order = p; density = d; }
     }
   }
   density = Math.max(density, densityAuto ? MIN_DENSITY : 3);
 
-  const back = stack.back === 'pec' ? null : stack.back.spec;
-  const all: RegionPlan[] = [];
-  if (front_m > 0) all.push({ material: stack.front.spec, layer: -1, thickness_m: front_m, kMax: maxNormalWavenumber(stack, stack.front.spec, sizing_Hz) });
-  all.push(...plans);
-  if (back_m > 0 && back) all.push({ material: back, layer: -2, thickness_m: back_m, kMax: maxNormalWavenumber(stack, back, sizing_Hz) });
+  const all: RegionPlan[] = [...(frontPlan ? [frontPlan] : []), ...plans, ...(backPlan ? [backPlan] : [])];
   const totalElements = all.reduce((n, r) => n + elementsFor(r, density), 0);
   if (totalElements > MAX_ELEMENTS)
     throw new Error(`fem: the mesh would need ${totalElements} elements (limit ${MAX_ELEMENTS}); lower the FEM density or the band top`);
@@ -135,8 +152,8 @@ export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
     vertex += n;
     x += r.thickness_m;
   };
-  if (front_m > 0) { addRegion(all[0]); x = 0; frontVertex = vertex; }
-  let planIndex = front_m > 0 ? 1 : 0;
+  if (frontPlan) { addRegion(frontPlan); x = 0; frontVertex = vertex; }
+  let planIndex = frontPlan ? 1 : 0;
   stack.layers.forEach((l, i) => {
     if (l.kind === 'bulk') { addRegion(all[planIndex++]); return; }
     const sheet: FemSheet = { ohm_per_sq: l.material.spec.ohm_per_sq, layer: i, vertex };
@@ -144,7 +161,7 @@ export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
     if (pol === 'TM') { segRegion.push(-sheets.length); segX0.push(x); segH.push(0); vertex++; }
   });
   const backVertex = vertex;
-  if (back_m > 0 && back) addRegion(all[planIndex]);
+  if (backPlan) addRegion(backPlan);
 
   const vertexX = new Float64Array(vertex + 1);
   for (let s = 0; s < segX0.length; s++) { vertexX[s] = segX0[s]; vertexX[s + 1] = segX0[s] + segH[s]; }
