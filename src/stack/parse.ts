@@ -17,7 +17,7 @@ import {
   describe, FORBIDDEN_KEYS, has, isRecord, joinIndex, joinKey, own, Problems, readNumber,
   refuseForbiddenKeys, refuseUnknownKeys, suggest,
 } from './problems.ts';
-import { fmtGHz, stackWarnings } from './warnings.ts';
+import { fmtGHz, obliqueProfileWarning, stackWarnings } from './warnings.ts';
 
 export type ParseResult =
   | { ok: true; stack: Stack; file: StackFile; warnings: string[] }
@@ -87,7 +87,7 @@ export function parseStackObject(obj: unknown): ParseResult {
   const used = new Set<string>([file.front, file.back, ...file.layers.map((l) => l.material)]);
   for (const name of user.defs.keys()) if (!used.has(name)) p.warn(joinKey('materials', name), 'defined but not used');
   if (incidence.angle_deg > 0 && has(obj, 'profile_GHz')) {
-    p.warn('profile_GHz', `the standing-wave profile is computed at normal incidence only; at incidence.angle_deg = ${incidence.angle_deg} it is left out`);
+    p.warnings.push(obliqueProfileWarning(incidence.angle_deg));
   }
   if (file.profile_GHz < band[0] || file.profile_GHz > band[1]) {
     p.warn('profile_GHz', `${fmtGHz(file.profile_GHz)} GHz lies outside the band ${fmtGHz(band[0])}–${fmtGHz(band[1])} GHz`);

@@ -41,3 +41,7 @@ export function stackWarnings(stack: Stack): string[] {
   }
   return out;
 }
+
+/** The profile is computed at normal incidence only. */
+export const obliqueProfileWarning = (angle_deg: number): string =>
+  `profile_GHz: the standing-wave profile is computed at normal incidence only; at incidence.angle_deg = ${angle_deg} it is left out`;

@@ -1,0 +1,78 @@
+// What every CLI command looks like, how it reads its arguments, and the errors it may throw.
+
+import { parseArgs, type ParseArgsConfig } from 'node:util';
+
+/** Where a command writes: one call per line (no trailing newline needed). Tests capture it. */
+export interface Io {
+  out(line: string): void;
+  err(line: string): void;
+}
+
+export const processIo = (): Io => ({
+  out: (line) => { process.stdout.write(`${line}\n`); },
+  err: (line) => { process.stderr.write(`${line}\n`); },
+});
+
+export interface Command {
+  /** As typed after `slabecho`. */
+  name: string;
+  /** One line for `slabecho --help`. */
+  summary: string;
+  /** The full text for `slabecho NAME --help`. */
+  usage: string;
+  /** Exit code: 0 done, 1 internal error, 2 bad input or usage. May throw CliError. */
+  run(args: string[], io: Io): Promise<number>;
+}
+
+/** An error the user can fix; main prints its message (one line) and exits with `exitCode`. */
+export class CliError extends Error {
+  override name = 'CliError';
+  constructor(message: string, readonly exitCode: 1 | 2 = 2) { super(message); }
+}
+
+/** Wrong command-line use (unknown option, missing FILE): exit 2. */
+export class UsageError extends CliError {
+  override name = 'UsageError';
+}
+
+/** Bad input (a missing file, an invalid stack): exit 2. */
+export class InputError extends CliError {
+  override name = 'InputError';
+}
+
+type Options = NonNullable<ParseArgsConfig['options']>;
+
+/**
+ * node's util.parseArgs, strict, with `--help`/`-h` added. Returns null when help was printed.
+ * Positional counts are checked against `positionals` ([min, max]).
+ */
+export function readArgs<O extends Options>(cmd: Pick<Command, 'name' | 'usage'>, args: string[], io: Io,
+  options: O, positionals: [number, number]) {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args, options: { ...options, help: { type: 'boolean', short: 'h' } }, allowPositionals: true, strict: true,
+    });
+  } catch (e) {
+    throw new UsageError(`${describeArgError(e)} (see slabecho ${cmd.name} --help)`);
+  }
+  if (parsed.values.help) { io.out(cmd.usage); return null; }
+  const n = parsed.positionals.length;
+  if (n < positionals[0]) throw new UsageError(`missing argument (see slabecho ${cmd.name} --help)`);
+  if (n > positionals[1]) throw new UsageError(`unexpected argument "${parsed.positionals[positionals[1]]}" (see slabecho ${cmd.name} --help)`);
+  return parsed as { values: Record<string, string | boolean | undefined>; positionals: string[] };
+}
+
+/** node's parseArgs messages are long; keep the part a user needs. */
+function describeArgError(e: unknown): string {
+  const msg = e instanceof Error ? e.message : String(e);
+  const code = (e as { code?: string }).code;
+  const opt = (/'(-[^' ]*)/.exec(msg)?.[1]) ?? '';
+  if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') return `unknown option ${opt}`;
+  if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
+    if (/argument missing/.test(msg)) return `option ${opt} needs a value`;
+    if (/does not take an argument/.test(msg)) return `option ${opt} takes no value`;
+    if (/ambiguous/.test(msg)) return `option ${opt} needs a value (to pass one starting with "-", write ${opt}=VALUE)`;
+  }
+  return msg.split(/\.\s|\n/)[0];
+}

@@ -1,0 +1,104 @@
+// slabecho materials [--at-GHz F] [--json]: the built-in catalog with sources and validity ranges.
+
+import { CATALOG } from '../../materials/catalog.ts';
+import { effectiveConductivity, permittivity } from '../../materials/permittivity.ts';
+import type { Material } from '../../materials/types.ts';
+import { fmtGHz } from '../../stack/warnings.ts';
+import type { Command } from '../command.ts';
+import { readArgs, UsageError } from '../command.ts';
+
+export interface MaterialRow {
+  name: string;
+  model: string;
+  /** ε' at --at-GHz (only with it). */
+  eps_r?: number;
+  /** Effective conductivity ω ε0 ε'' at --at-GHz, S/m (only with it). */
+  sigma_S_per_m?: number;
+  parameters: Record<string, unknown>;
+  source: string;
+  valid_GHz: [number, number] | null;
+  note: string | null;
+}
+
+export function materialRow(m: Material, f_GHz?: number): MaterialRow {
+  const { model, ...parameters } = m.spec;
+  const row: MaterialRow = { name: m.name, model, parameters, source: m.source, valid_GHz: m.valid_GHz, note: m.note ?? null };
+  if (f_GHz !== undefined && m.spec.model !== 'sheet') {
+    row.eps_r = sig(permittivity(m.spec, f_GHz * 1e9).re);
+    row.sigma_S_per_m = sig(effectiveConductivity(m.spec, f_GHz * 1e9));
+  }
+  return row;
+}
+
+const sig = (x: number): number => Number(x.toPrecision(6));
+
+/** The model's parameters in a few characters: "a=5.24 b=0 c=0.0462 d=0.7822". */
+function parameterText(m: Material): string {
+  const s = m.spec;
+  switch (s.model) {
+    case 'fixed': return `ε_r=${s.eps_r} σ=${s.sigma_S_per_m}`;
+    case 'power-law': return `a=${s.a} b=${s.b} c=${s.c} d=${s.d}`;
+    case 'debye': return `ε∞=${s.eps_inf} ${s.poles.map((p) => `Δε=${p.delta_eps} τ=${p.tau_ps}ps`).join(' ')}${s.sigma_S_per_m ? ` σ=${s.sigma_S_per_m}` : ''}`;
+    case 'lorentz': return `ε∞=${s.eps_inf} ${s.poles.map((p) => `Δε=${p.delta_eps} f0=${p.f0_GHz} γ=${p.gamma_GHz}GHz`).join(' ')}`;
+    case 'drude': return `ε∞=${s.eps_inf} fp=${s.plasma_GHz} fc=${s.collision_GHz}GHz`;
+    case 'sheet': return `${s.ohm_per_sq} Ω/sq`;
+  }
+}
+
+function table(header: string[], rows: string[][]): string[] {
+  const w = header.map((h, j) => Math.max(h.length, ...rows.map((r) => r[j].length)));
+  const line = (cells: string[]) => cells.map((c, j) => (j === cells.length - 1 ? c : c.padEnd(w[j]))).join('  ').trimEnd();
+  return [line(header), line(w.map((n) => '-'.repeat(n))), ...rows.map(line)];
+}
+
+export const materials: Command = {
+  name: 'materials',
+  summary: 'list the built-in materials with their sources and validity ranges',
+  usage: `Usage: slabecho materials [--at-GHz F] [--json]
+
+List the built-in material catalog: name, model, parameters, the source of the numbers and the
+frequency range over which the source vouches for them. Names are used as they appear here
+(lowercase, hyphenated) in a stack file's layers, front and back.
+
+Options:
+  --at-GHz F   also give ε' and the effective conductivity σ (S/m) of each material at F GHz;
+               a validity range that does not contain F is marked with "!"
+  --json       print a JSON array of rows {name, model, eps_r, sigma_S_per_m, parameters, source,
+               valid_GHz, note} (eps_r and sigma_S_per_m only with --at-GHz)
+  -h, --help   show this help`,
+  async run(args, io) {
+    const a = readArgs(materials, args, io, { 'at-GHz': { type: 'string' }, json: { type: 'boolean' } }, [0, 0]);
+    if (a === null) return 0;
+    let f: number | undefined;
+    const raw = a.values['at-GHz'];
+    if (typeof raw === 'string') {
+      f = raw.trim() === '' ? Number.NaN : Number(raw);
+      if (!Number.isFinite(f) || f <= 0 || f > 1000) throw new UsageError(`--at-GHz: must be a number > 0 and at most 1000 (GHz) (got "${raw}")`);
+    }
+    const rows = CATALOG.map((m) => materialRow(m, f));
+    if (a.values.json) { io.out(JSON.stringify(rows, null, 2)); return 0; }
+    const valid = (m: Material) => {
+      if (m.valid_GHz === null) return 'any';
+      const out = `${fmtGHz(m.valid_GHz[0])}–${fmtGHz(m.valid_GHz[1])}`;
+      return f !== undefined && (f < m.valid_GHz[0] || f > m.valid_GHz[1]) ? `${out} !` : out;
+    };
+    const header = f === undefined
+      ? ['name', 'model', 'parameters (f in GHz, σ in S/m)', 'valid GHz', 'source']
+      : ['name', 'model', `ε' @${fmtGHz(f)} GHz`, `σ S/m @${fmtGHz(f)} GHz`, 'valid GHz', 'source'];
+    const body = CATALOG.map((m, i) => f === undefined
+      ? [m.name, m.spec.model, parameterText(m), valid(m), m.source]
+      : [m.name, m.spec.model, String(rows[i].eps_r ?? ''), String(rows[i].sigma_S_per_m ?? ''), valid(m), m.source]);
+    for (const l of table(header, body)) io.out(l);
+    const notes = CATALOG.filter((m) => m.note !== undefined);
+    if (notes.length > 0) {
+      io.out('');
+      io.out('Notes:');
+      for (const m of notes) io.out(`  ${m.name}: ${m.note}`);
+    }
+    if (f !== undefined && CATALOG.some((m) => m.valid_GHz && (f! < m.valid_GHz[0] || f! > m.valid_GHz[1]))) {
+      io.out('');
+      io.out(`! ${fmtGHz(f)} GHz lies outside this material's validity range: the value is extrapolated.`);
+    }
+    return 0;
+  },
+};

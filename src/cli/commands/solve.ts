@@ -1,0 +1,76 @@
+// slabecho solve FILE --out DIR: exact frequency-domain results (spectrum, profile, summary) into DIR.
+
+import { join } from 'node:path';
+import { solveReport, type Report } from '../../report/solve.ts';
+import { formatCsv } from '../../report/table.ts';
+import { fmtGHz } from '../../stack/warnings.ts';
+import type { Stack } from '../../stack/types.ts';
+import type { Command, Io } from '../command.ts';
+import { InputError, readArgs, UsageError } from '../command.ts';
+import { ensureDir, loadStackFile, removeIfPresent, writeFilesAtomic } from '../io.ts';
+
+/** Load FILE, or print its problems (one line each) and throw InputError (exit 2). */
+export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: string[] } {
+  const r = loadStackFile(path);
+  if (!r.ok) {
+    for (const line of r.errors) io.err(`${path}: ${line}`);
+    throw new InputError(`${path}: ${r.errors.length} problem${r.errors.length === 1 ? '' : 's'}; nothing was written`);
+  }
+  return { stack: r.stack, warnings: r.warnings };
+}
+
+/** Write a report's files into `dir` atomically; returns the paths written. */
+export function writeReport(dir: string, report: Report): string[] {
+  ensureDir(dir);
+  const files = [{ name: 'spectrum.csv', text: formatCsv(report.spectrum) }];
+  if (report.profile.length > 0) files.push({ name: 'profile.csv', text: formatCsv(report.profile) });
+  files.push({ name: 'summary.json', text: `${JSON.stringify(report.summary, null, 2)}\n` });
+  const written = writeFilesAtomic(dir, files);
+  // A profile.csv left by an earlier normal-incidence run would not belong to these results.
+  if (report.profile.length === 0) removeIfPresent(join(dir, 'profile.csv'));
+  return written;
+}
+
+export const solve: Command = {
+  name: 'solve',
+  summary: 'exact R, T spectra and standing-wave profile of a stack into a directory',
+  usage: `Usage: slabecho solve FILE --out DIR
+
+Solve the stack in FILE with the exact transfer-matrix method and write into DIR (created if needed):
+  spectrum.csv   f_GHz,R_tmm_re,R_tmm_im,T_tmm_re,T_tmm_im: one row per frequency
+  profile.csv    x_mm,E_tmm_re,E_tmm_im: total field at profile_GHz, incident amplitude 1 at x = 0
+                 (normal incidence only; at oblique incidence it is not written)
+  summary.json   the stack as understood, methods run with timings, results in brief, warnings
+Files are written atomically: an interrupted run leaves the previous files or the new ones.
+
+Options:
+  --out DIR    output directory (required)
+  -h, --help   show this help
+
+Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
+  async run(args, io) {
+    const a = readArgs(solve, args, io, { out: { type: 'string' } }, [1, 1]);
+    if (a === null) return 0;
+    const out = a.values.out;
+    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho solve --help)');
+    const path = a.positionals[0];
+    const { stack, warnings } = loadOrExplain(path, io);
+    const report = solveReport(stack, { inputWarnings: warnings });
+    for (const w of report.warnings) io.err(`warning: ${w}`);
+    const written = writeReport(out, report);
+    const s = report.summary as { results: Record<string, number | null>; methods: { name: string; time_ms: number }[] };
+    const r = s.results;
+    const inc = stack.incidence.angle_rad === 0 ? `normal incidence (${stack.incidence.polarization})`
+      : `${(report.summary.incidence as { angle_deg: number }).angle_deg}° ${stack.incidence.polarization}`;
+    io.out(`${stack.title}: ${stack.layers.length} layer${stack.layers.length === 1 ? '' : 's'}, ` +
+      `${fmtGHz(stack.band_Hz[0] / 1e9)}–${fmtGHz(stack.band_Hz[1] / 1e9)} GHz, ${stack.points} points, ${inc}`);
+    let line = `|R| ${r.R_dB_min} to ${r.R_dB_max} dB`;
+    if (r.T_dB_min !== null) line += `; |T| ${r.T_dB_min} to ${r.T_dB_max} dB`;
+    if (typeof r.absorbed_fraction_max === 'number') {
+      line += `; absorbed up to ${(100 * r.absorbed_fraction_max).toFixed(1)} % (at ${fmtGHz(r.absorbed_fraction_max_at_GHz as number)} GHz)`;
+    }
+    io.out(line);
+    io.out(`wrote ${written.join(', ')} (${s.methods.map((m) => `${m.name} ${m.time_ms.toFixed(1)} ms`).join(', ')})`);
+    return 0;
+  },
+};

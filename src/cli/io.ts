@@ -1,0 +1,119 @@
+// File input and output for the CLI: reading a stack file with clear errors, creating the output
+// directory, and writing results atomically (temporary file in the same directory, then rename).
+
+import { closeSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { basename, dirname, join } from 'node:path';
+import { STACK_LIMITS } from '../stack/file.ts';
+import { parseStackText, type ParseResult } from '../stack/parse.ts';
+import { formatCsv, type Column } from '../report/table.ts';
+import { InputError } from './command.ts';
+
+const code = (e: unknown): string | undefined => (e as { code?: string } | null)?.code;
+
+/** The text of a stack file; InputError (exit 2) for a missing file, a directory, over 1 MB, not UTF-8. */
+export function readStackFile(path: string): string {
+  let size: number;
+  try {
+    const st = statSync(path);
+    if (st.isDirectory()) throw new InputError(`${path}: is a directory, not a stack file`);
+    size = st.size;
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    throw new InputError(`${path}: ${fsReason(e)}`);
+  }
+  if (size > STACK_LIMITS.maxTextBytes) {
+    throw new InputError(`${path}: ${size} bytes is over the ${STACK_LIMITS.maxTextBytes / 1e6} MB limit for a stack file`);
+  }
+  let bytes: Buffer;
+  try { bytes = readFileSync(path); } catch (e) { throw new InputError(`${path}: ${fsReason(e)}`); }
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new InputError(`${path}: not UTF-8 text (a stack file is JSON text)`);
+  }
+}
+
+/** Read and validate a stack file. Problems are returned (not thrown) so every one can be listed. */
+export function loadStackFile(path: string): ParseResult {
+  return parseStackText(readStackFile(path));
+}
+
+function fsReason(e: unknown): string {
+  switch (code(e)) {
+    case 'ENOENT': return 'no such file';
+    case 'EACCES': case 'EPERM': return 'permission denied';
+    case 'ENOTDIR': return 'a part of the path is not a directory';
+    case 'EISDIR': return 'is a directory';
+    default: return e instanceof Error ? e.message.split('\n')[0] : String(e);
+  }
+}
+
+/** mkdir -p; InputError if the path exists as something other than a directory or cannot be made. */
+export function ensureDir(dir: string, what = '--out'): void {
+  try {
+    mkdirSync(dir, { recursive: true });
+  } catch (e) {
+    const c = code(e);
+    if (c === 'EEXIST' || c === 'ENOTDIR') throw new InputError(`${what} ${dir}: exists and is not a directory`);
+    throw new InputError(`${what} ${dir}: cannot create the directory (${fsReason(e)})`);
+  }
+  if (!statSync(dir).isDirectory()) throw new InputError(`${what} ${dir}: exists and is not a directory`);
+}
+
+const tempName = (path: string): string =>
+  join(dirname(path), `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
+
+function writeTemp(path: string, text: string): string {
+  const tmp = tempName(path);
+  const fd = openSync(tmp, 'wx');
+  try {
+    writeSync(fd, text);
+    fsyncSync(fd);
+  } catch (e) {
+    closeSync(fd);
+    rmSync(tmp, { force: true });
+    throw e;
+  }
+  closeSync(fd);
+  return tmp;
+}
+
+/** Write `text` to `path` atomically: a reader sees the old file or the whole new one, never a part. */
+export function writeAtomic(path: string, text: string): void {
+  const tmp = writeTemp(path, text);
+  try { renameSync(tmp, path); } catch (e) { rmSync(tmp, { force: true }); throw e; }
+}
+
+/**
+ * Write several files into `dir`: all temporary files first, then the renames, so a failure while
+ * writing leaves none of the new files (and no temporary ones) behind.
+ */
+export function writeFilesAtomic(dir: string, files: readonly { name: string; text: string }[]): string[] {
+  const temps: string[] = [];
+  try {
+    for (const f of files) temps.push(writeTemp(join(dir, f.name), f.text));
+  } catch (e) {
+    for (const t of temps) rmSync(t, { force: true });
+    throw new InputError(`cannot write into ${dir}: ${fsReason(e)}`);
+  }
+  const written: string[] = [];
+  files.forEach((f, i) => {
+    const target = join(dir, f.name);
+    renameSync(temps[i], target);
+    written.push(target);
+  });
+  return written;
+}
+
+/** Remove a file if present (a stale output the current run does not produce). */
+export function removeIfPresent(path: string): boolean {
+  try { unlinkSync(path); return true; } catch (e) {
+    if (code(e) === 'ENOENT') return false;
+    throw e;
+  }
+}
+
+/** CSV text for columns (see report/table.ts); throws on NaN, naming the column. */
+export const csvText = (columns: readonly Column[]): string => formatCsv(columns);

@@ -1,0 +1,157 @@
+// The frequency-domain pipeline behind `slabecho solve` and the workbench: run the methods on a stack,
+// assemble the spectrum and profile tables and a summary. DOM-free; the caller writes the files.
+//
+// To add a method: run it after the exact solution, append its column groups (`R_<method>_re` …) with
+// `complexColumns`, push an entry to `methods`, and add its warnings. Keep the tmm columns first.
+
+import { dbFromAmplitude, degFromRad, ghzFromHz, mmFromM } from '../units.ts';
+import { permittivity, effectiveConductivity } from '../materials/permittivity.ts';
+import type { Material } from '../materials/types.ts';
+import { bandFrequencies, emptySpectrum, type Profile, type Spectrum } from '../results.ts';
+import { stackThickness_m, type Stack } from '../stack/types.ts';
+import { obliqueProfileWarning, stackWarnings } from '../stack/warnings.ts';
+import { absorption, solveTmm } from '../tmm/solve.ts';
+import { profilePositions, profileTmm } from '../tmm/profile.ts';
+import { SLABECHO_VERSION } from '../version.ts';
+import { assertTable, complexColumns, scaledColumn, type Column } from './table.ts';
+
+export interface Report {
+  /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
+  spectrum: Column[];
+  /** x_mm, E_tmm_re, E_tmm_im; empty at oblique incidence (the profile is normal incidence only). */
+  profile: Column[];
+  /** The stack as understood, the methods run with timings, results in brief, warnings. JSON-safe. */
+  summary: Record<string, unknown>;
+  warnings: string[];
+}
+
+export interface SolveOptions {
+  /** Called with 0 … 1 as the work advances. */
+  onProgress?: (fraction: number) => void;
+  /** Warnings from reading the input (parse warnings), listed first in the report. */
+  inputWarnings?: readonly string[];
+}
+
+export interface MethodRun { name: string; description: string; time_ms: number }
+
+const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+/** Solve `stack` with the exact method (and, as they land, the others) and assemble the report. */
+export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
+  const progress = options.onProgress ?? (() => {});
+  const warnings: string[] = [];
+  const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
+  for (const w of options.inputWarnings ?? []) warn(w);
+  for (const w of stackWarnings(stack)) warn(w);
+  const methods: MethodRun[] = [];
+  progress(0);
+
+  // Exact transfer-matrix spectrum, in chunks so progress means something on long sweeps.
+  const f_Hz = bandFrequencies(stack);
+  let t0 = now();
+  const tmm = solveInChunks(stack, f_Hz, (done) => progress(0.9 * done));
+  const spectrum: Column[] = [
+    scaledColumn('f_GHz', f_Hz, 1e-9),
+    ...complexColumns('R_tmm', tmm.R_re, tmm.R_im),
+    ...complexColumns('T_tmm', tmm.T_re, tmm.T_im),
+  ];
+  let tmm_ms = now() - t0;
+
+  // Standing-wave profile (normal incidence only).
+  let profile: Column[] = [];
+  let prof: Profile | undefined;
+  const angle_deg = roundDeg(degFromRad(stack.incidence.angle_rad));
+  if (stack.incidence.angle_rad === 0) {
+    t0 = now();
+    prof = profileTmm(stack, stack.profile_Hz, profilePositions(stack, stack.profile_Hz));
+    profile = [scaledColumn('x_mm', prof.x_m, 1e3), ...complexColumns('E_tmm', prof.E_re, prof.E_im)];
+    tmm_ms += now() - t0;
+  } else {
+    warn(obliqueProfileWarning(angle_deg));
+  }
+  methods.push({ name: 'tmm', description: 'exact transfer-matrix solution', time_ms: round3(tmm_ms) });
+
+  // Never hand out a NaN: a non-finite value here is a solver bug, reported as such.
+  assertTable(spectrum);
+  if (profile.length > 0) assertTable(profile);
+
+  const summary: Record<string, unknown> = {
+    slabecho_version: SLABECHO_VERSION,
+    title: stack.title,
+    band_GHz: [ghzFromHz(stack.band_Hz[0]), ghzFromHz(stack.band_Hz[1])],
+    points: stack.points,
+    incidence: { angle_deg, polarization: stack.incidence.polarization },
+    profile_GHz: prof ? ghzFromHz(stack.profile_Hz) : null,
+    front: materialSummary(stack.front, stack),
+    layers: stack.layers.map((l, index) => ({
+      index,
+      ...materialSummary(l.material, stack),
+      thickness_mm: l.kind === 'bulk' ? mmFromM(l.thickness_m) : 0,
+    })),
+    back: stack.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(stack.back, stack),
+    total_thickness_mm: mmFromM(stackThickness_m(stack)),
+    methods,
+    results: resultsInBrief(stack, tmm),
+    warnings,
+  };
+  progress(1);
+  return { spectrum, profile, summary, warnings };
+}
+
+function solveInChunks(stack: Stack, f_Hz: Float64Array, onDone: (fraction: number) => void): Spectrum {
+  const n = f_Hz.length, out = emptySpectrum(f_Hz);
+  const chunk = Math.max(64, Math.ceil(n / 20));
+  for (let i = 0; i < n; i += chunk) {
+    const part = solveTmm(stack, f_Hz.subarray(i, Math.min(n, i + chunk)));
+    out.R_re.set(part.R_re, i); out.R_im.set(part.R_im, i);
+    out.T_re.set(part.T_re, i); out.T_im.set(part.T_im, i);
+    onDone(Math.min(n, i + chunk) / n);
+  }
+  return out;
+}
+
+/** A material as understood: model, parameters, provenance, and ε_r at the band centre. */
+export function materialSummary(m: Material, stack: Stack): Record<string, unknown> {
+  const { model, ...parameters } = m.spec;
+  const out: Record<string, unknown> = { name: m.name, model, parameters, source: m.source, valid_GHz: m.valid_GHz };
+  if (m.note !== undefined) out.note = m.note;
+  if (m.spec.model !== 'sheet') {
+    const fc = (stack.band_Hz[0] + stack.band_Hz[1]) / 2;
+    const e = permittivity(m.spec, fc);
+    out.eps_r_at_centre = { re: e.re, im: e.im };
+    out.sigma_S_per_m_at_centre = effectiveConductivity(m.spec, fc);
+  }
+  return out;
+}
+
+/** |R|, |T| ranges in dB and the absorbed fraction (when the front medium is lossless). */
+function resultsInBrief(stack: Stack, sp: Spectrum): Record<string, unknown> {
+  const n = sp.f_Hz.length;
+  let rMin = Infinity, rMax = -Infinity, tMin = Infinity, tMax = -Infinity;
+  for (let i = 0; i < n; i++) {
+    const r = dbFromAmplitude(Math.hypot(sp.R_re[i], sp.R_im[i]));
+    const t = dbFromAmplitude(Math.hypot(sp.T_re[i], sp.T_im[i]));
+    rMin = Math.min(rMin, r); rMax = Math.max(rMax, r); tMin = Math.min(tMin, t); tMax = Math.max(tMax, t);
+  }
+  const out: Record<string, unknown> = {
+    R_dB_min: round3(rMin), R_dB_max: round3(rMax),
+    T_dB_min: stack.back === 'pec' ? null : round3(tMin), T_dB_max: stack.back === 'pec' ? null : round3(tMax),
+  };
+  // Incident and reflected powers separate only in a lossless front medium.
+  const frontLossless = [stack.band_Hz[0], stack.band_Hz[1]].every((f) => permittivity(stack.front.spec, f).im === 0);
+  if (frontLossless) {
+    const A = absorption(stack, sp);
+    let iMax = 0, aMin = Infinity;
+    for (let i = 0; i < n; i++) { if (A[i] > A[iMax]) iMax = i; aMin = Math.min(aMin, A[i]); }
+    if (A.every(Number.isFinite)) {
+      out.absorbed_fraction_max = round6(A[iMax]);
+      out.absorbed_fraction_max_at_GHz = ghzFromHz(sp.f_Hz[iMax]);
+      out.absorbed_fraction_min = round6(aMin);
+    }
+  }
+  return out;
+}
+
+const round3 = (x: number): number => Math.round(x * 1e3) / 1e3;
+const round6 = (x: number): number => Math.round(x * 1e6) / 1e6;
+const roundDeg = (x: number): number => Number(x.toPrecision(10));

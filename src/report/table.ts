@@ -1,0 +1,58 @@
+// Columnar tables: one named Float64Array per column, and their CSV form.
+
+export interface Column { name: string; data: Float64Array }
+
+/** Thrown when a table is inconsistent or holds a non-finite number: a bug, never a user error. */
+export class TableError extends Error {
+  override name = 'TableError';
+}
+
+/** Two columns `${prefix}_re`, `${prefix}_im` from split complex data. */
+export const complexColumns = (prefix: string, re: Float64Array, im: Float64Array): Column[] =>
+  [{ name: `${prefix}_re`, data: re }, { name: `${prefix}_im`, data: im }];
+
+/** A new column `scale · data` (unit conversion at the edge: Hz → GHz, m → mm). */
+export function scaledColumn(name: string, data: Float64Array, scale: number): Column {
+  const out = new Float64Array(data.length);
+  for (let i = 0; i < data.length; i++) out[i] = data[i] * scale;
+  return { name, data: out };
+}
+
+/** Check equal lengths, distinct names and finite values; throws TableError naming the column. */
+export function assertTable(columns: readonly Column[]): void {
+  if (columns.length === 0) throw new TableError('table has no columns');
+  const n = columns[0].data.length;
+  const names = new Set<string>();
+  for (const c of columns) {
+    if (!/^[A-Za-z0-9_]+$/.test(c.name)) throw new TableError(`column name "${c.name}" is not a plain identifier`);
+    if (names.has(c.name)) throw new TableError(`column ${c.name} appears twice`);
+    names.add(c.name);
+    if (c.data.length !== n) throw new TableError(`column ${c.name} has ${c.data.length} rows, ${columns[0].name} has ${n}`);
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(c.data[i])) throw new TableError(`column ${c.name} holds ${c.data[i]} at row ${i}`);
+    }
+  }
+}
+
+/** A number with 12 significant digits, trailing zeros dropped: 1.5, 0.000123, 1.23e-7, -0 → 0. */
+export function formatNumber(x: number): string {
+  if (x === 0) return '0';
+  return String(Number(x.toPrecision(12)));
+}
+
+/** CSV text: a header line of column names, then one line per row; "\n" line ends. Refuses NaN and ±Infinity. */
+export function formatCsv(columns: readonly Column[]): string {
+  assertTable(columns);
+  const n = columns[0].data.length;
+  const lines: string[] = [columns.map((c) => c.name).join(',')];
+  const row: string[] = new Array(columns.length);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < columns.length; j++) row[j] = formatNumber(columns[j].data[i]);
+    lines.push(row.join(','));
+  }
+  return lines.join('\n') + '\n';
+}
+
+/** The column called `name`, or undefined. */
+export const findColumn = (columns: readonly Column[], name: string): Column | undefined =>
+  columns.find((c) => c.name === name);
