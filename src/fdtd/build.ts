@@ -1,0 +1,132 @@
+// Allocation of the kernel states from a plan: per-node coefficients by subcell averaging,
+// sheets, pole arrays, CPML at the open ends, and the auxiliary (incident) grid.
+
+import { EPS0_F_per_m } from '../units.ts';
+import { type PmlGrading, PML_ORDER, PML_SIGMA_FACTOR, pmlRegion } from './cpml.ts';
+import { type DebyeArrays, type DispersiveSpan, type KernelState, type OscArrays, emptyKernelState } from './kernel.ts';
+import { type StepModel, refractiveIndex, stepModelPermittivity } from './media.ts';
+import type { GridPlan } from './types.ts';
+
+/** α_max Δt/ε0 as a fraction of 2π f_min Δt (CFS term; small). */
+const ALPHA_FRACTION = 0.05;
+
+/** A material filling [x0, x1] (metres from the front face; ±Infinity for half-spaces). */
+interface Placed { x0: number; x1: number; model: StepModel }
+
+interface NodeMedium {
+  epsInf: Float64Array; sigma: Float64Array;
+  debye: DebyeArrays[]; osc: OscArrays[];
+  debyeSum: Float64Array;
+}
+
+/** Fill per-node media of a grid of n nodes whose node i sits at x = (i − i0) dx. */
+function placeMedia(n: number, i0: number, dx: number, dt: number, placed: Placed[]): NodeMedium {
+  const epsInf = new Float64Array(n), sigma = new Float64Array(n), debyeSum = new Float64Array(n);
+  const debye: DebyeArrays[] = [], osc: OscArrays[] = [];
+  for (const p of placed) {
+    // Nodes whose cell [x − dx/2, x + dx/2] overlaps (x0, x1).
+    const lo = Math.max(0, Math.floor((p.x0 / dx + i0 - 0.5)) );
+    const hi = Math.min(n, Math.ceil((p.x1 / dx + i0 + 0.5)) + 1);
+    if (!(hi > lo)) continue;
+    const w = new Float64Array(hi - lo);
+    let first = -1, last = -1;
+    for (let i = lo; i < hi; i++) {
+      const c0 = (i - i0 - 0.5) * dx, c1 = (i - i0 + 0.5) * dx;
+      const ov = Math.max(0, Math.min(c1, p.x1) - Math.max(c0, p.x0)) / dx;
+      w[i - lo] = ov;
+      if (ov > 0) { if (first < 0) first = i; last = i; }
+    }
+    if (first < 0) continue;
+    const a = first, b = last + 1;
+    for (let i = a; i < b; i++) {
+      const wi = w[i - lo];
+      epsInf[i] += wi * p.model.epsInf;
+      sigma[i] += wi * p.model.sigma;
+    }
+    for (const pole of p.model.debye) {
+      const bb = new Float64Array(b - a);
+      const denom = 2 * pole.tau_s + dt;
+      for (let i = a; i < b; i++) { bb[i - a] = (w[i - lo] * pole.deps * dt) / denom; debyeSum[i] += bb[i - a]; }
+      debye.push({ lo: a, hi: b, a: (2 * pole.tau_s - dt) / denom, b: bb, p: new Float64Array(b - a) });
+    }
+    for (const pole of p.model.osc) {
+      const g = 1 + (pole.gamma * dt) / 2;
+      const zeta = new Float64Array(b - a);
+      for (let i = a; i < b; i++) zeta[i - a] = (w[i - lo] * pole.c * dt * dt) / g;
+      osc.push({
+        lo: a, hi: b, alpha: (2 - pole.w0sq * dt * dt) / g, xi: -(1 - (pole.gamma * dt) / 2) / g,
+        zeta, p: new Float64Array(b - a), pOld: new Float64Array(b - a),
+      });
+    }
+  }
+  return { epsInf, sigma, debye, osc, debyeSum };
+}
+
+/** Coefficients of a state from its per-node media (walls at both ends stay zero). */
+function fillCoefficients(s: KernelState, m: NodeMedium, courant: number, dt: number): Float64Array {
+  const n = s.n;
+  for (let i = 0; i < n - 1; i++) s.db[i] = courant;
+  let dLo = n, dHi = 0;
+  for (const g of m.debye) { dLo = Math.min(dLo, g.lo); dHi = Math.max(dHi, g.hi); }
+  for (const g of m.osc) { dLo = Math.min(dLo, g.lo); dHi = Math.max(dHi, g.hi); }
+  const cp = dHi > dLo ? new Float64Array(dHi - dLo) : null;
+  for (let i = 1; i < n - 1; i++) {
+    const sg = (m.sigma[i] * dt) / (2 * EPS0_F_per_m);
+    const den = m.epsInf[i] + sg + m.debyeSum[i];
+    s.ca[i] = (m.epsInf[i] - sg - m.debyeSum[i]) / den;
+    s.cb[i] = courant / den;
+    if (cp && i >= dLo && i < dHi) cp[i - dLo] = 1 / den;
+  }
+  if (cp) {
+    const span: DispersiveSpan = {
+      lo: dLo, hi: dHi, cp, eOld: new Float64Array(dHi - dLo), acc: new Float64Array(dHi - dLo),
+      debye: m.debye, osc: m.osc,
+    };
+    s.disp = span;
+  }
+  return m.epsInf;
+}
+
+export interface BuiltGrids {
+  main: KernelState;
+  aux: KernelState;
+  /** ε∞ per main node (energy weights). */
+  epsInf: Float64Array;
+}
+
+function grading(plan: GridPlan, model: StepModel, band_Hz: [number, number]): PmlGrading {
+  const fMid = (band_Hz[0] + band_Hz[1]) / 2;
+  return {
+    cells: plan.pmlCells, order: PML_ORDER, sigmaFactor: PML_SIGMA_FACTOR,
+    alphaN: ALPHA_FRACTION * 2 * Math.PI * band_Hz[0] * plan.dt_s,
+    n: refractiveIndex(stepModelPermittivity(model, fMid)), courant: plan.courant,
+  };
+}
+
+export function buildGrids(plan: GridPlan, band_Hz: [number, number]): BuiltGrids {
+  const { dx_m: dx, dt_s: dt, courant, nodes, effective } = plan;
+  const P = plan.pmlCells;
+  // Main grid.
+  const main = emptyKernelState(nodes.total);
+  const placed: Placed[] = [{ x0: -Infinity, x1: 0, model: effective.front }];
+  for (const s of effective.segments) placed.push({ x0: s.x0_m, x1: s.x1_m, model: s.model });
+  if (effective.back !== 'pec') placed.push({ x0: effective.thickness_m, x1: Infinity, model: effective.back });
+  const media = placeMedia(nodes.total, nodes.front, dx, dt, placed);
+  // Sheets: conductance split between the two nearest nodes (all of it on a node it sits on).
+  for (const sh of effective.sheets) {
+    const u = sh.x_m / dx + nodes.front;
+    const j = Math.floor(u + 1e-9), f = Math.max(0, u - j);
+    const gPerLength = sh.conductance_S / dx;
+    if (f < 1e-9) media.sigma[j] += gPerLength;
+    else { media.sigma[j] += (1 - f) * gPerLength; media.sigma[j + 1] += f * gPerLength; }
+  }
+  const epsInf = fillCoefficients(main, media, courant, dt);
+  main.pml.push(pmlRegion(P, 0, grading(plan, effective.front, band_Hz)));
+  if (effective.back !== 'pec') main.pml.push(pmlRegion(nodes.pmlBackStart, nodes.total - 1, grading(plan, effective.back, band_Hz)));
+  // Auxiliary grid: the front medium everywhere, hard source at node 0, CPML at the far end.
+  const aux = emptyKernelState(nodes.auxTotal);
+  const auxMedia = placeMedia(nodes.auxTotal, 0, dx, dt, [{ x0: -Infinity, x1: Infinity, model: effective.front }]);
+  fillCoefficients(aux, auxMedia, courant, dt);
+  aux.pml.push(pmlRegion(nodes.auxTotal - 1 - P, nodes.auxTotal - 1, grading(plan, effective.front, band_Hz)));
+  return { main, aux, epsInf };
+}

@@ -1,0 +1,102 @@
+// The stack as the engine steps it: power laws fitted, good conductors turned into a wall (thick)
+// or a resistive sheet (thin film), warnings saying so.
+
+import { effectiveConductivity, permittivity } from '../materials/permittivity.ts';
+import type { BulkModel } from '../materials/types.ts';
+import type { BulkMaterial, Stack } from '../stack/types.ts';
+import { MU0_H_per_m } from '../units.ts';
+import { PlanError } from './errors.ts';
+import { type PowerLawFit, fitPowerLaw } from './fit-power-law.ts';
+import { type StepModel, stepModelOf } from './media.ts';
+import type { EffectiveStack, GridSegment, GridSheet } from './types.ts';
+
+/** ε''/max(ε', 1) at the band top above which a medium is a conductor for the engine. */
+export const CONDUCTOR_LOSS_TANGENT = 1e4;
+/** A conductor layer at least this many skin depths thick (at the band bottom) is a wall. */
+export const WALL_SKIN_DEPTHS = 5;
+
+export function isConductor(m: BulkModel, band_Hz: [number, number]): boolean {
+  const e = permittivity(m, band_Hz[1]);
+  return -e.im / Math.max(e.re, 1) >= CONDUCTOR_LOSS_TANGENT;
+}
+
+const skinDepth_m = (m: BulkModel, f_Hz: number): number =>
+  Math.sqrt(2 / (2 * Math.PI * f_Hz * MU0_H_per_m * effectiveConductivity(m, f_Hz)));
+
+export interface Resolved { effective: EffectiveStack; fits: PowerLawFit[]; warnings: string[] }
+
+export function resolveStack(stack: Stack): Resolved {
+  const fits: PowerLawFit[] = [];
+  const warnings: string[] = [];
+  const band = stack.band_Hz;
+  const cache = new Map<string, StepModel>();
+  const modelOf = (mat: BulkMaterial): StepModel => {
+    const spec = mat.spec;
+    if (spec.model !== 'power-law') return stepModelOf(spec);
+    const key = `${mat.name}|${spec.a}|${spec.b}|${spec.c}|${spec.d}`;
+    const hit = cache.get(key);
+    if (hit) return hit;
+    const fit = fitPowerLaw(spec, band, mat.name);
+    fits.push(fit);
+    cache.set(key, fit.model);
+    return fit.model;
+  };
+  if (isConductor(stack.front.spec, band)) {
+    throw new PlanError(`front: the medium the wave comes from ("${stack.front.name}") is a conductor; nothing would reach the stack`, 'bad-input');
+  }
+  const front = modelOf(stack.front);
+  const segments: GridSegment[] = [];
+  const sheets: GridSheet[] = [];
+  let back: StepModel | 'pec' = 'pec';
+  let x = 0;
+  let ended = false;
+  let previous = front;
+  for (let i = 0; i < stack.layers.length && !ended; i++) {
+    const layer = stack.layers[i];
+    const label = `layers[${i}] ${layer.material.name}`;
+    if (layer.kind === 'sheet') {
+      sheets.push({ x_m: x, conductance_S: 1 / layer.material.spec.ohm_per_sq, label });
+      continue;
+    }
+    const spec = layer.material.spec;
+    const d = layer.thickness_m;
+    if (isConductor(spec, band)) {
+      const delta = skinDepth_m(spec, band[0]);
+      if (d >= WALL_SKIN_DEPTHS * delta) {
+        warnings.push(
+          `${label}: a conductor ${(d / delta).toFixed(0)} skin depths thick at the band bottom; the pulse engine treats it as a perfect conductor at its front face (x = ${(x * 1e3).toFixed(3)} mm): layers behind it are not simulated and T = 0.`,
+        );
+        ended = true;
+        break;
+      }
+      const sigma = effectiveConductivity(spec, band[0]);
+      const kd = d / skinDepth_m(spec, band[1]);
+      warnings.push(
+        `${label}: a conductive film ${(d * 1e6).toFixed(2)} µm thick (${kd.toFixed(2)} skin depths at the band top); the pulse engine treats it as a resistive sheet of ${(1 / (sigma * d)).toPrecision(3)} Ω/sq at its centre (thin-film approximation, error of order (d/δ)² = ${(kd * kd).toPrecision(2)}).`,
+      );
+      sheets.push({ x_m: x + d / 2, conductance_S: sigma * d, label });
+      segments.push({ x0_m: x, x1_m: x + d, model: previous, label: `${label} (film filled with its neighbour)` });
+      x += d;
+      continue;
+    }
+    const model = modelOf(layer.material);
+    segments.push({ x0_m: x, x1_m: x + d, model, label });
+    previous = model;
+    x += d;
+  }
+  if (!ended) {
+    if (stack.back === 'pec') back = 'pec';
+    else if (isConductor(stack.back.spec, band)) {
+      warnings.push(`back: "${stack.back.name}" is a conductor; the pulse engine treats it as a perfect conductor at the back face.`);
+      back = 'pec';
+    } else back = modelOf(stack.back);
+  }
+  for (const f of fits) {
+    if (f.maxRelErr_abs > 0.005) {
+      warnings.push(
+        `material "${f.material}": the power law is stepped as a fitted causal model; worst error over the band ${(100 * f.maxRelErr_re).toFixed(2)} % in ε', ${(100 * f.maxRelErr_im).toFixed(2)} % in ε'' (the power law itself is not causal, so no time-domain model matches it exactly).`,
+      );
+    }
+  }
+  return { effective: { front, segments, sheets, back, thickness_m: x }, fits, warnings };
+}

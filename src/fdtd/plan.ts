@@ -1,0 +1,247 @@
+// Grid planning: cell size, time step, layout, step limit, cost, all before anything is allocated.
+//
+// Cell size. The slowest medium (largest Re √ε over the band, layers and half-spaces) sets the
+// shortest wavelength λ_min at the band top; Δx = λ_min / N. Unless the caller fixes N
+// (cellsPerWavelength), N is the smallest value (≥ MIN_CELLS_PER_WAVELENGTH) whose predicted error
+// stays within half the accuracy target, where the predicted error is
+//   Σ_layers  2 d |k̃ − k| · bounce factor · attenuation in front of the layer
+// with k̃ from the 1D Yee dispersion relation (dispersion.ts): a phase error of δ radians on an
+// echo of amplitude a moves R by about a·δ. Δx is then trimmed down so the stack's thickness is a
+// whole number of cells: the front face (x = 0) and the back face fall exactly on E nodes.
+//
+// Time step: S = c0 Δt / Δx, default 1 (exact propagation in an air front medium), lowered to
+// √(min ε∞) when a medium has ε∞ < 1.
+
+import { C0_m_per_s, ETA0_ohm } from '../units.ts';
+import type { Stack } from '../stack/types.ts';
+import { PlanError } from './errors.ts';
+import { resolveStack } from './effective.ts';
+import { yeePhaseErrorPerMetre } from './dispersion.ts';
+import { type StepModel, extinctionIndex, refractiveIndex, stepModelPermittivity } from './media.ts';
+import { pulseForBand } from './pulse.ts';
+import type { GridNodes, GridPlan, LayerGridFigures, PulseOptions } from './types.ts';
+
+export const DEFAULT_ACCURACY = 0.01;
+export const MIN_CELLS_PER_WAVELENGTH = 20;
+export const DEFAULT_PML_CELLS = 24;
+export const DEFAULT_DECAY_dB = 60;
+export const DEFAULT_MAX_CELLS = 2e7;
+export const DEFAULT_MAX_WORK = 3e10;
+/** Fraction of the accuracy target the grid-dispersion error may use (the rest: interfaces, fits, truncation). */
+const DISPERSION_SHARE = 0.5;
+/** Cells between the front PML and the TF/SF plane (the scattered-field probe sits in the middle). */
+const SF_CELLS = 4;
+/** Frequencies sampled across the band for the slowest medium and the worst phase error. */
+const BAND_SAMPLES = 33;
+/** Per-round-trip amplitude retention is capped here when estimating bounces (keeps factors finite). */
+const MAX_RETENTION = 0.98;
+
+const sampleBand = ([f1, f2]: [number, number]): number[] =>
+  Array.from({ length: BAND_SAMPLES }, (_, i) => f1 + ((f2 - f1) * i) / (BAND_SAMPLES - 1));
+
+/** Complex refractive index n − jκ of a model at f (e^{+jωt}). */
+function index(m: StepModel, f: number): { n: number; k: number } {
+  const e = stepModelPermittivity(m, f);
+  return { n: refractiveIndex(e), k: extinctionIndex(e) };
+}
+
+/** |r| looking from medium a into admittance Y (normalized to free space), both complex. */
+function reflectionMagnitude(a: { n: number; k: number }, yRe: number, yIm: number): number {
+  const nr = a.n - yRe, ni = -a.k - yIm, dr = a.n + yRe, di = -a.k + yIm;
+  return Math.hypot(nr, ni) / Math.hypot(dr, di);
+}
+
+export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
+  const band = stack.band_Hz;
+  if (!(band[0] > 0 && band[1] > band[0])) throw new PlanError('band: must satisfy 0 < min < max', 'bad-input');
+  if (Math.abs(stack.incidence.angle_rad) > 1e-9) {
+    throw new PlanError(
+      'incidence: the pulse engine models normal incidence only; use the exact solver or the FEM for oblique angles',
+      'unsupported',
+      { angle_deg: (stack.incidence.angle_rad * 180) / Math.PI },
+    );
+  }
+  const accuracy = options.accuracy ?? DEFAULT_ACCURACY;
+  if (!(accuracy > 0)) throw new PlanError('accuracy: must be > 0', 'bad-input');
+  const pmlCells = Math.round(options.pmlCells ?? DEFAULT_PML_CELLS);
+  if (!(pmlCells >= 4)) throw new PlanError('pmlCells: must be ≥ 4', 'bad-input');
+  const decay_dB = options.decay_dB ?? DEFAULT_DECAY_dB;
+  if (!(decay_dB > 0)) throw new PlanError('decay_dB: must be > 0', 'bad-input');
+  const maxCells = options.maxCells ?? DEFAULT_MAX_CELLS;
+  const maxWork = options.maxWork ?? DEFAULT_MAX_WORK;
+
+  const { effective, fits, warnings } = resolveStack(stack);
+  const freqs = sampleBand(band);
+  const fTop = band[1], fMid = (band[0] + band[1]) / 2;
+  const media: StepModel[] = [effective.front, ...effective.segments.map((s) => s.model)];
+  if (effective.back !== 'pec') media.push(effective.back);
+
+  // Courant number.
+  let minEpsInf = Infinity;
+  for (const m of media) minEpsInf = Math.min(minEpsInf, m.epsInf);
+  const sMax = Math.min(1, Math.sqrt(Math.max(minEpsInf, 1e-12)));
+  const courant = options.courant ?? sMax;
+  if (!(courant > 0 && courant <= sMax + 1e-12)) {
+    throw new PlanError(`courant: must be in (0, ${sMax.toPrecision(4)}] for these media (1D Yee stability)`, 'bad-input', { courant, max: sMax });
+  }
+
+  // Shortest wavelength over the band in any medium.
+  let invLambdaMax = 0;
+  for (const m of media) for (const f of freqs) invLambdaMax = Math.max(invLambdaMax, (f * index(m, f).n) / C0_m_per_s);
+  const lambdaMin = 1 / invLambdaMax;
+
+  // Per-layer reflection environment (for the bounce factors), at band centre.
+  const segs = effective.segments;
+  const admittanceAt = (j: number, f: number): { re: number; im: number } | 'pec' => {
+    if (j < 0) { const a = index(effective.front, f); return { re: a.n, im: -a.k }; }
+    if (j >= segs.length) {
+      if (effective.back === 'pec') return 'pec';
+      const a = index(effective.back, f); return { re: a.n, im: -a.k };
+    }
+    const a = index(segs[j].model, f); return { re: a.n, im: -a.k };
+  };
+  const sheetAdmittance = (x: number): number => {
+    let g = 0;
+    for (const s of effective.sheets) if (Math.abs(s.x_m - x) <= 1e-12 + 1e-9 * Math.abs(x)) g += s.conductance_S * ETA0_ohm;
+    return g;
+  };
+  const k0Mid = (2 * Math.PI * fMid) / C0_m_per_s;
+  const bounce: number[] = [], atten: number[] = [];
+  let attAcc = 1;
+  for (let i = 0; i < segs.length; i++) {
+    const s = segs[i], me = index(s.model, fMid);
+    const side = (j: number, x: number): number => {
+      const y = admittanceAt(j, fMid);
+      if (y === 'pec') return 1;
+      return reflectionMagnitude(me, y.re + sheetAdmittance(x), y.im);
+    };
+    const d = s.x1_m - s.x0_m;
+    const loss = Math.exp(-2 * me.k * k0Mid * d);
+    const rho = Math.min(MAX_RETENTION, side(i - 1, s.x0_m) * side(i + 1, s.x1_m) * loss);
+    bounce.push((1 + rho) / (1 - rho));
+    atten.push(attAcc);
+    attAcc *= loss;
+  }
+
+  const thickness = effective.thickness_m;
+  const cellsFor = (N: number): { dx: number; stackCells: number } => {
+    const target = lambdaMin / N;
+    if (thickness <= 0) return { dx: target, stackCells: 0 };
+    const stackCells = Math.max(1, Math.ceil(thickness / target - 1e-9));
+    return { dx: thickness / stackCells, stackCells };
+  };
+  const phaseErrors = (dx: number): number[] => {
+    const dt = (courant * dx) / C0_m_per_s;
+    return segs.map((s) => {
+      let worst = 0;
+      for (const f of freqs) worst = Math.max(worst, 2 * (s.x1_m - s.x0_m) * yeePhaseErrorPerMetre(f, index(s.model, f).n, dx, dt));
+      return worst;
+    });
+  };
+  const predicted = (pe: number[]): number => pe.reduce((acc, p, i) => acc + p * bounce[i] * atten[i], 0);
+
+  let N: number;
+  if (options.cellsPerWavelength !== undefined) {
+    N = options.cellsPerWavelength;
+    if (!(N >= 4)) throw new PlanError('cellsPerWavelength: must be ≥ 4', 'bad-input');
+  } else {
+    N = MIN_CELLS_PER_WAVELENGTH;
+    for (;;) {
+      const { dx } = cellsFor(N);
+      if (predicted(phaseErrors(dx)) <= DISPERSION_SHARE * accuracy) break;
+      if (cellsFor(N).stackCells > maxCells || N > 1e7) break; // refused below
+      N *= 1.05;
+    }
+  }
+  const { dx, stackCells } = cellsFor(N);
+  const dt = (courant * dx) / C0_m_per_s;
+  const pe = phaseErrors(dx);
+  const predictedError = predicted(pe);
+
+  // Layout.
+  const lambdaAt = (m: StepModel | 'pec', f: number): number => (m === 'pec' ? 0 : C0_m_per_s / (f * Math.max(index(m, f).n, 1e-6)));
+  const gapFront = Math.max(10, Math.ceil(Math.max(1.5 * lambdaAt(effective.front, stack.profile_Hz), thickness) / dx) + 2);
+  const gapBack = effective.back === 'pec' ? 0 : Math.max(10, Math.ceil((0.5 * lambdaAt(effective.back, stack.profile_Hz)) / dx) + 2);
+  const P = pmlCells;
+  const tfsf = P + SF_CELLS;
+  const front = tfsf + gapFront;
+  const back = front + stackCells;
+  const pmlBackStart = effective.back === 'pec' ? back + 1 : back + gapBack;
+  const total = effective.back === 'pec' ? back + 1 : pmlBackStart + P + 1;
+  const auxOffset = tfsf - 2;
+  const auxEnd = (effective.back === 'pec' ? back + 10 : pmlBackStart) - auxOffset; // aux PML face
+  const auxTotal = auxEnd + P + 1;
+  const nodes: GridNodes = { total, pmlFrontEnd: P + 1, sfProbe: P + SF_CELLS / 2, tfsf, front, back, pmlBackStart, auxOffset, auxTotal };
+
+  if (total > maxCells) {
+    throw new PlanError(
+      `the grid would need ${total.toExponential(2)} cells (limit ${maxCells.toExponential(1)}) at Δx = ${(dx * 1e3).toPrecision(3)} mm; narrow the band, lower its top frequency, or ask for a coarser accuracy`,
+      'too-many-cells',
+      { cells: total, limit: maxCells, dx_m: dx, cellsPerWavelength: N },
+    );
+  }
+
+  // Step limit from the source, transits and ring-down.
+  const pulse = pulseForBand(band, dt);
+  const frontN = index(effective.front, fMid).n;
+  let transit = ((gapFront + SF_CELLS) * dx * frontN) / C0_m_per_s;
+  let stackTrip = 0, ring = 0, worstRho = 0;
+  segs.forEach((s, i) => {
+    const t = ((s.x1_m - s.x0_m) * index(s.model, fMid).n) / C0_m_per_s;
+    stackTrip += 2 * t;
+    const rho = (bounce[i] - 1) / (bounce[i] + 1);
+    worstRho = Math.max(worstRho, rho);
+    if (rho > 0) ring = Math.max(ring, ((decay_dB + 10) / (-20 * Math.log10(rho))) * 2 * t);
+  });
+  if (worstRho > 0) ring = Math.max(ring, ((decay_dB + 10) / (-20 * Math.log10(worstRho))) * stackTrip);
+  transit += stackTrip / 2;
+  if (effective.back !== 'pec') transit += (gapBack * dx * index(effective.back, fMid).n) / C0_m_per_s;
+  const expectedTime = pulse.end_s + 2 * transit + ring;
+  const expectedSteps = Math.ceil(expectedTime / dt) + 100;
+  let stepsLimit = options.maxSteps ?? 3 * expectedSteps + 500;
+  const perStep = total + auxTotal;
+  const minSteps = Math.ceil((pulse.end_s + 2 * transit) / dt);
+  if (perStep * minSteps > maxWork) {
+    throw new PlanError(
+      `the run would need at least ${(perStep * minSteps).toExponential(2)} cell-updates (limit ${maxWork.toExponential(1)}): ${total} cells × ${minSteps} steps; narrow the band or ask for a coarser accuracy`,
+      'too-much-work',
+      { cells: total, steps: minSteps, work: perStep * minSteps, limit: maxWork },
+    );
+  }
+  if (perStep * stepsLimit > maxWork) {
+    stepsLimit = Math.floor(maxWork / perStep);
+    warnings.push(`the step limit was capped at ${stepsLimit} by the work budget; a slowly ringing stack may be cut short (see the run's warnings).`);
+  }
+
+  const layers: LayerGridFigures[] = segs.map((s, i) => {
+    const idx = Number(/^layers\[(\d+)\]/.exec(s.label)?.[1] ?? i);
+    const nTop = index(s.model, fTop).n;
+    return {
+      index: idx, name: s.label.replace(/^layers\[\d+\] /, ''),
+      n_top: nTop,
+      cellsPerWavelength: C0_m_per_s / (fTop * nTop) / dx,
+      cells: (s.x1_m - s.x0_m) / dx,
+      phaseError_rad: pe[i],
+      bounceFactor: bounce[i],
+    };
+  });
+  if (predictedError > accuracy) {
+    warnings.push(
+      `predicted grid-dispersion error ${predictedError.toPrecision(2)} exceeds the accuracy target ${accuracy} at ${N.toFixed(1)} cells per wavelength; raise the cells per wavelength.`,
+    );
+  }
+
+  let poleCells = 0;
+  for (const s of segs) poleCells += (s.model.debye.length * 2 + s.model.osc.length * 3) * ((s.x1_m - s.x0_m) / dx + 2);
+  const halfPoles = (m: StepModel | 'pec'): number => (m === 'pec' ? 0 : m.debye.length * 2 + m.osc.length * 3);
+  poleCells += halfPoles(effective.front) * (front + auxTotal) + halfPoles(effective.back) * (total - back);
+  const memory_bytes = 8 * (6 * total + 5 * auxTotal + 2 * (total - tfsf) + poleCells + 3 * total);
+
+  return {
+    dx_m: dx, dt_s: dt, courant, cells: total, stepsLimit, expectedSteps,
+    cellsPerWavelength: lambdaMin / dx,
+    layers, predictedError, accuracyTarget: accuracy, pmlCells: P, decay_dB,
+    memory_bytes, work_cell_updates: perStep * stepsLimit,
+    nodes, pulse, fits, effective, profile_Hz: stack.profile_Hz, warnings,
+  };
+}

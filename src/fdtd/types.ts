@@ -1,0 +1,169 @@
+// Public types of the FDTD pulse engine (see run.ts for the steppable run, plan.ts for the grid).
+//
+// Contract (kept stable for the spectra/echo modules, the report pipeline and the browser worker):
+//   planGrid(stack, options) -> GridPlan          (no allocation of the grid; throws PlanError)
+//   createPulseRun(stack, options) -> PulseRun    (allocates, ready to step)
+//   runToEnd(run, {onProgress, shouldStop, chunk}) (async, chunked, cancellable)
+// Positions are metres with x = 0 at the front face of the stack; times are seconds from the run's start.
+
+import type { Profile } from '../results.ts';
+import type { PulseShape } from './pulse.ts';
+import type { StepModel } from './media.ts';
+import type { PowerLawFit } from './fit-power-law.ts';
+
+/** Knobs of a pulse run; every one optional. */
+export interface PulseOptions {
+  /** Cells per wavelength at the band top in the slowest medium; overrides the accuracy-driven choice. */
+  cellsPerWavelength?: number;
+  /** Target for max |R_fdtd − R_tmm| and |T_fdtd − T_tmm| over the band (default 0.01). */
+  accuracy?: number;
+  /** Courant number S = c0 Δt / Δx (default 1 when every medium has ε∞ ≥ 1, i.e. exact in air). */
+  courant?: number;
+  /** CPML thickness in cells at each open end (default 24). */
+  pmlCells?: number;
+  /** Stop once the grid energy is this many dB below its peak (default 60). */
+  decay_dB?: number;
+  /** Hard cap on time steps (default derived from round-trip times and losses). */
+  maxSteps?: number;
+  /** Refuse grids with more E nodes than this (default 2e7). */
+  maxCells?: number;
+  /** Refuse runs needing more cell-updates than this (default 3e10, a few minutes of work). */
+  maxWork?: number;
+}
+
+/** One bulk layer's figures on the chosen grid. */
+export interface LayerGridFigures {
+  /** Index into stack.layers. */
+  index: number;
+  name: string;
+  /** Re √ε_r at the band top (the model the engine steps). */
+  n_top: number;
+  /** Cells per wavelength inside the layer at the band top. */
+  cellsPerWavelength: number;
+  /** Cells across the layer (fractional: interfaces need not fall on nodes). */
+  cells: number;
+  /** Predicted phase error over one round trip through the layer at the band top, radians (Yee dispersion). */
+  phaseError_rad: number;
+  /** Weight for multiple bounces (1 for a matched layer; larger for a resonant one). */
+  bounceFactor: number;
+}
+
+/** Where things sit on the main grid (E-node indices). */
+export interface GridNodes {
+  /** E nodes of the main grid (indices 0 … total − 1); nodes 0 and total − 1 are conductor walls. */
+  total: number;
+  /** Front CPML covers nodes [0, pmlFrontEnd). */
+  pmlFrontEnd: number;
+  /** Scattered-field probe node (in front of the TF/SF plane). */
+  sfProbe: number;
+  /** First total-field node; the TF/SF plane lies half a cell in front of it. */
+  tfsf: number;
+  /** Node at x = 0 (front face). */
+  front: number;
+  /** Node at the back face (the conductor wall when the back is a perfect conductor). */
+  back: number;
+  /** Back CPML covers nodes [pmlBackStart, total) (equal to total when the back is a conductor). */
+  pmlBackStart: number;
+  /** Auxiliary (incident) grid: its node j is main node j + auxOffset; its node 0 is the hard source. */
+  auxOffset: number;
+  /** E nodes of the auxiliary grid. */
+  auxTotal: number;
+}
+
+/** A bulk region of the effective stack, in metres from the front face. */
+export interface GridSegment { x0_m: number; x1_m: number; model: StepModel; label: string }
+/** A zero-thickness resistive sheet. */
+export interface GridSheet { x_m: number; conductance_S: number; label: string }
+
+/** The stack as the engine steps it (conductor layers turned into a wall or sheet, power laws fitted). */
+export interface EffectiveStack {
+  front: StepModel;
+  segments: GridSegment[];
+  sheets: GridSheet[];
+  back: StepModel | 'pec';
+  /** Back face of the gridded stack (the conductor's face when a metal layer ends it). */
+  thickness_m: number;
+}
+
+export interface GridPlan {
+  dx_m: number;
+  dt_s: number;
+  courant: number;
+  /** E nodes of the main grid. */
+  cells: number;
+  /** Step limit of the run (it usually stops earlier, when the energy has decayed). */
+  stepsLimit: number;
+  /** Steps the run is expected to need (source, transit, ring-down estimate). */
+  expectedSteps: number;
+  /** Cells per wavelength at the band top in the slowest medium. */
+  cellsPerWavelength: number;
+  /** Per bulk layer figures. */
+  layers: LayerGridFigures[];
+  /** Predicted worst amplitude error of R and T over the band from grid dispersion. */
+  predictedError: number;
+  accuracyTarget: number;
+  pmlCells: number;
+  decay_dB: number;
+  /** Bytes the run will allocate (grids, coefficient arrays, DFT; records excluded). */
+  memory_bytes: number;
+  /** Cell-updates at the step limit (main + auxiliary grid). */
+  work_cell_updates: number;
+  nodes: GridNodes;
+  pulse: PulseShape;
+  /** Power-law materials replaced by a fitted σ + Debye model. */
+  fits: PowerLawFit[];
+  effective: EffectiveStack;
+  /** Profile frequency (the stack's profile_Hz). */
+  profile_Hz: number;
+  warnings: string[];
+}
+
+export type DoneReason = 'decayed' | 'step-limit' | 'stopped';
+
+/** Probe records, sampled every dt_s from t = 0 (sample k at t = k dt_s); views of length count. */
+export interface PulseRunRecords {
+  dt_s: number;
+  count: number;
+  /** Incident E at x = 0 (auxiliary grid). */
+  incident: Float64Array;
+  /** Reflected E at x = 0: total − incident. */
+  reflected: Float64Array;
+  /** Total E at the back face (all zero behind a perfect conductor). */
+  transmitted: Float64Array;
+  /** Scattered field in front of the TF/SF plane (the reflected wave a few cells earlier; a leakage check). */
+  scatteredProbe: Float64Array;
+}
+
+export interface EnergyReading {
+  /** Field energy now (normalized units: Σ ε∞ E² + (η0 H)² over the main grid). */
+  current: number;
+  peak: number;
+  /** 10 log10(current / peak), −Infinity at zero. */
+  level_dB: number;
+}
+
+export interface PulseRun {
+  readonly plan: GridPlan;
+  /** Advance up to n steps; returns the steps taken (fewer when the run finishes). */
+  step(n: number): number;
+  readonly stepIndex: number;
+  readonly time_s: number;
+  readonly done: boolean;
+  readonly doneReason: DoneReason | null;
+  /** Stop now (doneReason 'stopped'). */
+  stop(): void;
+  /** Position of every E node of the main grid, metres from the front face (a fresh array). */
+  x_m(): Float64Array;
+  /**
+   * E at every node of the main grid (a live view, no copy). In front of the TF/SF plane
+   * (nodes < plan.nodes.tfsf) the grid holds the scattered (reflected) field only.
+   */
+  totalField(): Float64Array;
+  /** The incident field at every node now (zero outside the auxiliary grid's span), written into out. */
+  incidentField(out: Float64Array): Float64Array;
+  records(): PulseRunRecords;
+  /** Standing wave at stack.profile_Hz over the total-field region, incident amplitude 1 at x = 0. */
+  profile(): Profile;
+  energy(): EnergyReading;
+  readonly warnings: string[];
+}
