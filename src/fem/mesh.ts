@@ -64,7 +64,8 @@ interface RegionPlan { material: BulkModel; layer: number; thickness_m: number; 
 const elementsFor = (r: RegionPlan, density: number): number =>
   Math.max(1, Math.ceil((density * r.kMax * r.thickness_m) / (2 * Math.PI) - 1e-9));
 
-function validateOptions(o: FemOptions): void {
+/** Throws an Error naming the field (fem.order, fem.density, fem.tolerance) for a bad option. */
+export function validateFemOptions(o: FemOptions): void {
   if (o.order !== undefined && !FEM_ORDERS.includes(o.order)) throw new Error(`fem.order: must be 1, 2 or 3 (got ${o.order})`);
   if (o.density !== undefined && !(Number.isFinite(o.density) && o.density >= 3 && o.density <= 10_000))
     throw new Error(`fem.density: must be a number of elements per wavelength in [3, 10000] (got ${o.density})`);
@@ -88,7 +89,7 @@ export interface MeshExtent {
 }
 
 export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: FemOptions = {}, extent?: MeshExtent): FemMesh {
-  validateOptions(options);
+  validateFemOptions(options);
   const pol = extent?.polarization ?? stack.incidence.polarization;
   const front_m = extent?.front_m ?? 0, back_m = extent?.back_m ?? 0;
   const plans: RegionPlan[] = [];

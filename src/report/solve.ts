@@ -14,6 +14,9 @@ import { absorption, solveTmm } from '../tmm/solve.ts';
 import { profilePositions, profileTmm } from '../tmm/profile.ts';
 import { SLABECHO_VERSION } from '../version.ts';
 import { assertTable, complexColumns, scaledColumn, type Column } from './table.ts';
+import type { FemOptions } from '../fem/types.ts';
+import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
+import type { AgreementRow } from './format-agreement.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -23,6 +26,8 @@ export interface Report {
   /** The stack as understood, the methods run with timings, results in brief, warnings. JSON-safe. */
   summary: Record<string, unknown>;
   warnings: string[];
+  /** Method-pair agreement rows (fem-tmm, …), also in summary.agreement. */
+  agreement: AgreementRow[];
 }
 
 export interface SolveOptions {
@@ -30,6 +35,8 @@ export interface SolveOptions {
   onProgress?: (fraction: number) => void;
   /** Warnings from reading the input (parse warnings), listed first in the report. */
   inputWarnings?: readonly string[];
+  /** FEM order / density / tolerance (defaults: chosen from its a-priori error estimate). */
+  fem?: FemOptions;
 }
 
 export interface MethodRun { name: string; description: string; time_ms: number }
@@ -57,19 +64,35 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   ];
   let tmm_ms = now() - t0;
 
+  // FEM cross-check on the same frequencies, with its agreement against the exact solution.
+  const femOptions = options.fem ?? {};
+  const fem = femSpectrumPart(stack, tmm, femOptions, warn);
+  const agreement: AgreementRow[] = [];
+  if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
+  progress(0.95);
+
   // Standing-wave profile (normal incidence only).
   let profile: Column[] = [];
   let prof: Profile | undefined;
   const angle_deg = roundDeg(degFromRad(stack.incidence.angle_rad));
   if (stack.incidence.angle_rad === 0) {
     t0 = now();
-    prof = profileTmm(stack, stack.profile_Hz, profilePositions(stack, stack.profile_Hz));
+    // The exact solver's grid, refined to ≥ 10 samples in every FEM element.
+    const x_m = fem ? profileGridWithFem(stack, stack.profile_Hz, profilePositions(stack, stack.profile_Hz), femOptions)
+      : profilePositions(stack, stack.profile_Hz);
+    prof = profileTmm(stack, stack.profile_Hz, x_m);
     profile = [scaledColumn('x_mm', prof.x_m, 1e3), ...complexColumns('E_tmm', prof.E_re, prof.E_im)];
     tmm_ms += now() - t0;
+    if (fem) {
+      t0 = now();
+      profile.push(...femProfileColumns(stack, stack.profile_Hz, x_m, femOptions));
+      fem.time_ms += now() - t0;
+    }
   } else {
     warn(obliqueProfileWarning(angle_deg));
   }
   methods.push({ name: 'tmm', description: 'exact transfer-matrix solution', time_ms: round3(tmm_ms) });
+  if (fem) methods.push({ name: 'fem', description: `frequency-domain FEM, Lagrange p = ${fem.mesh.order}`, time_ms: round3(fem.time_ms) });
 
   // Never hand out a NaN: a non-finite value here is a solver bug, reported as such.
   assertTable(spectrum);
@@ -92,10 +115,12 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
     total_thickness_mm: mmFromM(stackThickness_m(stack)),
     methods,
     results: resultsInBrief(stack, tmm),
+    ...(fem ? { fem: fem.mesh } : {}),
+    agreement,
     warnings,
   };
   progress(1);
-  return { spectrum, profile, summary, warnings };
+  return { spectrum, profile, summary, warnings, agreement };
 }
 
 function solveInChunks(stack: Stack, f_Hz: Float64Array, onDone: (fraction: number) => void): Spectrum {

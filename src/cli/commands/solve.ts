@@ -8,6 +8,8 @@ import type { Stack } from '../../stack/types.ts';
 import type { Command, Io } from '../command.ts';
 import { InputError, readArgs, UsageError } from '../command.ts';
 import { ensureDir, loadStackFile, removeIfPresent, writeFilesAtomic } from '../io.ts';
+import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
+import { formatAgreement } from '../../report/format-agreement.ts';
 
 /** Load FILE, or print its problems (one line each) and throw InputError (exit 2). */
 export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: string[] } {
@@ -36,26 +38,29 @@ export const solve: Command = {
   summary: 'exact R, T spectra and standing-wave profile of a stack into a directory',
   usage: `Usage: slabecho solve FILE --out DIR
 
-Solve the stack in FILE with the exact transfer-matrix method and write into DIR (created if needed):
-  spectrum.csv   f_GHz,R_tmm_re,R_tmm_im,T_tmm_re,T_tmm_im: one row per frequency
-  profile.csv    x_mm,E_tmm_re,E_tmm_im: total field at profile_GHz, incident amplitude 1 at x = 0
+Solve the stack in FILE with the exact transfer-matrix method, cross-checked by the FEM, and write into DIR
+(created if needed):
+  spectrum.csv   f_GHz,R_tmm_re,R_tmm_im,T_tmm_re,T_tmm_im,R_fem_re,R_fem_im,T_fem_re,T_fem_im: one row per frequency
+  profile.csv    x_mm,E_tmm_re,E_tmm_im,E_fem_re,E_fem_im: total field at profile_GHz, incident amplitude 1 at x = 0
                  (normal incidence only; at oblique incidence it is not written)
   summary.json   the stack as understood, methods run with timings, results in brief, warnings
 Files are written atomically: an interrupted run leaves the previous files or the new ones.
 
 Options:
   --out DIR    output directory (required)
+${FEM_ARG_USAGE}
   -h, --help   show this help
 
 Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
   async run(args, io) {
-    const a = readArgs(solve, args, io, { out: { type: 'string' } }, [1, 1]);
+    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho solve --help)');
+    const fem = femOptionsFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
-    const report = solveReport(stack, { inputWarnings: warnings });
+    const report = solveReport(stack, { inputWarnings: warnings, fem });
     for (const w of report.warnings) io.err(`warning: ${w}`);
     const written = writeReport(out, report);
     const s = report.summary as { results: Record<string, number | null>; methods: { name: string; time_ms: number }[] };
@@ -71,6 +76,7 @@ Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
     }
     io.out(line);
     io.out(`wrote ${written.join(', ')} (${s.methods.map((m) => `${m.name} ${m.time_ms.toFixed(1)} ms`).join(', ')})`);
+    if (report.agreement.length > 0) io.out(formatAgreement(report.agreement));
     return 0;
   },
 };
