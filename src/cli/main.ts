@@ -7,11 +7,13 @@ import { CliError, processIo, type Command, type Io } from './command.ts';
 import { check } from './commands/check.ts';
 import { materials } from './commands/materials.ts';
 import { solve } from './commands/solve.ts';
+import { converge } from './commands/converge.ts';
 
 export const COMMANDS: readonly Command[] = [
   check,
   materials,
   solve,
+  converge,
 ];
 
 function topHelp(): string {

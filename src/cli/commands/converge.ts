@@ -1,0 +1,57 @@
+// slabecho converge FILE [--method fem|fdtd]: error against the exact solution as the mesh (or grid) is refined.
+
+import type { FemOrder } from '../../fem/basis.ts';
+import { PlanError } from '../../fdtd/errors.ts';
+import { fdtdStudy, femStudy, formatStudy } from '../../report/converge.ts';
+import { bandFrequencies } from '../../results.ts';
+import { solveTmm } from '../../tmm/solve.ts';
+import { linspace } from '../../units.ts';
+import type { Command } from '../command.ts';
+import { InputError, readArgs, UsageError } from '../command.ts';
+import { loadOrExplain } from './solve.ts';
+
+/** Frequencies a study uses: the stack's own, at most this many (the study solves many meshes). */
+const MAX_STUDY_POINTS = 201;
+
+export const converge: Command = {
+  name: 'converge',
+  summary: 'refine the FEM mesh or FDTD grid step by step and print the error against the exact solution',
+  usage: `Usage: slabecho converge FILE [--method fem|fdtd] [--fem-order P]
+
+Solve the stack in FILE at a sequence of resolutions and print, for each, the largest |R − R_exact| and
+|T − T_exact| over the band and the observed order of convergence between successive rows, beside the order
+theory predicts (FEM: 2p for Lagrange order p; FDTD: 2). Shows how much resolution a result needs.
+
+Options:
+  --method M      fem (default) or fdtd (normal incidence only)
+  --fem-order P   study one FEM order (1, 2 or 3) instead of all three
+  -h, --help      show this help
+
+Uses the stack's frequencies (at most ${MAX_STUDY_POINTS}, spread over the band).
+Exit: 0 done, 2 invalid stack or usage, 1 internal error.`,
+  async run(args, io) {
+    const a = readArgs(converge, args, io, { method: { type: 'string' }, 'fem-order': { type: 'string' } }, [1, 1]);
+    if (a === null) return 0;
+    const method = (a.values.method as string | undefined) ?? 'fem';
+    if (method !== 'fem' && method !== 'fdtd') throw new UsageError(`--method: must be fem or fdtd (got "${method}")`);
+    const po = a.values['fem-order'];
+    if (po !== undefined && !/^[123]$/.test(String(po))) throw new UsageError(`--fem-order: must be 1, 2 or 3 (got "${po}")`);
+    const orders: FemOrder[] = po === undefined ? [1, 2, 3] : [Number(po) as FemOrder];
+    const { stack } = loadOrExplain(a.positionals[0], io);
+    const f = stack.points <= MAX_STUDY_POINTS ? bandFrequencies(stack) : linspace(stack.band_Hz[0], stack.band_Hz[1], MAX_STUDY_POINTS);
+    const ref = solveTmm(stack, f);
+    io.out(`${stack.title}: ${method.toUpperCase()} against the exact solution, ${f.length} frequencies, ` +
+      `${stack.band_Hz[0] / 1e9}–${stack.band_Hz[1] / 1e9} GHz`);
+    if (method === 'fem') {
+      io.out(formatStudy(femStudy(stack, ref, orders), 'el/λ'));
+      return 0;
+    }
+    try {
+      io.out(formatStudy(fdtdStudy(stack, ref), 'cells/λ'));
+    } catch (e) {
+      if (e instanceof PlanError) throw new InputError(`fdtd: ${e.message}`);
+      throw e;
+    }
+    return 0;
+  },
+};
