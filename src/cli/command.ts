@@ -8,10 +8,24 @@ export interface Io {
   err(line: string): void;
 }
 
-export const processIo = (): Io => ({
-  out: (line) => { process.stdout.write(`${line}\n`); },
-  err: (line) => { process.stderr.write(`${line}\n`); },
-});
+let pipeGuard = false;
+
+/** stdout/stderr of this process. A closed pipe (`slabecho materials | head`) ends the run quietly. */
+export function processIo(): Io {
+  if (!pipeGuard) {
+    pipeGuard = true;
+    for (const s of [process.stdout, process.stderr]) {
+      s.on('error', (e: NodeJS.ErrnoException) => {
+        if (e.code === 'EPIPE') process.exit(typeof process.exitCode === 'number' ? process.exitCode : 0);
+        throw e;
+      });
+    }
+  }
+  return {
+    out: (line) => { process.stdout.write(`${line}\n`); },
+    err: (line) => { process.stderr.write(`${line}\n`); },
+  };
+}
 
 export interface Command {
   /** As typed after `slabecho`. */
@@ -46,21 +60,26 @@ type Options = NonNullable<ParseArgsConfig['options']>;
  * node's util.parseArgs, strict, with `--help`/`-h` added. Returns null when help was printed.
  * Positional counts are checked against `positionals` ([min, max]).
  */
-export function readArgs<O extends Options>(cmd: Pick<Command, 'name' | 'usage'>, args: string[], io: Io,
-  options: O, positionals: [number, number]) {
-  let parsed;
+export function readArgs(cmd: Pick<Command, 'name' | 'usage'>, args: string[], io: Io,
+  options: Options, positionals: [number, number]): ParsedArgs | null {
+  let parsed: ParsedArgs;
   try {
     parsed = parseArgs({
       args, options: { ...options, help: { type: 'boolean', short: 'h' } }, allowPositionals: true, strict: true,
-    });
+    }) as ParsedArgs;
   } catch (e) {
     throw new UsageError(`${describeArgError(e)} (see slabecho ${cmd.name} --help)`);
   }
-  if (parsed.values.help) { io.out(cmd.usage); return null; }
+  if (parsed.values.help === true) { io.out(cmd.usage); return null; }
   const n = parsed.positionals.length;
   if (n < positionals[0]) throw new UsageError(`missing argument (see slabecho ${cmd.name} --help)`);
   if (n > positionals[1]) throw new UsageError(`unexpected argument "${parsed.positionals[positionals[1]]}" (see slabecho ${cmd.name} --help)`);
-  return parsed as { values: Record<string, string | boolean | undefined>; positionals: string[] };
+  return parsed;
+}
+
+export interface ParsedArgs {
+  values: Record<string, string | boolean | (string | boolean)[] | undefined>;
+  positionals: string[];
 }
 
 /** node's parseArgs messages are long; keep the part a user needs. */

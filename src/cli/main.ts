@@ -48,8 +48,13 @@ export async function main(argv: string[], io: Io = processIo()): Promise<number
     io.err(`slabecho: ${what}${near && !first.startsWith('-') ? ` (did you mean "${near}"?)` : ''}; commands: ${COMMANDS.map((c) => c.name).join(', ')} (see slabecho --help)`);
     return 2;
   }
+  return runCommand(cmd, rest, io);
+}
+
+/** Run one command, turning anything it throws into one line on stderr and an exit code. */
+export async function runCommand(cmd: Command, args: string[], io: Io): Promise<number> {
   try {
-    return await cmd.run(rest, io);
+    return await cmd.run(args, io);
   } catch (e) {
     return reportFailure(cmd.name, e, io);
   }

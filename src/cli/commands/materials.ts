@@ -22,12 +22,10 @@ export interface MaterialRow {
 
 export function materialRow(m: Material, f_GHz?: number): MaterialRow {
   const { model, ...parameters } = m.spec;
-  const row: MaterialRow = { name: m.name, model, parameters, source: m.source, valid_GHz: m.valid_GHz, note: m.note ?? null };
-  if (f_GHz !== undefined && m.spec.model !== 'sheet') {
-    row.eps_r = sig(permittivity(m.spec, f_GHz * 1e9).re);
-    row.sigma_S_per_m = sig(effectiveConductivity(m.spec, f_GHz * 1e9));
-  }
-  return row;
+  const at = f_GHz !== undefined && m.spec.model !== 'sheet'
+    ? { eps_r: sig(permittivity(m.spec, f_GHz * 1e9).re), sigma_S_per_m: sig(effectiveConductivity(m.spec, f_GHz * 1e9)) }
+    : {};
+  return { name: m.name, model, ...at, parameters, source: m.source, valid_GHz: m.valid_GHz, note: m.note ?? null };
 }
 
 const sig = (x: number): number => Number(x.toPrecision(6));
@@ -97,7 +95,7 @@ Options:
     }
     if (f !== undefined && CATALOG.some((m) => m.valid_GHz && (f! < m.valid_GHz[0] || f! > m.valid_GHz[1]))) {
       io.out('');
-      io.out(`! ${fmtGHz(f)} GHz lies outside this material's validity range: the value is extrapolated.`);
+      io.out(`! the validity range does not include ${fmtGHz(f)} GHz: the value there is extrapolated.`);
     }
     return 0;
   },
