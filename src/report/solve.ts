@@ -143,7 +143,7 @@ export function materialSummary(m: Material, stack: Stack): Record<string, unkno
   if (m.spec.model !== 'sheet') {
     const fc = (stack.band_Hz[0] + stack.band_Hz[1]) / 2;
     const e = permittivity(m.spec, fc);
-    out.eps_r_at_centre = { re: e.re, im: e.im };
+    out.eps_r_at_centre = { re: e.re, im: e.im === 0 ? 0 : e.im }; // no −0 in JSON
     out.sigma_S_per_m_at_centre = effectiveConductivity(m.spec, fc);
   }
   return out;
