@@ -1,7 +1,11 @@
-// Ties each measured echo to a bounce path: among the predicted arrivals within half a pulse
-// width of the measured delay, the strongest predicted one (echoes closer than the pulse width
-// cannot be told apart, and the strongest dominates the envelope peak). With none that close, the
-// echo is reported as unmatched with its nearest prediction.
+// Ties each measured echo to a bounce path.
+//   - Predicted arrivals within half a pulse width of the measured delay are candidates; the echo is
+//     named after the strongest. The next strongest, if at least 0.35 as strong, is named with it, joined by
+//     " & " and marked "(unresolved)": paths closer than the pulse width arrive as one echo.
+//   - An echo with no candidate, within two pulse widths of a measured echo at least 4× (12 dB)
+//     stronger, is a change of that echo's shape (frequency-dependent reflection or loss spread the
+//     pulse; the echo extraction represents the spread as extra delayed copies): "reshaping of …".
+//   - Otherwise it is "unmatched", with its nearest prediction.
 
 import type { PredictedEchoes } from './lattice.ts';
 
@@ -10,22 +14,41 @@ export interface Attribution {
   path: string[];
 }
 
-export function attributeEchoes(t_s: Float64Array, predicted: PredictedEchoes, tolerance_s: number): Attribution {
-  const n = t_s.length;
+/** Candidates of at least this fraction of the strongest one's amplitude are named together. */
+const TOGETHER = 0.35;
+const MAX_NAMES = 2;
+
+export function attributeEchoes(t_s: Float64Array, amplitude: Float64Array, predicted: PredictedEchoes, pulseWidth_s: number): Attribution {
+  const n = t_s.length, m = predicted.delay_s.length;
+  const tol = pulseWidth_s / 2;
   const predicted_t_s = new Float64Array(n);
-  const path: string[] = [];
-  const m = predicted.delay_s.length;
+  const path: string[] = new Array(n).fill('');
+  const amp = Float64Array.from({ length: m }, (_, j) => Math.hypot(predicted.amp_re[j], predicted.amp_im[j]));
+  const matched = new Uint8Array(n);
   for (let k = 0; k < n; k++) {
-    let best = -1, bestAmp = -1, nearest = -1, nearestDist = Infinity;
-    for (let j = 0; j < m; j++) {
-      const dist = Math.abs(predicted.delay_s[j] - t_s[k]);
-      const amp = Math.hypot(predicted.amp_re[j], predicted.amp_im[j]);
-      if (dist < nearestDist) { nearestDist = dist; nearest = j; }
-      if (dist <= tolerance_s && amp > bestAmp) { bestAmp = amp; best = j; }
+    const cand: number[] = [];
+    for (let j = 0; j < m; j++) if (Math.abs(predicted.delay_s[j] - t_s[k]) <= tol) cand.push(j);
+    if (cand.length === 0) continue;
+    cand.sort((a, b) => amp[b] - amp[a]);
+    const best = cand[0];
+    const together = cand.filter((j) => amp[j] >= TOGETHER * amp[best] && amp[j] > 0).slice(0, MAX_NAMES);
+    predicted_t_s[k] = predicted.delay_s[best];
+    path[k] = together.length > 1 ? `${together.map((j) => predicted.name[j]).join(' & ')} (unresolved)` : predicted.name[best];
+    matched[k] = 1;
+  }
+  for (let k = 0; k < n; k++) {
+    if (matched[k]) continue;
+    let host = -1;
+    for (let i = 0; i < n; i++) {
+      if (i === k || !matched[i] || Math.abs(t_s[i] - t_s[k]) > 2 * pulseWidth_s) continue;
+      if (Math.abs(amplitude[i]) < 4 * Math.abs(amplitude[k])) continue;
+      if (host < 0 || Math.abs(amplitude[i]) > Math.abs(amplitude[host])) host = i;
     }
-    if (best >= 0) { predicted_t_s[k] = predicted.delay_s[best]; path.push(predicted.name[best]); }
-    else if (nearest >= 0) { predicted_t_s[k] = predicted.delay_s[nearest]; path.push(`unmatched (nearest: ${predicted.name[nearest]})`); }
-    else { predicted_t_s[k] = 0; path.push('unmatched'); }
+    let nearest = -1;
+    for (let j = 0; j < m; j++) if (nearest < 0 || Math.abs(predicted.delay_s[j] - t_s[k]) < Math.abs(predicted.delay_s[nearest] - t_s[k])) nearest = j;
+    predicted_t_s[k] = nearest >= 0 ? predicted.delay_s[nearest] : 0;
+    if (host >= 0) path[k] = `reshaping of the ${path[host].replace(/ \(unresolved\)$/, '')} echo`;
+    else path[k] = nearest >= 0 ? `unmatched (nearest: ${predicted.name[nearest]})` : 'unmatched';
   }
   return { predicted_t_s, path };
 }

@@ -27,19 +27,34 @@ export interface CleanOptions {
 export interface CleanEcho { delay_s: number; re: number; im: number }
 
 /** One-sided spectrum of the analytic signal: bins 0 … nfft/2 (positive ones doubled). */
-function analyticSpectrum(x: Float64Array, nfft: number): { re: Float64Array; im: Float64Array } {
+function analyticSpectrum(x: Float64Array, nfft: number): Spectrum1 {
   const X = realFft(x, nfft), half = nfft / 2;
   const re = X.re.slice(0, half + 1), im = X.im.slice(0, half + 1);
   for (let k = 1; k < half; k++) { re[k] *= 2; im[k] *= 2; }
-  return { re, im };
+  return { k0: 0, re, im };
+}
+
+/**
+ * Bins where the incident pulse has content (|Z_i| ≥ 1e−9 of its peak). Every correlation is
+ * weighted by conj(Z_i), so bins outside contribute below 1e−18 of the energy; a pulse sampled far
+ * above its band (FDTD records) keeps only a few per cent of the bins, which keeps the fits cheap.
+ */
+function crop(Zi: Spectrum1, Z: Spectrum1): [Spectrum1, Spectrum1] {
+  let peak = 0;
+  for (let k = 0; k < Zi.re.length; k++) peak = Math.max(peak, Math.hypot(Zi.re[k], Zi.im[k]));
+  let lo = 0, hi = Zi.re.length - 1;
+  while (lo < hi && Math.hypot(Zi.re[lo], Zi.im[lo]) < 1e-9 * peak) lo++;
+  while (hi > lo && Math.hypot(Zi.re[hi], Zi.im[hi]) < 1e-9 * peak) hi--;
+  const cut = (S: Spectrum1): Spectrum1 => ({ k0: lo, re: S.re.slice(lo, hi + 1), im: S.im.slice(lo, hi + 1) });
+  return [cut(Zi), cut(Z)];
 }
 
 /** c(τ) = (1/nfft) Σ_k P[k] e^{+j2πkτ/(nfft Δt)} for the cross-spectrum P, at one delay τ (in samples). */
-function correlationAt(Pre: Float64Array, Pim: Float64Array, nfft: number, lag: number): { re: number; im: number } {
+function correlationAt(Pre: Float64Array, Pim: Float64Array, k0: number, nfft: number, lag: number): { re: number; im: number } {
   const w = (2 * Math.PI * lag) / nfft, cs = Math.cos(w), sn = Math.sin(w);
   let sr = 0, si = 0, pr = 1, pi = 0;
   for (let k = 0; k < Pre.length; k++) {
-    if ((k & 255) === 0) { pr = Math.cos(w * k); pi = Math.sin(w * k); }
+    if ((k & 255) === 0) { pr = Math.cos(w * (k + k0)); pi = Math.sin(w * (k + k0)); }
     sr += Pre[k] * pr - Pim[k] * pi;
     si += Pre[k] * pi + Pim[k] * pr;
     const t = pr * cs - pi * sn; pi = pr * sn + pi * cs; pr = t;
@@ -52,14 +67,15 @@ function addTemplate(Z: Spectrum1, Zi: Spectrum1, nfft: number, lag: number, a: 
   const w = (-2 * Math.PI * lag) / nfft;
   const ar = g * a.re, ai = g * a.im;
   for (let k = 0; k < Zi.re.length; k++) {
-    const er = Math.cos(w * k), ei = Math.sin(w * k);
+    const er = Math.cos(w * (k + Zi.k0)), ei = Math.sin(w * (k + Zi.k0));
     const sr = Zi.re[k] * er - Zi.im[k] * ei, si = Zi.re[k] * ei + Zi.im[k] * er;
     Z.re[k] += ar * sr - ai * si;
     Z.im[k] += ar * si + ai * sr;
   }
 }
 
-interface Spectrum1 { re: Float64Array; im: Float64Array }
+/** Bins k0 … k0 + length − 1 of a one-sided spectrum. */
+interface Spectrum1 { k0: number; re: Float64Array; im: Float64Array }
 interface Component { lag: number; amp: { re: number; im: number } }
 
 /**
@@ -68,13 +84,13 @@ interface Component { lag: number; amp: { re: number; im: number } }
  * within a pulse width), and the least-squares amplitude c(τ)/E.
  */
 function fitOne(Z: Spectrum1, Zi: Spectrum1, nfft: number, energy: number, centre: number, halfRange: number): Component {
-  const half = Zi.re.length - 1;
-  const Pre = new Float64Array(half + 1), Pim = new Float64Array(half + 1);
-  for (let k = 0; k <= half; k++) {
+  const m = Zi.re.length;
+  const Pre = new Float64Array(m), Pim = new Float64Array(m);
+  for (let k = 0; k < m; k++) {
     Pre[k] = Z.re[k] * Zi.re[k] + Z.im[k] * Zi.im[k];
     Pim[k] = Z.im[k] * Zi.re[k] - Z.re[k] * Zi.im[k];
   }
-  const mag = (lag: number) => { const v = correlationAt(Pre, Pim, nfft, lag); return Math.hypot(v.re, v.im); };
+  const mag = (lag: number) => { const v = correlationAt(Pre, Pim, Zi.k0, nfft, lag); return Math.hypot(v.re, v.im); };
   const g = (Math.sqrt(5) - 1) / 2;
   let a = centre - halfRange, b = centre + halfRange;
   let x1 = b - g * (b - a), x2 = a + g * (b - a), f1 = mag(x1), f2 = mag(x2);
@@ -83,7 +99,7 @@ function fitOne(Z: Spectrum1, Zi: Spectrum1, nfft: number, energy: number, centr
     else { a = x1; x1 = x2; f1 = f2; x2 = a + g * (b - a); f2 = mag(x2); }
   }
   const lag = (a + b) / 2;
-  const c = correlationAt(Pre, Pim, nfft, lag);
+  const c = correlationAt(Pre, Pim, Zi.k0, nfft, lag);
   return { lag, amp: { re: c.re / energy, im: c.im / energy } };
 }
 
@@ -93,9 +109,10 @@ const RELAX_MAX_SWEEPS = 8;
 export function cleanEchoes(incident: Float64Array, reflected: Float64Array, dt_s: number, o: CleanOptions): CleanEcho[] {
   const n = Math.max(incident.length, reflected.length);
   const nfft = nextPow2(2 * n), half = nfft / 2;
-  const Zi = analyticSpectrum(incident, nfft), Z = analyticSpectrum(reflected, nfft);
+  const [Zi, Z] = crop(analyticSpectrum(incident, nfft), analyticSpectrum(reflected, nfft));
+  const m = Zi.re.length, k0 = Zi.k0;
   let energy = 0;
-  for (let k = 0; k <= half; k++) energy += Zi.re[k] ** 2 + Zi.im[k] ** 2;
+  for (let k = 0; k < m; k++) energy += Zi.re[k] ** 2 + Zi.im[k] ** 2;
   energy /= nfft;
   if (!(energy > 0)) return [];
   const earliest = Math.min(Math.ceil(o.earliest_s / dt_s), half - 1);
@@ -120,9 +137,9 @@ export function cleanEchoes(incident: Float64Array, reflected: Float64Array, dt_
   // CLEAN: strongest matched-filter peak, fitted and subtracted whole, until below the floor.
   for (let iter = 0; iter < 2 * o.maxEchoes; iter++) {
     C.re.fill(0); C.im.fill(0);
-    for (let k = 0; k <= half; k++) {
-      C.re[k] = Z.re[k] * Zi.re[k] + Z.im[k] * Zi.im[k];
-      C.im[k] = Z.im[k] * Zi.re[k] - Z.re[k] * Zi.im[k];
+    for (let k = 0; k < m; k++) {
+      C.re[k + k0] = Z.re[k] * Zi.re[k] + Z.im[k] * Zi.im[k];
+      C.im[k + k0] = Z.im[k] * Zi.re[k] - Z.re[k] * Zi.im[k];
     }
     const c = inverseFft(C);
     let best = 0, bestMag = -1;

@@ -20,10 +20,12 @@ export interface PredictedEchoes {
 }
 
 export interface LatticeOptions {
-  /** Most round trips in total (all layers together) a path may make. Default 4. */
+  /** Most round trips in total (all layers together) a path may make. Default 6. */
   maxRoundTrips?: number;
-  /** Paths whose amplitude falls below this are dropped. Default 1e-5 (−100 dB). */
+  /** Paths whose amplitude falls below this are dropped. Default 1e-4 (−80 dB). */
   minAmplitude?: number;
+  /** Most waves in flight kept per traversal (the weakest are dropped beyond). Default 4000. */
+  maxWaves?: number;
 }
 
 interface Wave { medium: number; right: boolean; counts: number[]; amp: Complex }
@@ -41,10 +43,17 @@ function coefficients(s: StackAtFrequency, k: number, fromLeft: boolean): { r: C
   return { r, t: add({ re: 1, im: 0 }, r) };
 }
 
+/** The `keep` strongest waves of a level. */
+function strongest(level: Map<string, Wave>, keep: number): Map<string, Wave> {
+  const sorted = [...level.entries()].sort((a, b) => Math.hypot(b[1].amp.re, b[1].amp.im) - Math.hypot(a[1].amp.re, a[1].amp.im));
+  return new Map(sorted.slice(0, keep));
+}
+
 /** All echoes arriving back at the front face, in order of delay, at frequency f_Hz. */
 export function predictEchoes(stack: Stack, f_Hz: number, options: LatticeOptions = {}): PredictedEchoes {
-  const maxTrav = 2 * (options.maxRoundTrips ?? 4);
-  const minAmp = options.minAmplitude ?? 1e-5;
+  const maxTrav = 2 * (options.maxRoundTrips ?? 6);
+  const minAmp = options.minAmplitude ?? 1e-4;
+  const maxWaves = options.maxWaves ?? 4000;
   const s = stackAtFrequency(stack, f_Hz);
   const L = s.layers.length;
   const tau = layerGroupDelays_s(stack, f_Hz);
@@ -84,7 +93,7 @@ export function predictEchoes(stack: Stack, f_Hz: number, options: LatticeOption
       // crossing medium j rightwards reaches interface j from the left; leftwards, interface j − 1 from the right
       if (w.right) split(next, w.medium, true, counts, amp); else split(next, w.medium - 1, false, counts, amp);
     }
-    level = next;
+    level = next.size > maxWaves ? strongest(next, maxWaves) : next;
   }
   const rows = [...out.values()]
     .filter((e) => Math.hypot(e.amp.re, e.amp.im) >= minAmp || e.counts.every((c) => c === 0))

@@ -28,6 +28,6 @@ export function echoTable(stack: Stack, records: PulseRecords, options: EchoTabl
   const centre_Hz = options.centre_Hz ?? (stack.band_Hz[0] + stack.band_Hz[1]) / 2;
   const m = measureEchoes(trimmed(records.incident, records.count), trimmed(records.reflected, records.count), records.dt_s, options);
   const predicted = predictEchoes(stack, centre_Hz, options);
-  const a = attributeEchoes(m.t_s, predicted, m.pulseWidth_s / 2);
+  const a = attributeEchoes(m.t_s, m.amplitude, predicted, m.pulseWidth_s);
   return { t_s: m.t_s, level_dB: m.level_dB, amplitude: m.amplitude, predicted_t_s: a.predicted_t_s, path: a.path, pulseWidth_s: m.pulseWidth_s, centre_Hz };
 }
