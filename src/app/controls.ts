@@ -1,0 +1,223 @@
+// The parameter panel (lil-gui): preset, stack editor (layers added, removed, reordered, material
+// and thickness), band, incidence and profile frequency for the frequency-domain views, pulse-run
+// accuracy and speed, trace toggles and view options. Edits go through `host.edit`, which validates
+// the whole stack with the core parser before anything changes.
+
+import GUI, { type Controller } from 'lil-gui';
+import { catalogNames } from '../materials/catalog.ts';
+import type { StackFile, StackFileLayer } from '../stack/file.ts';
+import { TRACE_NAMES } from './fieldView.ts';
+import type { Settings, SpectrumMode } from './settings.ts';
+
+export type SettingsTopic = 'traces' | 'axis' | 'spectrum' | 'trace' | 'speed' | 'accuracy';
+
+export interface ControlHost {
+  readonly file: StackFile;
+  readonly settings: Settings;
+  readonly presets: readonly string[];
+  /** The preset the current stack came from (or the default). */
+  readonly presetName: string;
+  loadPreset(name: string): void;
+  /** Apply a change to a copy of the stack file; false (and the reason shown) when it is invalid. */
+  edit(change: (f: StackFile) => void): boolean;
+  settingsChanged(topic: SettingsTopic): void;
+}
+
+const ACCURACY: Record<string, number | null> = {
+  'engine default': null, 'coarse (3 %)': 0.03, 'standard (1 %)': 0.01, 'fine (0.3 %)': 0.003,
+};
+
+const DEFAULT_THICKNESS_MM = 10;
+
+export class Controls {
+  private readonly gui: GUI;
+  private readonly stackFolder: GUI;
+  private readonly layersFolder: GUI;
+  private readonly pick = { preset: '' };
+  private readonly fields = {
+    title: '', front: 'air', back: 'air', fmin: 1, fmax: 10, points: 501,
+    angle: 0, polarization: 'TE', profile: 5,
+  };
+  private readonly view = { accuracy: 'engine default', spectrum: 'magnitude' as SpectrumMode, xUnit: 'mm', lambda: 5, envelope: false, speed: 4 };
+  private stackControllers: Controller[] = [];
+
+  constructor(container: HTMLElement, private readonly host: ControlHost) {
+    this.gui = new GUI({ container, title: 'Parameters', injectStyles: false, autoPlace: false });
+    this.gui.domElement.dataset.testid = 'gui';
+    this.pick.preset = host.presets.includes(host.presetName) ? host.presetName : host.presets[0] ?? '';
+    const p = this.gui.add(this.pick, 'preset', [...host.presets]).name('preset').onChange((name: string) => host.loadPreset(name));
+    tag(p, 'preset');
+    this.stackFolder = this.gui.addFolder('Stack');
+    this.layersFolder = this.gui.addFolder('Layers (front to back)');
+    this.buildStack();
+    this.buildLayers();
+    this.buildRun();
+    this.buildViews();
+  }
+
+  /** Rebuild from the host's current stack (after a preset, an import or a structural edit). */
+  refresh(presetName?: string): void {
+    if (presetName !== undefined) { this.pick.preset = presetName; }
+    this.gui.controllers.forEach((c) => c.updateDisplay());
+    this.buildStack();
+    this.buildLayers();
+  }
+
+  private materialNames(kind: 'any' | 'bulk'): string[] {
+    const f = this.host.file;
+    const own = Object.keys(f.materials).filter((n) => kind === 'any' || f.materials[n].model !== 'sheet');
+    return [...catalogNames(), ...own];
+  }
+
+  private isSheet(name: string): boolean {
+    const m = this.host.file.materials[name];
+    return m !== undefined && m.model === 'sheet';
+  }
+
+  private buildStack(): void {
+    for (const c of this.stackControllers) c.destroy();
+    this.stackControllers = [];
+    const f = this.host.file, v = this.fields, host = this.host, folder = this.stackFolder;
+    v.title = f.title; v.front = f.front; v.back = f.back;
+    v.fmin = f.band_GHz[0]; v.fmax = f.band_GHz[1]; v.points = f.points;
+    v.angle = f.incidence.angle_deg; v.polarization = f.incidence.polarization; v.profile = f.profile_GHz;
+    const revert = (): void => this.buildStack();
+    const add = (c: Controller, id: string): Controller => { tag(c, id); this.stackControllers.push(c); return c; };
+    add(folder.add(v, 'title').name('title').onFinishChange((t: string) => { if (!host.edit((s) => { s.title = t; })) revert(); }), 'stack-title-input');
+    add(folder.add(v, 'front', this.materialNames('bulk')).name('wave comes from').onChange((m: string) => {
+      if (!host.edit((s) => { s.front = m; })) revert();
+    }), 'front');
+    add(folder.add(v, 'back', ['pec', ...this.materialNames('bulk')]).name('behind the stack').onChange((m: string) => {
+      if (!host.edit((s) => { s.back = m; })) revert();
+    }), 'back');
+    add(folder.add(v, 'fmin').min(0.001).name('band from (GHz)').onFinishChange((x: number) => {
+      if (!host.edit((s) => { s.band_GHz = [x, s.band_GHz[1]]; clampProfile(s); })) revert(); else this.syncProfile();
+    }), 'band-min');
+    add(folder.add(v, 'fmax').min(0.001).name('band to (GHz)').onFinishChange((x: number) => {
+      if (!host.edit((s) => { s.band_GHz = [s.band_GHz[0], x]; clampProfile(s); })) revert(); else this.syncProfile();
+    }), 'band-max');
+    add(folder.add(v, 'points').min(2).step(1).name('spectrum points').onFinishChange((x: number) => {
+      if (!host.edit((s) => { s.points = Math.round(x); })) revert();
+    }), 'points');
+    add(folder.add(v, 'angle', 0, 89, 0.5).name('incidence angle (°)').onChange((x: number) => {
+      if (!host.edit((s) => { s.incidence = { ...s.incidence, angle_deg: x }; })) revert();
+    }), 'angle');
+    add(folder.add(v, 'polarization', ['TE', 'TM']).name('polarization').onChange((x: 'TE' | 'TM') => {
+      if (!host.edit((s) => { s.incidence = { ...s.incidence, polarization: x }; })) revert();
+    }), 'polarization');
+    add(folder.add(v, 'profile', f.band_GHz[0], f.band_GHz[1]).name('profile at (GHz)').onChange((x: number) => {
+      if (!host.edit((s) => { s.profile_GHz = x; })) revert();
+    }), 'profile-GHz');
+  }
+
+  private syncProfile(): void { this.buildStack(); }
+
+  private buildLayers(): void {
+    const folder = this.layersFolder;
+    for (const c of [...folder.children]) c.destroy();
+    const f = this.host.file;
+    f.layers.forEach((layer, i) => this.buildLayer(folder, layer, i, f.layers.length));
+    const actions = {
+      add: (): void => {
+        const ok = this.host.edit((s) => { s.layers.push({ material: 'air', thickness_mm: DEFAULT_THICKNESS_MM }); });
+        if (ok) this.buildLayers();
+      },
+    };
+    tag(folder.add(actions, 'add').name('+ add a layer at the back'), 'layer-add');
+  }
+
+  private buildLayer(parent: GUI, layer: StackFileLayer, i: number, count: number): void {
+    const host = this.host;
+    const sub = parent.addFolder(layerTitle(layer, i));
+    sub.domElement.dataset.testid = `layer-${i}`;
+    const v = { material: layer.material, thickness_mm: layer.thickness_mm ?? DEFAULT_THICKNESS_MM };
+    tag(sub.add(v, 'material', this.materialNames('any')).name('material').onChange((m: string) => {
+      const wasSheet = layer.thickness_mm === undefined, nowSheet = this.isSheet(m);
+      const ok = host.edit((s) => {
+        const l: StackFileLayer = { material: m };
+        if (!nowSheet) l.thickness_mm = s.layers[i].thickness_mm ?? DEFAULT_THICKNESS_MM;
+        s.layers[i] = l;
+      });
+      if (!ok || wasSheet !== nowSheet) this.buildLayers();
+      else { layer = this.host.file.layers[i]; sub.title(layerTitle(layer, i)); }
+    }), `layer-${i}-material`);
+    if (layer.thickness_mm !== undefined) {
+      const c = sub.add(v, 'thickness_mm').name('thickness (mm)').min(0.001)
+        .onChange((d: number) => {
+          if (!(d > 0)) return;
+          if (host.edit((s) => { s.layers[i] = { ...s.layers[i], thickness_mm: d }; })) {
+            layer = this.host.file.layers[i];
+            sub.title(layerTitle(layer, i));
+          }
+        })
+        .onFinishChange(() => { v.thickness_mm = this.host.file.layers[i]?.thickness_mm ?? v.thickness_mm; c.updateDisplay(); });
+      tag(c, `layer-${i}-thickness`);
+    }
+    const move = (to: number): void => {
+      if (to < 0 || to >= count) return;
+      if (host.edit((s) => { const [l] = s.layers.splice(i, 1); s.layers.splice(to, 0, l); })) this.buildLayers();
+    };
+    const acts = {
+      up: (): void => move(i - 1),
+      down: (): void => move(i + 1),
+      remove: (): void => { if (host.edit((s) => { s.layers.splice(i, 1); })) this.buildLayers(); },
+    };
+    if (i > 0) tag(sub.add(acts, 'up').name('move towards the front'), `layer-${i}-up`);
+    if (i < count - 1) tag(sub.add(acts, 'down').name('move towards the back'), `layer-${i}-down`);
+    tag(sub.add(acts, 'remove').name('remove this layer'), `layer-${i}-remove`);
+    if (count > 4) sub.close();
+  }
+
+  private buildRun(): void {
+    const s = this.host.settings, host = this.host;
+    const folder = this.gui.addFolder('Pulse run');
+    this.view.accuracy = Object.keys(ACCURACY).find((k) => ACCURACY[k] === s.accuracy) ?? 'engine default';
+    tag(folder.add(this.view, 'accuracy', Object.keys(ACCURACY)).name('accuracy target').onChange((k: string) => {
+      s.accuracy = ACCURACY[k] ?? null;
+      host.settingsChanged('accuracy');
+    }), 'accuracy');
+    this.view.speed = s.speed;
+    tag(folder.add(this.view, 'speed', 1, 200, 1).name('steps per frame').onChange((n: number) => {
+      s.speed = Math.max(1, Math.round(n));
+      host.settingsChanged('speed');
+    }), 'speed');
+    const traces = folder.addFolder('Traces in the field view');
+    for (const name of TRACE_NAMES) {
+      tag(traces.add(s.traces, name).name(name).onChange(() => host.settingsChanged('traces')), `trace-${name}`);
+    }
+  }
+
+  private buildViews(): void {
+    const s = this.host.settings, host = this.host;
+    const folder = this.gui.addFolder('Views');
+    this.view.xUnit = s.xUnit; this.view.lambda = s.lambda_GHz;
+    tag(folder.add(this.view, 'xUnit', { millimetres: 'mm', wavelengths: 'wavelengths' }).name('field view position').onChange((u: 'mm' | 'wavelengths') => {
+      s.xUnit = u; host.settingsChanged('axis');
+    }), 'x-unit');
+    tag(folder.add(this.view, 'lambda').min(0.001).name('wavelengths at (GHz)').onFinishChange((x: number) => {
+      if (x > 0) { s.lambda_GHz = x; host.settingsChanged('axis'); }
+    }), 'lambda-GHz');
+    this.view.spectrum = s.spectrumMode;
+    tag(folder.add(this.view, 'spectrum', ['magnitude', 'phase', 'group delay']).name('spectrum shows').onChange((m: SpectrumMode) => {
+      s.spectrumMode = m; host.settingsChanged('spectrum');
+    }), 'spectrum-mode');
+    this.view.envelope = s.envelope;
+    tag(folder.add(this.view, 'envelope').name('echoes as dB envelope').onChange((e: boolean) => {
+      s.envelope = e; host.settingsChanged('trace');
+    }), 'envelope');
+  }
+}
+
+function tag(c: Controller, id: string): Controller {
+  c.domElement.dataset.testid = id;
+  return c;
+}
+
+function layerTitle(l: StackFileLayer, i: number): string {
+  return `${i + 1} · ${l.material}${l.thickness_mm !== undefined ? ` · ${+l.thickness_mm.toPrecision(6)} mm` : ' (sheet)'}`;
+}
+
+/** Keep the profile frequency inside a changed band. */
+function clampProfile(s: StackFile): void {
+  s.profile_GHz = Math.min(s.band_GHz[1], Math.max(s.band_GHz[0], s.profile_GHz));
+}

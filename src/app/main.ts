@@ -1,0 +1,461 @@
+// The workbench page: wires the stack state, the engine workers, the four views and the controls.
+// All numbers come from the core modules (in the worker, or the parser here); this file only moves
+// data and draws.
+
+import { parseStackObject, parseStackText } from '../stack/parse.ts';
+import type { StackFile } from '../stack/file.ts';
+import type { Stack } from '../stack/types.ts';
+import { Controls, type ControlHost, type SettingsTopic } from './controls.ts';
+import { Engine, type Solved } from './engine.ts';
+import { FieldView, type FieldViewOptions } from './fieldView.ts';
+import { exportAll } from './exporter.ts';
+import { loadStoredSettings, loadStoredStack, storeSettings, storeStack } from './persist.ts';
+import { DEFAULT_PRESET, PRESETS, presetFile } from './presets.ts';
+import type { FieldFrame, PulseGeometry, WireReport } from './protocol.ts';
+import { ClipRecorder } from './recorder.ts';
+import { downloadBlob, safeName } from './download.ts';
+import { readSettings, type Settings } from './settings.ts';
+import { sketchStack, type StackSketch } from './sketch.ts';
+import { Messages } from './messages.ts';
+import { adoptGuiStyles } from './guiStyles.ts';
+import { SpectrumView } from './views/spectrumView.ts';
+import { ProfileView } from './views/profileView.ts';
+import { TraceView } from './views/traceView.ts';
+
+/** Figures the browser tests and the benchmark read. */
+export interface WorkbenchStats {
+  fieldRenders: number;
+  renderer: string;
+  /** Edit → exact/FEM views redrawn, ms, for the latest edit. */
+  lastEditToUpdate_ms: number | null;
+  lastSolve_ms: number | null;
+  version: number;
+  solvedVersion: number;
+  reportVersion: number;
+  step: number;
+  playing: boolean;
+  recording: boolean;
+}
+
+declare global {
+  interface Window { slabecho?: { stats: WorkbenchStats } }
+}
+
+const $ = <T extends HTMLElement>(testid: string): T => {
+  const el = document.querySelector<T>(`[data-testid="${testid}"]`);
+  if (el === null) throw new Error(`page element ${testid} is missing`);
+  return el;
+};
+
+class Workbench implements ControlHost {
+  file: StackFile;
+  stack: Stack;
+  sketch: StackSketch;
+  readonly settings: Settings;
+  readonly presets = PRESETS.map((p) => p.name);
+  presetName = DEFAULT_PRESET;
+  private readonly messages = new Messages($('messages'));
+  private readonly engine: Engine;
+  private readonly spectrum = new SpectrumView($('spectrum-view'));
+  private readonly profile = new ProfileView($('profile-view'));
+  private readonly trace = new TraceView($('trace-view'));
+  private field!: FieldView;
+  private controls!: Controls;
+  private version = 0;
+  private solved: Solved | null = null;
+  private solvedVersion = -1;
+  private readonly solveVersion = new Map<number, number>();
+  private report: WireReport | null = null;
+  private reportVersion = -1;
+  private reportRequestVersion = -1;
+  private geometry: PulseGeometry | null = null;
+  private frame: FieldFrame | null = null;
+  private pendingFrame: FieldFrame | null = null;
+  private playing = false;
+  private recorder: ClipRecorder | null = null;
+  private editStart: number | null = null;
+  private restartTimer = 0;
+  readonly stats: WorkbenchStats = {
+    fieldRenders: 0, renderer: '', lastEditToUpdate_ms: null, lastSolve_ms: null, version: 0,
+    solvedVersion: -1, reportVersion: -1, step: 0, playing: false, recording: false,
+  };
+
+  constructor(initial: { file: StackFile; stack: Stack }, settings: Settings) {
+    this.file = initial.file;
+    this.stack = initial.stack;
+    this.sketch = sketchStack(initial.stack);
+    this.settings = settings;
+    this.engine = new Engine({
+      solved: (s) => this.onSolved(s),
+      solveFailed: (m) => this.messages.show('solve', 'error', 'The exact/FEM solve failed', m),
+      pulseReady: (g) => this.onPulseReady(g),
+      frame: (f) => { if (this.pendingFrame !== null) this.engine.recycle(this.pendingFrame); this.pendingFrame = f; },
+      pulseFailed: (m) => { this.messages.show('pulse', 'error', 'The pulse run could not start', m); this.setPlaying(false); },
+      progress: (fr, note) => this.onProgress(fr, note),
+      report: (r, id) => this.onReport(r, id),
+      reportFailed: (m) => this.onReportFailed(m),
+    });
+  }
+
+  async start(): Promise<void> {
+    this.field = await FieldView.create($('field-view'), this.fieldOptions());
+    this.stats.renderer = this.field.rendererName;
+    this.field.setStack(this.sketch);
+    this.field.render();
+    this.spectrum.chart.onDraw = () => this.noteUpdated();
+    this.profile.chart.onDraw = () => this.noteUpdated();
+    this.controls = new Controls($('controls'), this);
+    this.wireButtons();
+    this.wireKeys();
+    this.showTitle();
+    this.messages.warnings(this.currentWarnings());
+    this.solveNow();
+    this.restartPulse(0);
+    requestAnimationFrame(() => this.loop());
+    window.slabecho = { stats: this.stats };
+  }
+
+  // ---- stack state -------------------------------------------------------------------------
+
+  /** ControlHost: validate a change to the stack file; apply it when valid. */
+  edit(change: (f: StackFile) => void): boolean {
+    const draft = JSON.parse(JSON.stringify(this.file)) as StackFile;
+    change(draft);
+    const r = parseStackObject(draft);
+    if (!r.ok) {
+      this.messages.show('edit', 'error', 'That change was not applied:', r.errors);
+      return false;
+    }
+    this.messages.clear('edit');
+    this.apply(r.file, r.stack, r.warnings);
+    return true;
+  }
+
+  loadPreset(name: string): void {
+    const r = parseStackObject(presetFile(name));
+    if (!r.ok) { this.messages.show('edit', 'error', `Preset ${name} is invalid:`, r.errors); return; }
+    this.messages.clear('edit');
+    this.presetName = name;
+    this.apply(r.file, r.stack, r.warnings);
+    this.controls.refresh(name);
+  }
+
+  importText(name: string, text: string): void {
+    const r = parseStackText(text);
+    if (!r.ok) {
+      this.messages.show('import', 'error', `${name} was not loaded (the current stack is kept):`, r.errors);
+      return;
+    }
+    this.messages.clear('import');
+    this.messages.clear('edit');
+    this.apply(r.file, r.stack, r.warnings);
+    this.controls.refresh();
+    this.messages.show('import', 'info', `Loaded ${name}.`, []);
+  }
+
+  private apply(file: StackFile, stack: Stack, warnings: string[]): void {
+    this.file = file;
+    this.stack = stack;
+    this.sketch = sketchStack(stack);
+    this.version++;
+    this.stats.version = this.version;
+    storeStack(file);
+    this.showTitle();
+    this.messages.warnings(warnings);
+    this.field.setStack(this.sketch);
+    this.editStart = performance.now();
+    this.solveNow();
+    this.restartPulse(350);
+  }
+
+  private currentWarnings(): string[] {
+    const r = parseStackObject(this.file);
+    return r.ok ? r.warnings : [];
+  }
+
+  private showTitle(): void {
+    $('stack-title').textContent = this.file.title;
+    document.title = `${this.file.title} · slabecho`;
+  }
+
+  // ---- exact + FEM ---------------------------------------------------------------------------
+
+  private solveNow(): void {
+    const id = this.engine.solve(this.file);
+    this.solveVersion.set(id, this.version);
+  }
+
+  private onSolved(s: Solved): void {
+    const v = this.solveVersion.get(s.id) ?? -1;
+    this.solveVersion.delete(s.id);
+    if (v < this.solvedVersion) return;
+    this.solved = s;
+    this.solvedVersion = v;
+    this.stats.solvedVersion = v;
+    this.stats.lastSolve_ms = s.ms;
+    this.messages.clear('solve');
+    this.messages.warnings(this.currentWarnings(), s.warnings);
+    this.drawFrequencyViews();
+  }
+
+  private noteUpdated(): void {
+    if (this.editStart !== null && this.solvedVersion === this.version) {
+      this.stats.lastEditToUpdate_ms = performance.now() - this.editStart;
+      this.editStart = null;
+    }
+  }
+
+  private reportCurrent(): WireReport | null {
+    return this.reportVersion === this.version ? this.report : null;
+  }
+
+  private drawFrequencyViews(): void {
+    const rep = this.reportCurrent();
+    const pending = this.engine.reporting ? 'FDTD: pulse run in progress' : rep === null ? 'FDTD: no finished pulse run for this stack' : '';
+    const s = this.solved;
+    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], this.settings.spectrumMode, pending);
+    this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending);
+  }
+
+  private drawTraceView(): void {
+    const rep = this.reportCurrent();
+    const note = rep !== null ? '' : this.engine.reporting ? 'pulse run in progress…' : 'no finished pulse run for this stack';
+    this.trace.show(rep?.trace ?? null, rep?.echoes ?? null, this.settings.envelope, note);
+  }
+
+  // ---- pulse run -----------------------------------------------------------------------------
+
+  /** Restart the animated run and the full run after `delay_ms` of quiet. */
+  private restartPulse(delay_ms: number): void {
+    clearTimeout(this.restartTimer);
+    this.engine.cancelReport();
+    this.setRunStatus('running', 0, 'waiting for edits to settle');
+    this.drawTraceView();
+    this.restartTimer = window.setTimeout(() => {
+      const settings = { accuracy: this.settings.accuracy };
+      this.geometry = null;
+      this.frame = null;
+      this.field.setGeometry(null);
+      this.engine.pulse(this.file, settings);
+      this.startReport();
+    }, delay_ms);
+  }
+
+  private startReport(): void {
+    this.reportRequestVersion = this.version;
+    this.engine.report(this.file, { accuracy: this.settings.accuracy });
+    this.setRunStatus('running', 0, 'starting');
+    this.drawTraceView();
+    this.drawFrequencyViews();
+  }
+
+  private onPulseReady(g: PulseGeometry): void {
+    this.geometry = g;
+    this.messages.clear('pulse');
+    this.field.setGeometry(g);
+    this.field.render();
+  }
+
+  private onProgress(fraction: number, note: string): void {
+    this.setRunStatus('running', fraction, note);
+  }
+
+  private onReport(r: WireReport, _id: number): void {
+    this.report = r;
+    this.reportVersion = this.reportRequestVersion;
+    this.stats.reportVersion = this.reportVersion;
+    this.setRunStatus('done', 1, `finished in ${(r.ms / 1000).toFixed(1)} s`);
+    this.messages.warnings(this.currentWarnings(), this.solved?.warnings ?? [], r.warnings);
+    this.drawTraceView();
+    this.drawFrequencyViews();
+  }
+
+  private onReportFailed(m: string[]): void {
+    this.setRunStatus('failed', 0, 'failed');
+    this.messages.show('report', 'error', 'The pulse run failed:', m);
+    this.drawTraceView();
+    this.drawFrequencyViews();
+  }
+
+  private setRunStatus(state: 'idle' | 'running' | 'done' | 'cancelled' | 'failed', fraction: number, note: string): void {
+    const box = $('run-status');
+    box.dataset.state = state;
+    ($('run-progress') as HTMLProgressElement).value = Math.max(0, Math.min(1, fraction));
+    const n = box.querySelector('.run-note');
+    if (n !== null) n.textContent = note;
+  }
+
+  // ---- animation -----------------------------------------------------------------------------
+
+  private loop(): void {
+    const f = this.pendingFrame;
+    if (f !== null) {
+      this.pendingFrame = null;
+      if (this.frame !== null) this.engine.recycle(this.frame);
+      this.frame = f;
+      this.field.setFrame(f);
+      this.field.render();
+      this.stats.fieldRenders++;
+      this.stats.step = f.step;
+      this.recorder?.frame();
+      if (f.done && (this.playing || this.recorder !== null)) {
+        this.setPlaying(false);
+        if (this.recorder !== null) void this.stopRecording();
+      }
+    }
+    if (this.geometry !== null && this.frame === null && this.pendingFrame === null) {
+      this.engine.advance(0); // the first frame (t = 0) of a new run
+    } else if ((this.playing || this.recorder !== null) && this.geometry !== null && !(this.frame?.done ?? false)) {
+      this.engine.advance(this.recorder?.stepsPerFrame ?? this.settings.speed);
+    }
+    requestAnimationFrame(() => this.loop());
+  }
+
+  private setPlaying(on: boolean): void {
+    this.playing = on;
+    this.stats.playing = on;
+    const b = $('play');
+    b.textContent = on ? 'pause' : 'play';
+    b.setAttribute('aria-pressed', String(on));
+  }
+
+  private togglePlay(): void {
+    if (!this.playing && this.frame?.done === true) this.engine.rewind();
+    this.setPlaying(!this.playing);
+  }
+
+  private stepOnce(): void {
+    this.setPlaying(false);
+    if (this.frame?.done === true) return;
+    this.engine.advance(this.settings.speed);
+  }
+
+  private reset(): void {
+    this.setPlaying(false);
+    this.engine.rewind();
+  }
+
+  private async toggleRecord(): Promise<void> {
+    if (this.recorder !== null) { await this.stopRecording(); return; }
+    if (!ClipRecorder.supported()) {
+      this.messages.show('record', 'error', 'This browser cannot record the canvas (MediaRecorder with WebM is missing).', []);
+      return;
+    }
+    if (this.frame?.done === true) this.engine.rewind();
+    this.recorder = new ClipRecorder(this.field.canvas, this.settings.speed);
+    this.stats.recording = true;
+    const b = $('record');
+    b.textContent = 'stop recording';
+    b.classList.add('recording');
+    this.setPlaying(true);
+  }
+
+  private async stopRecording(): Promise<void> {
+    const rec = this.recorder;
+    if (rec === null) return;
+    this.recorder = null;
+    this.stats.recording = false;
+    const b = $('record');
+    b.textContent = 'record';
+    b.classList.remove('recording');
+    const blob = await rec.stop();
+    downloadBlob(`${safeName(this.file.title)}.webm`, blob);
+    this.messages.show('record', 'info', `Clip saved: ${rec.frames} frames, ${rec.stepsPerFrame} steps each, ${(blob.size / 1024).toFixed(0)} KiB.`, []);
+  }
+
+  // ---- controls ------------------------------------------------------------------------------
+
+  settingsChanged(topic: SettingsTopic): void {
+    storeSettings(this.settings);
+    if (topic === 'traces' || topic === 'axis') { this.field.setOptions(this.fieldOptions()); return; }
+    if (topic === 'spectrum') { this.drawFrequencyViews(); return; }
+    if (topic === 'trace') { this.drawTraceView(); return; }
+    if (topic === 'accuracy') { this.restartPulse(0); return; }
+  }
+
+  private fieldOptions(): FieldViewOptions {
+    return { xUnit: this.settings.xUnit, lambdaAt_Hz: this.settings.lambda_GHz * 1e9, traces: { ...this.settings.traces } };
+  }
+
+  private wireButtons(): void {
+    $('play').addEventListener('click', () => this.togglePlay());
+    $('step').addEventListener('click', () => this.stepOnce());
+    $('reset').addEventListener('click', () => this.reset());
+    $('record').addEventListener('click', () => { void this.toggleRecord(); });
+    $('export').addEventListener('click', () => { void this.exportNow(); });
+    const input = $<HTMLInputElement>('import');
+    input.addEventListener('change', () => {
+      const f = input.files?.[0];
+      input.value = '';
+      if (f === undefined) return;
+      if (f.size > 1_000_000) {
+        this.messages.show('import', 'error', `${f.name} was not loaded (the current stack is kept):`,
+          [`file: ${f.size} bytes is over the 1 MB limit for a stack file`]);
+        return;
+      }
+      void f.text().then((t) => this.importText(f.name, t));
+    });
+    $('run-cancel').addEventListener('click', () => {
+      if (this.engine.cancelReport()) {
+        this.setRunStatus('cancelled', 0, 'cancelled');
+        this.drawTraceView();
+        this.drawFrequencyViews();
+      }
+    });
+    $('run-start').addEventListener('click', () => this.startReport());
+    const about = $<HTMLDialogElement>('about');
+    $('about-open').addEventListener('click', () => about.showModal());
+    $('about-close').addEventListener('click', () => about.close());
+  }
+
+  private wireKeys(): void {
+    window.addEventListener('keydown', (e) => {
+      const t = e.target as HTMLElement | null;
+      if (t !== null && (t.closest('input, select, textarea, [contenteditable="true"]') !== null)) return;
+      if (e.key === ' ' || e.code === 'Space') { e.preventDefault(); this.togglePlay(); }
+      else if (e.key === 'ArrowRight') { e.preventDefault(); this.stepOnce(); }
+    });
+  }
+
+  private async exportNow(): Promise<void> {
+    this.field.render();
+    const rep = this.reportCurrent();
+    const notes = await exportAll({
+      title: this.file.title,
+      file: this.file,
+      solved: this.solved,
+      report: rep,
+      canvases: [
+        ['field-view', this.field.canvas],
+        ['trace-view', this.trace.chart.canvas],
+        ['spectrum-view', this.spectrum.chart.canvas],
+        ['profile-view', this.profile.chart.canvas],
+      ],
+    });
+    this.messages.show('export', notes.length > 0 ? 'warn' : 'info', notes.length > 0 ? 'Exported, with gaps:' : 'Exported the tables, the stack file and the view snapshots.', notes);
+  }
+}
+
+function initialStack(): { file: StackFile; stack: Stack; note: string | null } {
+  const stored = loadStoredStack();
+  if (stored !== undefined) {
+    const r = parseStackObject(stored);
+    if (r.ok) return { file: r.file, stack: r.stack, note: null };
+  }
+  const r = parseStackObject(presetFile(DEFAULT_PRESET));
+  if (r.ok) return { file: r.file, stack: r.stack, note: stored !== undefined ? 'The stored stack was unreadable; the default preset is loaded.' : null };
+  const empty = parseStackObject({ title: 'Empty stack', band_GHz: [1, 10], layers: [] });
+  if (!empty.ok) throw new Error(empty.errors.join('\n'));
+  return { file: empty.file, stack: empty.stack, note: `The default preset is invalid: ${r.errors.join('; ')}` };
+}
+
+adoptGuiStyles();
+const init = initialStack();
+const bench = new Workbench(init, readSettings(loadStoredSettings()));
+bench.start().then(() => {
+  if (init.note !== null) document.querySelector('[data-testid="messages"]')?.append(init.note);
+}).catch((e: unknown) => {
+  const box = document.querySelector('[data-testid="messages"]');
+  if (box !== null) box.textContent = `The workbench could not start: ${e instanceof Error ? e.message : String(e)}`;
+  throw e;
+});

@@ -1,0 +1,89 @@
+// Messages between the page and the engine worker (src/app/worker.ts). Typed arrays travel as
+// transferables: the page hands its frame buffers back with each `advance` so no frame allocates.
+//
+// The page runs two workers from the same script: a "live" one (exact + FEM solves on every edit,
+// and the steppable pulse run the field view animates) and a "batch" one (the full pulse run with
+// spectra and echoes, which shows progress and is cancelled by terminating that worker).
+
+/** A table column on the wire: numbers, or text (the echo table's path names). */
+export interface WireColumn {
+  name: string;
+  data: Float64Array | string[];
+}
+
+/** Run options the page sets (the same knobs the CLI offers). */
+export interface RunSettings {
+  /** Accuracy target of the pulse run (predicted worst phase error, e.g. 0.01); null = engine default. */
+  accuracy: number | null;
+}
+
+/** Where things are on the pulse run's grid, for drawing. Positions in metres, x = 0 at the front face. */
+export interface PulseGeometry {
+  cells: number;
+  dx_m: number;
+  dt_s: number;
+  courant: number;
+  /** Position of every E node. */
+  x_m: Float64Array;
+  /** Back face of the stack. */
+  back_m: number;
+  /** Absorbing regions at the open ends, [from, to]. */
+  absorbers: Array<[number, number]>;
+  /** Probes and the source plane. */
+  probes: Array<{ label: string; x_m: number; kind: 'probe' | 'source' }>;
+  /** Steps the engine expects to need (a guide for the timeline; it may stop earlier or later). */
+  expectedSteps: number;
+  warnings: string[];
+}
+
+/** One animation frame of the pulse run. Arrays have `cells` entries; NaN where a trace is not defined. */
+export interface FieldFrame {
+  step: number;
+  time_s: number;
+  done: boolean;
+  total: Float64Array;
+  incident: Float64Array;
+  /** total − incident in front of the stack, NaN elsewhere. */
+  reflected: Float64Array;
+  /** total behind the stack, NaN elsewhere. */
+  transmitted: Float64Array;
+}
+
+/** The full pulse-run report (the same tables the CLI writes as CSV). */
+export interface WireReport {
+  spectrum: WireColumn[];
+  profile: WireColumn[];
+  echoes: WireColumn[];
+  trace: WireColumn[];
+  summary: unknown;
+  warnings: string[];
+  ms: number;
+}
+
+export type ToWorker =
+  | { kind: 'solve'; id: number; file: unknown }
+  | { kind: 'pulse'; id: number; file: unknown; settings: RunSettings }
+  | { kind: 'advance'; id: number; steps: number; recycle: FieldFrame | null }
+  | { kind: 'rewind'; id: number }
+  | { kind: 'report'; id: number; file: unknown; settings: RunSettings };
+
+export type FromWorker =
+  | { kind: 'solved'; id: number; spectrum: WireColumn[]; profile: WireColumn[]; warnings: string[]; ms: number }
+  | { kind: 'pulse-ready'; id: number; geometry: PulseGeometry }
+  | { kind: 'frame'; id: number; frame: FieldFrame }
+  | { kind: 'progress'; id: number; fraction: number; note: string }
+  | { kind: 'report'; id: number; report: WireReport }
+  | { kind: 'failed'; id: number; stage: 'solve' | 'pulse' | 'advance' | 'report'; messages: string[] };
+
+/** Typed arrays inside a message, to pass as transferables. */
+export function transferablesOf(value: unknown, out: Transferable[] = []): Transferable[] {
+  if (ArrayBuffer.isView(value)) {
+    const buf = value.buffer;
+    if (buf instanceof ArrayBuffer && !out.includes(buf)) out.push(buf);
+  } else if (Array.isArray(value)) {
+    for (const v of value) transferablesOf(v, out);
+  } else if (value !== null && typeof value === 'object') {
+    for (const v of Object.values(value)) transferablesOf(v, out);
+  }
+  return out;
+}

@@ -1,0 +1,94 @@
+// Worker side of the pulse run: holds the steppable run the field view animates, builds its frames
+// (total, incident, reflected, transmitted at every node) into buffers the page hands back, and
+// runs the full pulse-run report.
+
+import type { Stack } from '../stack/types.ts';
+import type { PulseOptions, PulseRun } from '../fdtd/types.ts';
+import { createPulseRun } from '../fdtd/run.ts';
+import type { FieldFrame, PulseGeometry, RunSettings, WireReport } from './protocol.ts';
+
+let run: PulseRun | null = null;
+let runStack: Stack | null = null;
+let runSettings: RunSettings = { accuracy: null };
+let incident = new Float64Array(0);
+
+export const pulseOptions = (settings: RunSettings): PulseOptions =>
+  (settings.accuracy !== null ? { accuracy: settings.accuracy } : {});
+
+function create(stack: Stack, settings: RunSettings): PulseRun {
+  return createPulseRun(stack, pulseOptions(settings));
+}
+
+export function startPulse(stack: Stack, settings: RunSettings): PulseGeometry {
+  run = null;
+  run = create(stack, settings);
+  runStack = stack;
+  runSettings = settings;
+  return geometryOf(run, stack);
+}
+
+function geometryOf(r: PulseRun, stack: Stack): PulseGeometry {
+  const p = r.plan, n = p.nodes;
+  const x = r.x_m();
+  const at = (i: number): number => x[Math.max(0, Math.min(x.length - 1, i))];
+  const absorbers: Array<[number, number]> = [];
+  if (n.pmlFrontEnd > 0) absorbers.push([at(0), at(n.pmlFrontEnd - 1)]);
+  if (n.pmlBackStart < n.total) absorbers.push([at(n.pmlBackStart), at(n.total - 1)]);
+  const probes: PulseGeometry['probes'] = [
+    { label: 'source (TF/SF)', x_m: (at(n.tfsf - 1) + at(n.tfsf)) / 2, kind: 'source' },
+    { label: 'R probe', x_m: at(n.front), kind: 'probe' },
+  ];
+  if (stack.back !== 'pec') probes.push({ label: 'T probe', x_m: at(n.back), kind: 'probe' });
+  return {
+    cells: n.total, dx_m: p.dx_m, dt_s: p.dt_s, courant: p.courant, x_m: x,
+    back_m: p.effective.thickness_m, absorbers, probes, expectedSteps: p.expectedSteps, warnings: [...p.warnings],
+  };
+}
+
+function buffers(recycle: FieldFrame | null, n: number): FieldFrame {
+  if (recycle !== null && recycle.total.length === n) return recycle;
+  return {
+    step: 0, time_s: 0, done: false,
+    total: new Float64Array(n), incident: new Float64Array(n), reflected: new Float64Array(n), transmitted: new Float64Array(n),
+  };
+}
+
+function frameOf(r: PulseRun, recycle: FieldFrame | null): FieldFrame {
+  const nodes = r.plan.nodes, n = nodes.total;
+  const f = buffers(recycle, n);
+  if (incident.length !== n) incident = new Float64Array(n);
+  const grid = r.totalField();
+  r.incidentField(incident);
+  const pec = runStack?.back === 'pec';
+  for (let i = 0; i < n; i++) {
+    const g = grid[i], inc = incident[i];
+    // In front of the TF/SF plane the grid holds the scattered (reflected) field only.
+    const total = i < nodes.tfsf ? g + inc : g;
+    f.total[i] = total;
+    f.incident[i] = inc;
+    f.reflected[i] = i <= nodes.front ? total - inc : NaN;
+    f.transmitted[i] = !pec && i >= nodes.back ? total : NaN;
+  }
+  f.step = r.stepIndex;
+  f.time_s = r.time_s;
+  f.done = r.done;
+  return f;
+}
+
+export function advancePulse(steps: number, recycle: FieldFrame | null): FieldFrame {
+  if (run === null) throw new Error('no pulse run');
+  if (steps > 0 && !run.done) run.step(steps);
+  return frameOf(run, recycle);
+}
+
+export function rewindPulse(): FieldFrame {
+  if (runStack === null) throw new Error('no pulse run');
+  run = create(runStack, runSettings);
+  return frameOf(run, null);
+}
+
+export async function fullReport(
+  _stack: Stack, _warnings: string[], _settings: RunSettings, _progress: (fraction: number, note: string) => void,
+): Promise<Omit<WireReport, 'ms'>> {
+  throw new Error('the pulse engine is not available in this build');
+}

@@ -1,0 +1,49 @@
+// View and run settings the page keeps (and stores), apart from the stack itself.
+
+import type { TraceName } from './fieldView.ts';
+
+export type SpectrumMode = 'magnitude' | 'phase' | 'group delay';
+
+export interface Settings {
+  /** Steps of the pulse run per animation frame. */
+  speed: number;
+  traces: Record<TraceName, boolean>;
+  xUnit: 'mm' | 'wavelengths';
+  /** Frequency at which positions are given in wavelengths, GHz. */
+  lambda_GHz: number;
+  spectrumMode: SpectrumMode;
+  /** Draw the reflected and transmitted records as a dB envelope. */
+  envelope: boolean;
+  /** Pulse-run accuracy target (predicted worst phase error); null = the engine's default. */
+  accuracy: number | null;
+}
+
+export const DEFAULT_SETTINGS: Settings = {
+  speed: 10,
+  traces: { total: true, incident: false, reflected: true, transmitted: true },
+  xUnit: 'mm',
+  lambda_GHz: 5,
+  spectrumMode: 'magnitude',
+  envelope: false,
+  accuracy: null,
+};
+
+/** Stored settings merged over the defaults, each field checked. */
+export function readSettings(value: unknown): Settings {
+  const s: Settings = structuredClone(DEFAULT_SETTINGS);
+  if (value === null || typeof value !== 'object') return s;
+  const v = value as Record<string, unknown>;
+  const num = (x: unknown, lo: number, hi: number): number | undefined =>
+    typeof x === 'number' && Number.isFinite(x) && x >= lo && x <= hi ? x : undefined;
+  s.speed = Math.round(num(v.speed, 1, 1000) ?? s.speed);
+  if (v.traces !== null && typeof v.traces === 'object') {
+    const t = v.traces as Record<string, unknown>;
+    for (const k of Object.keys(s.traces) as TraceName[]) if (typeof t[k] === 'boolean') s.traces[k] = t[k];
+  }
+  if (v.xUnit === 'mm' || v.xUnit === 'wavelengths') s.xUnit = v.xUnit;
+  s.lambda_GHz = num(v.lambda_GHz, 1e-3, 1e3) ?? s.lambda_GHz;
+  if (v.spectrumMode === 'magnitude' || v.spectrumMode === 'phase' || v.spectrumMode === 'group delay') s.spectrumMode = v.spectrumMode;
+  if (typeof v.envelope === 'boolean') s.envelope = v.envelope;
+  s.accuracy = v.accuracy === null ? null : num(v.accuracy, 1e-4, 0.5) ?? s.accuracy;
+  return s;
+}

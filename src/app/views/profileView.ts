@@ -1,0 +1,57 @@
+// Profile view: |E| and phase of the standing wave against position at one frequency, from every
+// method present, over shaded layer bands.
+
+import { Chart, type ChartBand, type ChartSeries } from '../charts/chart.ts';
+import type { WireColumn } from '../protocol.ts';
+import type { StackSketch } from '../sketch.ts';
+import { THEME, bandTint } from '../theme.ts';
+import { complexCol, mag, num, phaseDeg } from '../tables.ts';
+import { methodsIn } from './methods.ts';
+
+export class ProfileView {
+  readonly chart: Chart;
+  constructor(host: HTMLElement) { this.chart = new Chart(host, 460); }
+
+  show(tables: Array<readonly WireColumn[] | null>, sketch: StackSketch | null, f_GHz: number, note: string): void {
+    const absE: ChartSeries[] = [], phase: ChartSeries[] = [];
+    const seen = new Set<string>();
+    let xMin = Infinity, xMax = -Infinity;
+    for (const t of tables) {
+      const x = num(t, 'x_mm');
+      if (t === null || x === null || x.length === 0) continue;
+      xMin = Math.min(xMin, x[0]); xMax = Math.max(xMax, x[x.length - 1]);
+      for (const m of methodsIn(t, 'E')) {
+        if (seen.has(m.stem)) continue;
+        const E = complexCol(t, `E_${m.stem}`);
+        if (E === null) continue;
+        seen.add(m.stem);
+        absE.push({ label: m.label, x, y: mag(E), color: m.color, width: m.width, dash: m.dash });
+        phase.push({ label: m.label, x, y: phaseDeg(E), color: m.color, width: m.width, dash: m.dash });
+      }
+    }
+    const bands: ChartBand[] = [];
+    if (sketch !== null) {
+      for (const l of sketch.layers) {
+        if (l.kind === 'bulk') bands.push({ x0: l.x0_m * 1e3, x1: l.x1_m * 1e3, color: bandTint(l.material), label: l.material });
+      }
+      if (sketch.pec && Number.isFinite(xMax)) {
+        const d = sketch.thickness_m * 1e3;
+        bands.push({ x0: d, x1: d + Math.max(1, 0.04 * (xMax - xMin)), color: THEME.conductor, hatch: true });
+        xMax = Math.max(xMax, d + 0.04 * (xMax - xMin));
+      }
+    }
+    const markers = (sketch?.layers ?? []).filter((l) => l.kind === 'sheet')
+      .map((l) => ({ x: l.x0_m * 1e3, label: l.material, color: THEME.sheet }));
+    this.chart.set({
+      title: 'Standing wave',
+      subtitle: `${f_GHz} GHz${note ? ` · ${note}` : ''}`,
+      xLabel: 'position x (mm), front face at 0',
+      xRange: Number.isFinite(xMin) && xMax > xMin ? [xMin, xMax] : undefined,
+      panels: [
+        { yLabel: '|E| / E₀', series: absE, bands, markers },
+        { yLabel: 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8 },
+      ],
+      empty: 'solving…',
+    });
+  }
+}

@@ -1,0 +1,71 @@
+// Spectrum view: |R| and |T| in dB (or phase, or group delay) over the band from every method
+// present, with the difference of each method from the exact solution underneath.
+
+import { Chart, type ChartPanel, type ChartSeries } from '../charts/chart.ts';
+import { groupDelay } from '../../spectra/groupDelay.ts';
+import type { WireColumn } from '../protocol.ts';
+import type { SpectrumMode } from '../settings.ts';
+import { complexCol, diffDb, magDb, num, phaseDeg } from '../tables.ts';
+import { methodsIn, styleOf } from './methods.ts';
+
+type Cx = { re: Float64Array; im: Float64Array };
+
+export class SpectrumView {
+  readonly chart: Chart;
+  constructor(host: HTMLElement) { this.chart = new Chart(host, 460); }
+
+  /** `tables`: the exact/FEM table and, when current, the pulse run's table (its FDTD columns are added). */
+  show(tables: Array<readonly WireColumn[] | null>, mode: SpectrumMode, note: string): void {
+    const series = new Map<string, { f: Float64Array; R: Cx; T: Cx | null }>();
+    for (const t of tables) {
+      const f = num(t, 'f_GHz');
+      if (t === null || f === null) continue;
+      for (const m of methodsIn(t, 'R')) {
+        if (series.has(m.stem)) continue;
+        const R = complexCol(t, `R_${m.stem}`);
+        if (R !== null) series.set(m.stem, { f, R, T: complexCol(t, `T_${m.stem}`) });
+      }
+    }
+    const exact = series.get('tmm');
+    const hasT = exact?.T !== null && exact?.T !== undefined && exact.T.re.some((v, i) => v !== 0 || exact.T!.im[i] !== 0);
+    const value = (z: Cx, f: Float64Array): Float64Array => {
+      if (mode === 'magnitude') return magDb(z);
+      if (mode === 'phase') return phaseDeg(z);
+      const fHz = f.map((v) => v * 1e9);
+      return groupDelay(fHz, z.re, z.im).map((s) => s * 1e9);
+    };
+    const yLabel = (q: 'R' | 'T'): string =>
+      mode === 'magnitude' ? `|${q}| (dB)` : mode === 'phase' ? `phase of ${q} (°)` : `group delay of ${q} (ns)`;
+    const curves = (q: 'R' | 'T'): ChartSeries[] => {
+      const out: ChartSeries[] = [];
+      for (const [stem, s] of series) {
+        const z = q === 'R' ? s.R : s.T;
+        if (z === null) continue;
+        const st = styleOf(stem);
+        out.push({ label: st.label, x: s.f, y: value(z, s.f), color: st.color, width: st.width, dash: st.dash });
+      }
+      return out;
+    };
+    const panels: ChartPanel[] = [{ yLabel: yLabel('R'), series: curves('R'), yFloor: mode === 'magnitude' ? -80 : undefined }];
+    if (hasT) panels.push({ yLabel: yLabel('T'), series: curves('T'), yFloor: mode === 'magnitude' ? -80 : undefined });
+    const diffs: ChartSeries[] = [];
+    if (exact !== undefined) {
+      for (const [stem, s] of series) {
+        if (stem === 'tmm') continue;
+        const st = styleOf(stem);
+        diffs.push({ label: `|R ${st.label} − exact|`, x: s.f, y: diffDb(s.R, exact.R), color: st.color, width: 1.5 });
+        if (hasT && s.T !== null && exact.T !== null) {
+          diffs.push({ label: `|T ${st.label} − exact|`, x: s.f, y: diffDb(s.T, exact.T), color: st.color, width: 1.25, dash: [5, 3] });
+        }
+      }
+    }
+    if (diffs.length > 0) panels.push({ yLabel: 'difference (dB)', series: diffs, weight: 0.75, yFloor: -160 });
+    this.chart.set({
+      title: 'Spectrum',
+      subtitle: note,
+      xLabel: 'frequency (GHz)',
+      panels,
+      empty: 'solving…',
+    });
+  }
+}

@@ -1,0 +1,83 @@
+/// <reference lib="webworker" />
+// The engine worker: parses the stack file with the core parser and runs the core methods
+// unchanged — exact + FEM solves, the steppable pulse run the field view animates, and the full
+// pulse-run report. The page never waits on it: every answer is a message.
+
+import { parseStackObject } from '../stack/parse.ts';
+import { solveReport } from '../report/solve.ts';
+import type { FromWorker, ToWorker } from './protocol.ts';
+import { transferablesOf } from './protocol.ts';
+import { copyTable } from './tables.ts';
+import { advancePulse, rewindPulse, startPulse, fullReport } from './pulseHost.ts';
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+
+const send = (m: FromWorker): void => scope.postMessage(m, transferablesOf(m));
+
+const now = (): number => performance.now();
+
+function messagesOf(e: unknown): string[] {
+  if (e instanceof Error) return [e.message.split('\n')[0]];
+  return [String(e)];
+}
+
+function parse(file: unknown, id: number, stage: 'solve' | 'pulse' | 'report') {
+  const r = parseStackObject(file);
+  if (!r.ok) { send({ kind: 'failed', id, stage, messages: r.errors }); return null; }
+  return r;
+}
+
+function handle(m: ToWorker): void | Promise<void> {
+  switch (m.kind) {
+    case 'solve': {
+      const r = parse(m.file, m.id, 'solve');
+      if (r === null) return;
+      try {
+        const t0 = now();
+        const rep = solveReport(r.stack, { inputWarnings: r.warnings });
+        send({ kind: 'solved', id: m.id, spectrum: copyTable(rep.spectrum), profile: copyTable(rep.profile), warnings: rep.warnings, ms: now() - t0 });
+      } catch (e) {
+        send({ kind: 'failed', id: m.id, stage: 'solve', messages: messagesOf(e) });
+      }
+      return;
+    }
+    case 'pulse': {
+      const r = parse(m.file, m.id, 'pulse');
+      if (r === null) return;
+      try {
+        send({ kind: 'pulse-ready', id: m.id, geometry: startPulse(r.stack, m.settings) });
+      } catch (e) {
+        send({ kind: 'failed', id: m.id, stage: 'pulse', messages: messagesOf(e) });
+      }
+      return;
+    }
+    case 'advance':
+      try {
+        send({ kind: 'frame', id: m.id, frame: advancePulse(m.steps, m.recycle) });
+      } catch (e) {
+        send({ kind: 'failed', id: m.id, stage: 'advance', messages: messagesOf(e) });
+      }
+      return;
+    case 'rewind':
+      try {
+        send({ kind: 'frame', id: m.id, frame: rewindPulse() });
+      } catch (e) {
+        send({ kind: 'failed', id: m.id, stage: 'advance', messages: messagesOf(e) });
+      }
+      return;
+    case 'report': {
+      const r = parse(m.file, m.id, 'report');
+      if (r === null) return;
+      const t0 = now();
+      return fullReport(r.stack, r.warnings, m.settings, (fraction, note) => send({ kind: 'progress', id: m.id, fraction, note }))
+        .then((rep) => send({ kind: 'report', id: m.id, report: { ...rep, ms: now() - t0 } }))
+        .catch((e: unknown) => send({ kind: 'failed', id: m.id, stage: 'report', messages: messagesOf(e) }));
+    }
+  }
+}
+
+// Messages are handled strictly in order (a report awaits between chunks, so keep a queue).
+let queue: Promise<void> = Promise.resolve();
+scope.onmessage = (e: MessageEvent<ToWorker>) => {
+  queue = queue.then(() => handle(e.data)).catch(() => {});
+};
