@@ -1,0 +1,40 @@
+// The echoes table of a pulse run (t_ns, level_dB, amplitude, predicted_t_ns, path) and its CSV form:
+// numeric columns as report/table.ts writes them, then the path in plain words (quoted when needed).
+
+import { nsFromS } from '../units.ts';
+import type { EchoTable } from '../echoes/table.ts';
+import { assertTable, formatNumber, scaledColumn, type Column } from './table.ts';
+
+export interface EchoColumns {
+  /** t_ns, level_dB, amplitude, predicted_t_ns. */
+  columns: Column[];
+  path: string[];
+}
+
+export function echoColumns(e: EchoTable): EchoColumns {
+  return {
+    columns: [
+      scaledColumn('t_ns', e.t_s, 1e9),
+      { name: 'level_dB', data: e.level_dB },
+      { name: 'amplitude', data: e.amplitude },
+      scaledColumn('predicted_t_ns', e.predicted_t_s, 1e9),
+    ],
+    path: e.path,
+  };
+}
+
+/** RFC 4180 quoting for a text field. */
+const quote = (s: string): string => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+
+/** CSV text: header, then one line per echo. Refuses non-finite numbers (TableError). */
+export function formatEchoesCsv(t: EchoColumns): string {
+  const lines = [[...t.columns.map((c) => c.name), 'path'].join(',')];
+  if (t.path.length > 0) assertTable(t.columns);
+  for (let i = 0; i < t.path.length; i++) {
+    lines.push([...t.columns.map((c) => formatNumber(c.data[i])), quote(t.path[i])].join(','));
+  }
+  return lines.join('\n') + '\n';
+}
+
+/** Delays in ns, for summaries. */
+export const nsList = (t_s: Float64Array): number[] => Array.from(t_s, (t) => Number(nsFromS(t).toPrecision(6)));

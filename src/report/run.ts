@@ -1,0 +1,245 @@
+// The pulse pipeline behind `slabecho run`: everything solveReport gives, plus the FDTD run's spectra,
+// standing-wave profile, echoes and time traces, with the grid, the run and the agreement between
+// methods in the summary. DOM-free; the caller writes the files.
+
+import { type Complex, exp, mul, add } from '../complex.ts';
+import { echoTable, type EchoTable } from '../echoes/table.ts';
+import { PlanError } from '../fdtd/errors.ts';
+import { createPulseRun, runToEnd } from '../fdtd/run.ts';
+import type { GridPlan, PulseOptions, PulseRun } from '../fdtd/types.ts';
+import type { Profile, Spectrum } from '../results.ts';
+import { dtft } from '../spectra/dtft.ts';
+import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
+import { stackThickness_m, type Stack } from '../stack/types.ts';
+import { stackAtFrequency } from '../tmm/media.ts';
+import { degFromRad } from '../units.ts';
+import { agreementRow, type AgreementRow } from './format-agreement.ts';
+import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
+import { solveReport, type Report, type SolveOptions } from './solve.ts';
+import { assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
+
+export interface RunOptions extends SolveOptions {
+  pulse?: PulseOptions;
+  /** Polled between chunks of steps; true stops the run (the report is then marked stopped). */
+  shouldStop?: () => boolean;
+}
+
+export interface RunReport extends Report {
+  echoes: EchoColumns;
+  /** t_ns, E_incident, E_reflected, E_transmitted at the reference planes, every time step. */
+  trace: Column[];
+  /** The agreement rows added (also in summary.agreement). */
+  agreement: AgreementRow[];
+  /** True when shouldStop ended the run early: every table is complete but the run is cut short. */
+  stopped: boolean;
+  /** Set when the pulse engine declined this stack (e.g. oblique incidence): solve's results only. */
+  skipped?: string;
+}
+
+const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+const r3 = (x: number): number => Number(x.toPrecision(3));
+const r6 = (x: number): number => Number(x.toPrecision(6));
+
+/**
+ * Run the exact solution (and whatever else solveReport runs) and the FDTD pulse, and assemble the report.
+ * Throws PlanError when the grid is refused as too large, FdtdInstabilityError when the run blows up.
+ * A stack the engine does not model (PlanError 'unsupported', e.g. oblique incidence) gives solve's
+ * report with empty pulse tables, `skipped` set and a warning.
+ */
+export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
+  const progress = options.onProgress ?? (() => {});
+  const base = solveReport(stack, { ...options, onProgress: (f) => progress(0.1 * f) });
+  const warnings = [...base.warnings];
+  const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
+  const summary: Record<string, unknown> = { ...base.summary };
+  const methods = [...((summary.methods as unknown[]) ?? [])];
+  let run: PulseRun;
+  try {
+    run = createPulseRun(stack, options.pulse);
+  } catch (e) {
+    if (e instanceof PlanError && e.code === 'unsupported') {
+      const why = `FDTD skipped: ${e.message}`;
+      warn(why);
+      summary.fdtd = { skipped: e.message };
+      summary.warnings = warnings;
+      progress(1);
+      return { ...base, summary, warnings, echoes: { columns: emptyEchoColumns(), path: [] }, trace: emptyTrace(), agreement: [], stopped: false, skipped: e.message };
+    }
+    throw e;
+  }
+  const t0 = now();
+  await runToEnd(run, { onProgress: (f) => progress(0.1 + 0.85 * f), shouldStop: options.shouldStop });
+  const run_ms = now() - t0;
+  const stopped = run.doneReason === 'stopped';
+  for (const w of run.warnings) warn(w);
+  if (stopped) warn('the pulse run was stopped before the field had decayed: R, T and the echoes come from truncated records');
+
+  // Spectra at the exact solution's frequencies.
+  let t1 = now();
+  const fCol = findColumn(base.spectrum, 'f_GHz');
+  if (!fCol) throw new Error('runReport: the solve report has no f_GHz column');
+  const f_Hz = Float64Array.from(fCol.data, (f) => f * 1e9);
+  const rec = run.records();
+  const fdtd = spectrumFromRecords(rec, f_Hz);
+  for (const w of fdtd.warnings) warn(w);
+  const spectrum_ms = now() - t1;
+  const spectrum = [...base.spectrum, ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im)];
+
+  // Profile: the FDTD phasor interpolated onto the report's x grid.
+  let profile = base.profile;
+  const xCol = findColumn(base.profile, 'x_mm');
+  if (xCol) {
+    const x_m = Float64Array.from(xCol.data, (x) => x * 1e-3);
+    const p = profileOnGrid(stack, run, x_m);
+    profile = [...base.profile, ...complexColumns('E_fdtd', p.re, p.im)];
+  }
+
+  // Echoes.
+  t1 = now();
+  const echoes: EchoTable = echoTable(stack, rec);
+  const echoes_ms = now() - t1;
+
+  const trace: Column[] = [
+    scaledColumn('t_ns', Float64Array.from({ length: rec.count }, (_, k) => k * rec.dt_s), 1e9),
+    { name: 'E_incident', data: rec.incident.slice() },
+    { name: 'E_reflected', data: rec.reflected.slice() },
+    { name: 'E_transmitted', data: rec.transmitted.slice() },
+  ];
+
+  // Agreement rows: fdtd against the exact solution, and against the FEM when its columns are there.
+  const agreement: AgreementRow[] = [];
+  const tmm = spectrumFromColumns(spectrum, 'tmm', f_Hz);
+  const target = run.plan.accuracyTarget;
+  if (tmm) agreement.push(agreementRow('fdtd-tmm', fdtd, tmm, target));
+  const fem = spectrumFromColumns(spectrum, 'fem', f_Hz);
+  if (fem) agreement.push(agreementRow('fdtd-fem', fdtd, fem, target));
+  const prior = Array.isArray(summary.agreement) ? (summary.agreement as AgreementRow[]) : [];
+  summary.agreement = [...prior, ...agreement.map(roundRow)];
+
+  methods.push({ name: 'fdtd', description: 'leapfrog FDTD pulse run (normal incidence)', time_ms: Math.round(run_ms * 1e3) / 1e3 });
+  summary.methods = methods;
+  summary.grid = gridSummary(run.plan);
+  const energy = run.energy();
+  summary.run = {
+    steps: run.stepIndex,
+    simulated_ns: r6(run.time_s * 1e9),
+    end: run.doneReason,
+    residual_energy_dB: Number.isFinite(energy.level_dB) ? r3(energy.level_dB) : null,
+    decay_target_dB: -run.plan.decay_dB,
+    truncated: run.doneReason !== 'decayed',
+    weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
+  };
+  summary.power_law_fits = run.plan.fits.map((f) => ({
+    material: f.material,
+    band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
+    max_rel_error_eps_re: r3(f.maxRelErr_re),
+    max_rel_error_eps_im: r3(f.maxRelErr_im),
+    model: f.model,
+  }));
+  summary.pulse = {
+    f0_GHz: r6(run.plan.pulse.f0_Hz / 1e9),
+    tau_ps: r6(run.plan.pulse.tau_s * 1e12),
+    band_edge_dB: run.plan.pulse.edge_dB,
+    envelope_fwhm_ns: r6(echoes.pulseWidth_s * 1e9),
+  };
+  summary.echoes = {
+    count: echoes.t_s.length,
+    group_delays_at_GHz: r6(echoes.centre_Hz / 1e9),
+    t_ns: nsList(echoes.t_s),
+    path: echoes.path,
+  };
+  summary.timings_ms = { fdtd: Math.round(run_ms), spectra: Math.round(spectrum_ms), echoes: Math.round(echoes_ms) };
+  summary.warnings = warnings;
+
+  assertTable(spectrum);
+  if (profile.length > 0) assertTable(profile);
+  assertTable(trace);
+  const ech = echoColumns(echoes);
+  if (ech.path.length > 0) assertTable(ech.columns);
+  progress(1);
+  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement, stopped };
+}
+
+function emptyEchoColumns(): Column[] {
+  return ['t_ns', 'level_dB', 'amplitude', 'predicted_t_ns'].map((name) => ({ name, data: new Float64Array(0) }));
+}
+function emptyTrace(): Column[] {
+  return ['t_ns', 'E_incident', 'E_reflected', 'E_transmitted'].map((name) => ({ name, data: new Float64Array(0) }));
+}
+
+function roundRow(r: AgreementRow): AgreementRow {
+  return { ...r, R_max: r3(r.R_max), T_max: r3(r.T_max), R_worst_f_GHz: r6(r.R_worst_f_GHz), T_worst_f_GHz: r6(r.T_worst_f_GHz) };
+}
+
+/** A Spectrum from the report's `R_<tag>_re…` columns, or null when they are absent. */
+function spectrumFromColumns(cols: readonly Column[], tag: string, f_Hz: Float64Array): Spectrum | null {
+  const g = (n: string) => findColumn(cols, n)?.data;
+  const R_re = g(`R_${tag}_re`), R_im = g(`R_${tag}_im`), T_re = g(`T_${tag}_re`), T_im = g(`T_${tag}_im`);
+  if (!R_re || !R_im || !T_re || !T_im) return null;
+  return { f_Hz, R_re, R_im, T_re, T_im };
+}
+
+function gridSummary(p: GridPlan): Record<string, unknown> {
+  return {
+    cell_mm: r6(p.dx_m * 1e3),
+    time_step_ps: r6(p.dt_s * 1e12),
+    courant: r6(p.courant),
+    cells: p.cells,
+    cells_per_wavelength: r3(p.cellsPerWavelength),
+    pml_cells: p.pmlCells,
+    predicted_error: r3(p.predictedError),
+    accuracy_target: p.accuracyTarget,
+    steps_limit: p.stepsLimit,
+    memory_MB: r3(p.memory_bytes / 1e6),
+    layers: p.layers.map((l) => ({
+      index: l.index,
+      name: l.name,
+      cells: r3(l.cells),
+      cells_per_wavelength: r3(l.cellsPerWavelength),
+      phase_error_deg: r3(degFromRad(l.phaseError_rad)),
+    })),
+  };
+}
+
+/**
+ * The FDTD standing wave at the report's positions: linear interpolation of the run's phasor
+ * between grid nodes; outside the run's span, the front medium's incident + reflected waves
+ * (with the run's own R at the profile frequency) and the back medium's transmitted wave (its own T).
+ */
+export function profileOnGrid(stack: Stack, run: PulseRun, x_m: Float64Array): { re: Float64Array; im: Float64Array } {
+  const p: Profile = run.profile();
+  const rec = run.records();
+  const f = [p.f_Hz];
+  const inc = dtft(rec.incident, rec.dt_s, Float64Array.from(f));
+  const ratio = (x: Float64Array): Complex => {
+    const X = dtft(x, rec.dt_s, Float64Array.from(f));
+    const d = inc.re[0] ** 2 + inc.im[0] ** 2;
+    return d > 0 ? { re: (X.re[0] * inc.re[0] + X.im[0] * inc.im[0]) / d, im: (X.im[0] * inc.re[0] - X.re[0] * inc.im[0]) / d } : { re: 0, im: 0 };
+  };
+  const R = ratio(rec.reflected), T = ratio(rec.transmitted);
+  const s = stackAtFrequency(stack, p.f_Hz);
+  const d = stackThickness_m(stack);
+  const pecBack = run.plan.effective.back === 'pec';
+  const n = x_m.length, re = new Float64Array(n), im = new Float64Array(n);
+  const x0 = p.x_m[0], x1 = p.x_m[p.x_m.length - 1], dx = run.plan.dx_m;
+  for (let i = 0; i < n; i++) {
+    const x = x_m[i];
+    let v: Complex;
+    if (x < x0) {
+      // e^{−jkx} + R e^{+jkx} in the front medium
+      const k = s.front.kx;
+      v = add(exp({ re: k.im * x, im: -k.re * x }), mul(R, exp({ re: -k.im * x, im: k.re * x })));
+    } else if (x > x1) {
+      if (pecBack || !s.back) v = { re: 0, im: 0 };
+      else { const k = s.back.kx, u = x - d; v = mul(T, exp({ re: k.im * u, im: -k.re * u })); }
+    } else {
+      const u = (x - x0) / dx, j = Math.min(Math.floor(u), p.x_m.length - 2), a = u - j;
+      v = { re: (1 - a) * p.E_re[j] + a * p.E_re[j + 1], im: (1 - a) * p.E_im[j] + a * p.E_im[j + 1] };
+    }
+    re[i] = Number.isFinite(v.re) ? v.re : 0;
+    im[i] = Number.isFinite(v.im) ? v.im : 0;
+  }
+  return { re, im };
+}
+
+export type { PulseSpectrum };
