@@ -19,19 +19,28 @@ export function tangentialWavenumber2(front: BulkModel, f_Hz: number, angle_rad:
 }
 
 /** k_z = √(k0² ε − k_t²) on the branch with Im k_z ≤ 0, so e^{−j k_z x} decays (or is undamped) along +x. */
-export function normalWavenumber(eps: Complex, k0: number, kt2: Complex): Complex {
-  const re = k0 * k0 * eps.re - kt2.re, im = k0 * k0 * eps.im - kt2.im;
+export const normalWavenumber = (eps: Complex, k0: number, kt2: Complex): Complex =>
+  setNormalWavenumber({ re: 0, im: 0 }, eps.re, eps.im, k0, kt2.re, kt2.im);
+
+/** normalWavenumber written into `out` (no allocation; for the per-frequency loop). */
+export function setNormalWavenumber(out: Complex, epsRe: number, epsIm: number, k0: number, kt2Re: number, kt2Im: number): Complex {
+  const re = k0 * k0 * epsRe - kt2Re, im = k0 * k0 * epsIm - kt2Im;
   const m = Math.hypot(re, im);
   let sr = Math.sqrt((m + re) / 2), si = Math.sqrt(Math.max(0, (m - re) / 2));
   if (im < 0) si = -si;
   // The principal root has Re ≥ 0; flip to the decaying branch when Im > 0 (evanescent, lossless).
   if (si > 0) { sr = -sr; si = -si; }
-  return { re: sr, im: si };
+  out.re = sr; out.im = si;
+  return out;
 }
 
 /** The weight a of the weak form: 1 for TE, 1/ε_r for TM. */
-export function formWeight(eps: Complex, pol: Polarization): Complex {
-  if (pol === 'TE') return { re: 1, im: 0 };
-  const d = eps.re * eps.re + eps.im * eps.im;
-  return { re: eps.re / d, im: -eps.im / d };
+export const formWeight = (eps: Complex, pol: Polarization): Complex => setFormWeight({ re: 0, im: 0 }, eps.re, eps.im, pol);
+
+/** formWeight written into `out` (no allocation). */
+export function setFormWeight(out: Complex, epsRe: number, epsIm: number, pol: Polarization): Complex {
+  if (pol === 'TE') { out.re = 1; out.im = 0; return out; }
+  const d = epsRe * epsRe + epsIm * epsIm;
+  out.re = epsRe / d; out.im = -epsIm / d;
+  return out;
 }

@@ -18,7 +18,8 @@ import { permittivity } from '../materials/permittivity.ts';
 import { ETA0_ohm } from '../units.ts';
 import { createCondenser } from './condense.ts';
 import type { Condenser } from './condense.ts';
-import { formWeight, freeSpaceWavenumber, normalWavenumber, tangentialWavenumber2 } from './media.ts';
+import { freeSpaceWavenumber, setFormWeight, setNormalWavenumber } from './media.ts';
+import type { Complex } from '../complex.ts';
 import type { FemMesh } from './mesh.ts';
 import type { Tridiagonal } from './tridiag.ts';
 import { clearTridiagonal, createTridiagonal, solveTridiagonal } from './tridiag.ts';
@@ -34,6 +35,8 @@ export interface FemSystem {
   aRe: Float64Array; aIm: Float64Array;
   /** Port quantities at the last solved frequency: k_z0 a_f and k_zb a_b (complex). */
   port: { kaRe: number; kaIm: number; backKaRe: number; backKaIm: number };
+  /** Scratch values reused every frequency. */
+  scratch: { a: Complex; kz: Complex };
 }
 
 export function createFemSystem(mesh: FemMesh): FemSystem {
@@ -44,21 +47,26 @@ export function createFemSystem(mesh: FemMesh): FemSystem {
     d0Re: f(nr), d0Im: f(nr), d1Re: f(nr), d1Im: f(nr), oRe: f(nr), oIm: f(nr),
     gRe: f(nr * m * 2), gIm: f(nr * m * 2), aRe: f(nr), aIm: f(nr),
     port: { kaRe: 0, kaIm: 0, backKaRe: 0, backKaIm: 0 },
+    scratch: { a: { re: 0, im: 0 }, kz: { re: 0, im: 0 } },
   };
 }
 
-/** Assembles and solves at f_Hz; the vertex values land in sys.tri.xRe / xIm. Incident wave: amplitude 1 at x = 0. */
+/** Assembles and solves at f_Hz; the vertex values land in sys.tri.xRe / xIm. Incident wave: amplitude 1 at x = 0.
+ *  Allocates nothing itself; `permittivity` returns one small {re, im} per region. */
 export function solveAt(sys: FemSystem, f_Hz: number): void {
   const { mesh, tri } = sys;
   const k0 = freeSpaceWavenumber(f_Hz);
-  const kt2 = tangentialWavenumber2(mesh.front, f_Hz, mesh.angle_rad);
+  const epsF = permittivity(mesh.front, f_Hz);
+  const s2 = Math.sin(mesh.angle_rad) ** 2;
+  const kt2Re = k0 * k0 * epsF.re * s2, kt2Im = k0 * k0 * epsF.im * s2; // k_t² = k0² ε_front sin²θ
   const m = mesh.order - 1;
+  const { a, kz } = sys.scratch;
 
   for (let r = 0; r < mesh.regions.length; r++) {
     const reg = mesh.regions[r];
     const eps = permittivity(reg.material, f_Hz);
-    const kzRe = k0 * k0 * eps.re - kt2.re, kzIm = k0 * k0 * eps.im - kt2.im; // k_z²
-    const a = formWeight(eps, mesh.polarization);
+    const kzRe = k0 * k0 * eps.re - kt2Re, kzIm = k0 * k0 * eps.im - kt2Im; // k_z²
+    setFormWeight(a, eps.re, eps.im, mesh.polarization);
     const h = reg.h_m;
     // α = a / h, β = a k_z² h
     const c = sys.condenser.condense(a.re / h, a.im / h, (a.re * kzRe - a.im * kzIm) * h, (a.re * kzIm + a.im * kzRe) * h);
@@ -85,22 +93,24 @@ export function solveAt(sys: FemSystem, f_Hz: number): void {
     for (const sh of mesh.sheets) dIm[sh.vertex] += (k0 * ETA0_ohm) / sh.ohm_per_sq;
 
   // Front port at vertex 0, position x_p.
-  const epsF = permittivity(mesh.front, f_Hz);
-  const kz0 = normalWavenumber(epsF, k0, kt2), aF = formWeight(epsF, mesh.polarization);
-  const kaRe = kz0.re * aF.re - kz0.im * aF.im, kaIm = kz0.re * aF.im + kz0.im * aF.re;
+  setNormalWavenumber(kz, epsF.re, epsF.im, k0, kt2Re, kt2Im);
+  setFormWeight(a, epsF.re, epsF.im, mesh.polarization);
+  const kaRe = kz.re * a.re - kz.im * a.im, kaIm = kz.re * a.im + kz.im * a.re;
+  const kz0Re = kz.re, kz0Im = kz.im;
   sys.port.kaRe = kaRe; sys.port.kaIm = kaIm;
   dRe[0] += -kaIm; dIm[0] += kaRe; // + j k_z0 a_f
   // u_inc(x_p) = e^{−j k_z0 x_p}
   const xp = mesh.vertexX[0];
-  const mag = Math.exp(kz0.im * xp), ph = -kz0.re * xp;
+  const mag = Math.exp(kz0Im * xp), ph = -kz0Re * xp;
   const uRe = mag * Math.cos(ph), uIm = mag * Math.sin(ph);
   // 2 j (k_z0 a_f) u_inc
   bRe[0] = -2 * (kaRe * uIm + kaIm * uRe); bIm[0] = 2 * (kaRe * uRe - kaIm * uIm);
 
   if (mesh.back) {
     const epsB = permittivity(mesh.back, f_Hz);
-    const kzb = normalWavenumber(epsB, k0, kt2), aB = formWeight(epsB, mesh.polarization);
-    const bkRe = kzb.re * aB.re - kzb.im * aB.im, bkIm = kzb.re * aB.im + kzb.im * aB.re;
+    setNormalWavenumber(kz, epsB.re, epsB.im, k0, kt2Re, kt2Im);
+    setFormWeight(a, epsB.re, epsB.im, mesh.polarization);
+    const bkRe = kz.re * a.re - kz.im * a.im, bkIm = kz.re * a.im + kz.im * a.re;
     sys.port.backKaRe = bkRe; sys.port.backKaIm = bkIm;
     dRe[n - 1] += -bkIm; dIm[n - 1] += bkRe;
   } else if (mesh.polarization === 'TE') {
