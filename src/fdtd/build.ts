@@ -130,3 +130,29 @@ export function buildGrids(plan: GridPlan, band_Hz: [number, number]): BuiltGrid
   aux.pml.push(pmlRegion(nodes.auxTotal - 1 - P, nodes.auxTotal - 1, grading(plan, effective.front, band_Hz)));
   return { main, aux, epsInf };
 }
+
+export interface UniformGridOptions {
+  courant: number;
+  dt_s: number;
+  /** Band the CPML is graded for. */
+  band_Hz: [number, number];
+  /** CPML cells at the near end (node 0 side) and at the far end; 0 leaves a bare conductor wall. */
+  pmlFront: number;
+  pmlBack: number;
+}
+
+/** A grid of n E nodes filled with one medium, walls at both ends, optional CPML at either end (bench, boundary tests). */
+export function uniformGrid(n: number, model: StepModel, o: UniformGridOptions): KernelState {
+  const s = emptyKernelState(n);
+  const media = placeMedia(n, 0, 1, o.dt_s, [{ x0: -Infinity, x1: Infinity, model }]);
+  fillCoefficients(s, media, o.courant, o.dt_s);
+  const fMid = (o.band_Hz[0] + o.band_Hz[1]) / 2;
+  const g = (cells: number): PmlGrading => ({
+    cells, order: PML_ORDER, sigmaFactor: PML_SIGMA_FACTOR,
+    alphaN: ALPHA_FRACTION * 2 * Math.PI * o.band_Hz[0] * o.dt_s,
+    n: refractiveIndex(stepModelPermittivity(model, fMid)), courant: o.courant,
+  });
+  if (o.pmlFront > 0) s.pml.push(pmlRegion(o.pmlFront, 0, g(o.pmlFront)));
+  if (o.pmlBack > 0) s.pml.push(pmlRegion(n - 1 - o.pmlBack, n - 1, g(o.pmlBack)));
+  return s;
+}

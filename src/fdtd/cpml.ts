@@ -30,8 +30,12 @@ function coeffs(rho: number, g: PmlGrading): [number, number] {
   return [b, c];
 }
 
-/** σ_max Δt / ε0 = 0.8 (m+1) n S · factor. */
-const PML_SIGMA_BASE = (g: PmlGrading): number => 0.8 * (g.order + 1) * g.n * g.courant * g.sigmaFactor;
+/**
+ * σ_max Δt / ε0 = 0.8 (m+1) S / n · factor. With σ normalized to ε0 (the stretch is
+ * s = 1 + σ/(α + jωε0) whatever fills the PML), the attenuation per metre is n η0 σ, so the
+ * profile that matches σ_opt in air is divided by the medium's index n.
+ */
+const PML_SIGMA_BASE = (g: PmlGrading): number => (0.8 * (g.order + 1) * g.courant * g.sigmaFactor) / g.n;
 
 /**
  * A PML whose outer wall is E node `wall` and whose inner face is E node `face` (σ = 0 there).
