@@ -8,11 +8,13 @@ import { check } from './commands/check.ts';
 import { materials } from './commands/materials.ts';
 import { solve } from './commands/solve.ts';
 import { converge } from './commands/converge.ts';
+import { run } from './commands/run.ts';
 
 export const COMMANDS: readonly Command[] = [
   check,
   materials,
   solve,
+  run,
   converge,
 ];
 

@@ -28,8 +28,6 @@ export interface RunReport extends Report {
   echoes: EchoColumns;
   /** t_ns, E_incident, E_reflected, E_transmitted at the reference planes, every time step. */
   trace: Column[];
-  /** The agreement rows added (also in summary.agreement). */
-  agreement: AgreementRow[];
   /** True when shouldStop ended the run early: every table is complete but the run is cut short. */
   stopped: boolean;
   /** Set when the pulse engine declined this stack (e.g. oblique incidence): solve's results only. */
@@ -63,7 +61,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
       summary.fdtd = { skipped: e.message };
       summary.warnings = warnings;
       progress(1);
-      return { ...base, summary, warnings, echoes: { columns: emptyEchoColumns(), path: [] }, trace: emptyTrace(), agreement: [], stopped: false, skipped: e.message };
+      return { ...base, summary, warnings, echoes: { columns: emptyEchoColumns(), path: [] }, trace: emptyTrace(), stopped: false, skipped: e.message };
     }
     throw e;
   }
@@ -113,7 +111,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   if (tmm) agreement.push(agreementRow('fdtd-tmm', fdtd, tmm, target));
   const fem = spectrumFromColumns(spectrum, 'fem', f_Hz);
   if (fem) agreement.push(agreementRow('fdtd-fem', fdtd, fem, target));
-  const prior = Array.isArray(summary.agreement) ? (summary.agreement as AgreementRow[]) : [];
+  const prior = Array.isArray(summary.agreement) ? (summary.agreement as AgreementRow[]) : base.agreement;
   summary.agreement = [...prior, ...agreement.map(roundRow)];
 
   methods.push({ name: 'fdtd', description: 'leapfrog FDTD pulse run (normal incidence)', time_ms: Math.round(run_ms * 1e3) / 1e3 });
@@ -157,7 +155,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const ech = echoColumns(echoes);
   if (ech.path.length > 0) assertTable(ech.columns);
   progress(1);
-  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement, stopped };
+  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: [...base.agreement, ...agreement], stopped };
 }
 
 function emptyEchoColumns(): Column[] {

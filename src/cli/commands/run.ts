@@ -1,0 +1,153 @@
+// slabecho run FILE --out DIR: everything `solve` writes plus the FDTD pulse results
+// (spectrum and profile columns, echoes.csv, trace.csv, grid/run/agreement in summary.json).
+//
+// Interruption (Ctrl-C): the run stops at the end of the current chunk of steps and nothing is written
+// (files already in DIR are left as they were); exit 130. All files are written atomically together.
+
+import { join } from 'node:path';
+import { FdtdInstabilityError, PlanError } from '../../fdtd/errors.ts';
+import type { PulseOptions } from '../../fdtd/types.ts';
+import { formatEchoesCsv } from '../../report/echo-table.ts';
+import { formatAgreement } from '../../report/format-agreement.ts';
+import { runReport, type RunReport } from '../../report/run.ts';
+import { formatCsv } from '../../report/table.ts';
+import { fmtGHz } from '../../stack/warnings.ts';
+import { CliError, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
+import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
+import { ensureDir, removeIfPresent, writeFilesAtomic } from '../io.ts';
+import { loadOrExplain } from './solve.ts';
+
+/** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
+export const EXIT_INTERRUPTED = 130;
+
+function positiveNumber(values: ParsedArgs['values'], name: string, check: (x: number) => boolean, rule: string): number | undefined {
+  const v = values[name];
+  if (typeof v !== 'string') return undefined;
+  const x = Number(v);
+  if (v.trim() === '' || !Number.isFinite(x) || !check(x)) throw new UsageError(`--${name}: ${rule} (got "${v}")`);
+  return x;
+}
+
+/** Pulse options from the command line; UsageError (exit 2) naming the option. */
+export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions {
+  const out: PulseOptions = {};
+  const acc = positiveNumber(values, 'accuracy', (x) => x > 0 && x < 1, 'must be a number between 0 and 1, e.g. 0.01');
+  if (acc !== undefined) out.accuracy = acc;
+  const cpw = positiveNumber(values, 'cells-per-wavelength', (x) => x >= 4, 'must be a number >= 4');
+  if (cpw !== undefined) out.cellsPerWavelength = cpw;
+  const s = positiveNumber(values, 'courant', (x) => x > 0 && x <= 1, 'must be a number in (0, 1]');
+  if (s !== undefined) out.courant = s;
+  return out;
+}
+
+/** Write every file of a run report into `dir` at once (atomically); returns the paths. */
+export function writeRunReport(dir: string, report: RunReport): string[] {
+  ensureDir(dir);
+  const files = [{ name: 'spectrum.csv', text: formatCsv(report.spectrum) }];
+  if (report.profile.length > 0) files.push({ name: 'profile.csv', text: formatCsv(report.profile) });
+  files.push({ name: 'echoes.csv', text: formatEchoesCsv(report.echoes) });
+  files.push({ name: 'trace.csv', text: traceCsv(report) });
+  files.push({ name: 'summary.json', text: `${JSON.stringify(report.summary, null, 2)}\n` });
+  const written = writeFilesAtomic(dir, files);
+  if (report.profile.length === 0) removeIfPresent(join(dir, 'profile.csv'));
+  return written;
+}
+
+/** trace.csv; header only when the pulse engine was skipped. */
+function traceCsv(report: RunReport): string {
+  if (report.trace[0].data.length === 0) return `${report.trace.map((c) => c.name).join(',')}\n`;
+  return formatCsv(report.trace);
+}
+
+/** Progress lines on stderr, the first after one second, then at most one a second. */
+function progressPrinter(io: Io): (f: number) => void {
+  const start = Date.now();
+  let last = 0;
+  return (f) => {
+    const t = Date.now();
+    if (t - start < 1000 || t - last < 1000) return;
+    last = t;
+    io.err(`run: ${Math.round(100 * f)} % (${((t - start) / 1000).toFixed(1)} s)`);
+  };
+}
+
+export const run: Command = {
+  name: 'run',
+  summary: 'FDTD pulse run beside the exact solution: spectra, echoes, traces into a directory',
+  usage: `Usage: slabecho run FILE --out DIR [options]
+
+Send a broadband pulse at the stack in FILE (leapfrog FDTD, normal incidence), and solve it exactly
+(and by FEM) at the same frequencies. Writes into DIR (created if needed), all files at once:
+  spectrum.csv   f_GHz, the exact and FEM columns, then R_fdtd_re,R_fdtd_im,T_fdtd_re,T_fdtd_im
+  profile.csv    x_mm, E_tmm_re,E_tmm_im, FEM columns, E_fdtd_re,E_fdtd_im at profile_GHz
+  echoes.csv     t_ns,level_dB,amplitude,predicted_t_ns,path: one row per echo; t_ns after the
+                 front-face echo (at 0), level relative to the incident pulse, path in plain words
+  trace.csv      t_ns,E_incident,E_reflected,E_transmitted: the time records at x = 0 and the back face
+  summary.json   as for solve, plus grid, run, pulse, echoes, power-law fits, agreement and timings
+At oblique incidence the pulse engine is skipped (warning): solve's results with empty echoes and trace.
+
+Options:
+  --out DIR                   output directory (required)
+  --accuracy X                target for max |R_fdtd - R_tmm| and |T_fdtd - T_tmm| (default 0.01)
+  --cells-per-wavelength N    fix the grid density at the band top in the slowest medium (overrides --accuracy)
+  --courant S                 Courant number c dt / dx (default 1 in an air front medium)
+${FEM_ARG_USAGE}
+  -h, --help                  show this help
+
+Ctrl-C stops the run cleanly: nothing is written (DIR keeps its previous files), exit 130.
+Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 instability or internal error.`,
+  async run(args, io) {
+    const a = readArgs(run, args, io, {
+      out: { type: 'string' },
+      accuracy: { type: 'string' },
+      'cells-per-wavelength': { type: 'string' },
+      courant: { type: 'string' },
+      ...FEM_ARG_OPTIONS,
+    }, [1, 1]);
+    if (a === null) return 0;
+    const out = a.values.out;
+    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho run --help)');
+    const pulse = pulseOptionsFromArgs(a.values);
+    const fem = femOptionsFromArgs(a.values);
+    const path = a.positionals[0];
+    const { stack, warnings } = loadOrExplain(path, io);
+
+    let interrupted = false;
+    const onSigint = () => { interrupted = true; };
+    process.once('SIGINT', onSigint);
+    let report: RunReport;
+    try {
+      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, onProgress: progressPrinter(io), shouldStop: () => interrupted });
+    } catch (e) {
+      if (e instanceof PlanError) {
+        const figures = Object.entries(e.figures).map(([k, v]) => `${k} ${Number(v.toPrecision(4))}`).join(', ');
+        throw new CliError(`${e.message}${figures ? ` [${figures}]` : ''}; nothing was written`, 2);
+      }
+      if (e instanceof FdtdInstabilityError) throw new CliError(`${e.message}; nothing was written`, 1);
+      throw e;
+    } finally {
+      process.removeListener('SIGINT', onSigint);
+    }
+    if (interrupted || report.stopped) {
+      io.err('slabecho run: stopped (Ctrl-C); nothing was written');
+      return EXIT_INTERRUPTED;
+    }
+    for (const w of report.warnings) io.err(`warning: ${w}`);
+    const written = writeRunReport(out, report);
+    io.out(`${stack.title}: ${stack.layers.length} layer${stack.layers.length === 1 ? '' : 's'}, ` +
+      `${fmtGHz(stack.band_Hz[0] / 1e9)}–${fmtGHz(stack.band_Hz[1] / 1e9)} GHz, ${stack.points} points`);
+    if (!report.skipped) {
+      const g = report.summary.grid as { cell_mm: number; time_step_ps: number; cells: number };
+      const r = report.summary.run as { steps: number; end: string; residual_energy_dB: number | null };
+      io.out(`FDTD: ${g.cells} cells of ${g.cell_mm} mm, ${r.steps} steps of ${g.time_step_ps} ps, ended ${r.end}` +
+        (r.residual_energy_dB !== null ? ` at ${r.residual_energy_dB} dB` : ''));
+      const e = report.echoes;
+      const t = e.columns[0].data, lv = e.columns[1].data;
+      io.out(`echoes: ${e.path.length}${e.path.length ? ': ' : ''}${e.path.slice(0, 4).map((p, i) => `${t[i].toFixed(3)} ns ${lv[i].toFixed(1)} dB ${p}`).join('; ')}${e.path.length > 4 ? '; …' : ''}`);
+    }
+    const table = formatAgreement(report.agreement);
+    if (table) io.out(table);
+    io.out(`wrote ${written.join(', ')}`);
+    return 0;
+  },
+};

@@ -1,0 +1,83 @@
+// The pulse pipeline end to end: FDTD spectra against the exact solution, the back-face echo delay,
+// no NaN anywhere, stopped and skipped runs.
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { runReport } from '../../src/report/run.ts';
+import { assertTable, findColumn } from '../../src/report/table.ts';
+import { parseStackText } from '../../src/stack/parse.ts';
+import type { Stack } from '../../src/stack/types.ts';
+import { dielectric, layer, makeStack } from '../support/build-stack.ts';
+
+const C0 = 299792458;
+
+function preset(name: string): Stack {
+  const r = parseStackText(readFileSync(`presets/${name}.stack.json`, 'utf8'));
+  if (!r.ok) throw new Error(r.errors.join('; '));
+  return r.stack;
+}
+
+function expectNoNaN(r: Awaited<ReturnType<typeof runReport>>) {
+  assertTable(r.spectrum);
+  if (r.profile.length) assertTable(r.profile);
+  assertTable(r.trace);
+  if (r.echoes.path.length) assertTable(r.echoes.columns);
+  expect(JSON.stringify(r.summary)).not.toMatch(/NaN|Infinity/);
+}
+
+type Row = { pair: string; R_max: number; T_max: number };
+const row = (r: Awaited<ReturnType<typeof runReport>>, pair: string): Row | undefined =>
+  (r.summary.agreement as Row[]).find((a) => a.pair === pair);
+
+describe('runReport', () => {
+  it('lossless slab: FDTD within 0.01 of the exact solution; back-face echo 2 d √ε\'/c after the front face', async () => {
+    // ε_r = 4, d = 50 mm in air, band 1–6 GHz. Closed forms (physics reference): front-face echo
+    // r = −1/3; back-face echo delay 2 d √ε'/c = 0.6671 ns, amplitude t01 r12 t10 = 8/27.
+    const d = 0.05;
+    const stack = makeStack({ band_GHz: [1, 6], points: 41, layers: [layer(dielectric(4, 0, 'slab'), d)] });
+    const r = await runReport(stack);
+    expectNoNaN(r);
+    const a = row(r, 'fdtd-tmm')!;
+    expect(a.R_max).toBeLessThanOrEqual(0.01);
+    expect(a.T_max).toBeLessThanOrEqual(0.01);
+    for (const c of ['R_fdtd_re', 'R_fdtd_im', 'T_fdtd_re', 'T_fdtd_im']) expect(findColumn(r.spectrum, c)).toBeDefined();
+    for (const c of ['E_fdtd_re', 'E_fdtd_im']) expect(findColumn(r.profile, c)).toBeDefined();
+    const t = r.echoes.columns[0].data, amp = r.echoes.columns[2].data;
+    expect(r.echoes.path.slice(0, 2)).toEqual(['front face', 'back face']);
+    expect(Math.abs(t[0])).toBeLessThan(2e-3); // ns
+    expect(Math.abs(t[1] - (2 * d * 2) / C0 * 1e9)).toBeLessThan(2e-3); // within 2 ps
+    expect(amp[0]).toBeCloseTo(-1 / 3, 2);
+    expect(amp[1]).toBeCloseTo(8 / 27, 2);
+    // profile: FDTD against exact, same grid
+    const e = (n: string) => findColumn(r.profile, n)!.data;
+    let worst = 0;
+    for (let i = 0; i < e('x_mm').length; i++) worst = Math.max(worst, Math.hypot(e('E_fdtd_re')[i] - e('E_tmm_re')[i], e('E_fdtd_im')[i] - e('E_tmm_im')[i]));
+    expect(worst).toBeLessThan(0.02);
+  });
+
+  it('Salisbury preset: no NaN, FDTD within 0.01 of the exact solution, conductor echo named', async () => {
+    const r = await runReport(preset('salisbury-absorber'));
+    expectNoNaN(r);
+    const a = row(r, 'fdtd-tmm')!;
+    expect(a.R_max).toBeLessThanOrEqual(0.01);
+    expect(r.echoes.path.some((p) => p.includes('conductor'))).toBe(true);
+    expect((r.summary.run as { truncated: boolean }).truncated).toBe(false);
+  });
+
+  it('a run stopped at once is marked stopped and still holds no NaN', async () => {
+    const stack = makeStack({ band_GHz: [1, 6], points: 11, layers: [layer(dielectric(4), 0.05)] });
+    const r = await runReport(stack, { shouldStop: () => true });
+    expect(r.stopped).toBe(true);
+    expect(r.warnings.some((w) => w.includes('stopped'))).toBe(true);
+    expectNoNaN(r);
+  });
+
+  it('oblique incidence: the pulse engine is skipped with a warning, solve results kept', async () => {
+    const stack = makeStack({ band_GHz: [1, 6], points: 11, angle_deg: 30, layers: [layer(dielectric(4), 0.05)] });
+    const r = await runReport(stack);
+    expect(r.skipped).toMatch(/normal incidence/);
+    expect(findColumn(r.spectrum, 'R_tmm_re')).toBeDefined();
+    expect(findColumn(r.spectrum, 'R_fdtd_re')).toBeUndefined();
+    expect(r.trace[0].data.length).toBe(0);
+    expect(r.echoes.path.length).toBe(0);
+  });
+});
