@@ -9,6 +9,7 @@ import { materials } from './commands/materials.ts';
 import { solve } from './commands/solve.ts';
 import { converge } from './commands/converge.ts';
 import { run } from './commands/run.ts';
+import { bench } from './commands/bench.ts';
 
 export const COMMANDS: readonly Command[] = [
   check,
@@ -16,6 +17,7 @@ export const COMMANDS: readonly Command[] = [
   solve,
   run,
   converge,
+  bench,
 ];
 
 function topHelp(): string {

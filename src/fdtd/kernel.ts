@@ -64,8 +64,14 @@ export interface KernelState {
 
 /** H half step: hⁿ⁺¹ᐟ² from hⁿ⁻¹ᐟ² and eⁿ. */
 export function updateH(s: KernelState): void {
-  const e = s.e, h = s.h, db = s.db, m = s.n - 1;
-  for (let i = 0; i < m; i++) h[i] += db[i] * (e[i + 1] - e[i]);
+  const e = s.e, h = s.h, db = s.db, m = h.length;
+  // e[i] is carried in a register from the previous iteration (one load per cell instead of two).
+  let left = e[0];
+  for (let i = 0; i < m; i++) {
+    const right = e[i + 1];
+    h[i] += db[i] * (right - left);
+    left = right;
+  }
   const pml = s.pml;
   for (let r = 0; r < pml.length; r++) {
     const p = pml[r], bh = p.bh, ch = p.ch, psi = p.psiH, lo = p.hLo, hi = p.hHi;
@@ -81,10 +87,15 @@ export function updateH(s: KernelState): void {
 
 /** E step: eⁿ⁺¹ from eⁿ and hⁿ⁺¹ᐟ². */
 export function updateE(s: KernelState): void {
-  const e = s.e, h = s.h, ca = s.ca, cb = s.cb, m = s.n - 1;
+  const e = s.e, h = s.h, ca = s.ca, cb = s.cb, m = h.length;
   const d = s.disp;
   if (d !== null) dispersivePre(d, e);
-  for (let i = 1; i < m; i++) e[i] = ca[i] * e[i] + cb[i] * (h[i] - h[i - 1]);
+  let hl = h[0];
+  for (let i = 1; i < m; i++) {
+    const hr = h[i];
+    e[i] = ca[i] * e[i] + cb[i] * (hr - hl);
+    hl = hr;
+  }
   const pml = s.pml;
   for (let r = 0; r < pml.length; r++) {
     const p = pml[r], be = p.be, ce = p.ce, psi = p.psiE, lo = p.eLo, hi = p.eHi;
