@@ -123,3 +123,23 @@ describe('pulse run vs the exact solution', () => {
     expect(Math.max(mags[0], mags[80])).toBeGreaterThan(0.2);
   });
 });
+
+describe('power-law materials (ITU-R P.2040-3 Table 3, concrete and glass rows)', () => {
+  const concrete = material('concrete', { model: 'power-law', a: 5.24, b: 0, c: 0.0462, d: 0.7822 });
+  const glass = material('glass', { model: 'power-law', a: 6.31, b: 0, c: 0.0036, d: 1.3394 });
+  it('the run matches the exact solution of the fitted model within the target; the fit error adds on top', async () => {
+    const { solveEffective } = await import('../../src/fdtd/stepped-exact.ts');
+    for (const [stack, band] of [
+      [stackOf([bulk(concrete, 60)], { band_GHz: [8, 12] }), 'narrow'],
+      [stackOf([bulk(glass, 6), bulk(air, 12), bulk(glass, 6)], { band_GHz: [1, 6] }), 'wide'],
+    ] as const) {
+      const { run, f, got, err } = runAndCompare(stack);
+      const own = maxDiff(got, solveEffective(run.plan.effective, f));
+      expect(own.R, band).toBeLessThan(run.plan.accuracyTarget);
+      expect(own.T, band).toBeLessThan(run.plan.accuracyTarget);
+      expect(run.plan.fits.length).toBe(1);
+      // End to end (includes the fit's residue of the non-causal power law).
+      expect(err.R, band).toBeLessThan(run.plan.accuracyTarget + 2 * run.plan.fits[0].maxRelErr_abs);
+    }
+  });
+});
