@@ -24,13 +24,15 @@ export interface PowerLawFit {
 }
 
 /** Broad resonances at these multiples of the fit's top frequency (Q = 1). */
-const OSC_ABOVE = [1.5, 2.2];
+const OSC_ABOVE = [1.2, 1.5, 2.2, 3];
+/** Quality factors of those resonances. */
+const OSC_Q = [0.5, 1, 2];
 /** Drude-like terms with collision rates at these multiples of the fit's bottom frequency. */
-const DRUDE_BELOW = [0.05, 0.2, 0.6];
+const DRUDE_BELOW = [0.05, 0.2, 0.6, 0.9];
 /** The fit covers the band widened by this factor at each end. */
 const FIT_MARGIN = 1.02;
 /** Rounds of minimax reweighting after the first least-squares fit. */
-const REWEIGHT_ROUNDS = 12;
+const REWEIGHT_ROUNDS = 16;
 /** Evaluation points of the error report. */
 const CHECK_POINTS = 201;
 
@@ -48,7 +50,7 @@ export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], materi
   // fall), which a power law with constant ε' and falling ε'' needs: broad resonances above the band
   // and Drude-like terms (ω0 = 0) with collision rates below it. All passive, all stable.
   const osc: { w0sq: number; gamma: number }[] = [];
-  for (const k of OSC_ABOVE) { const w0 = 2 * Math.PI * hi * k; osc.push({ w0sq: w0 * w0, gamma: w0 }); }
+  for (const k of OSC_ABOVE) for (const q of OSC_Q) { const w0 = 2 * Math.PI * hi * k; osc.push({ w0sq: w0 * w0, gamma: w0 / q }); }
   for (const k of DRUDE_BELOW) osc.push({ w0sq: 0, gamma: 2 * Math.PI * lo * k });
   const nOsc = osc.length;
   const nf = 80;

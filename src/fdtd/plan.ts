@@ -31,6 +31,9 @@ export const DEFAULT_MAX_WORK = 3e10;
 const DISPERSION_SHARE = 0.5;
 /** Cells between the front PML and the TF/SF plane (the scattered-field probe sits in the middle). */
 const SF_CELLS = 4;
+/** Sheets are put within this fraction of a cell of a node when a grid up to SHEET_ALIGN_RANGE× finer allows. */
+const SHEET_ALIGN_TOL = 0.02;
+const SHEET_ALIGN_RANGE = 3;
 /** Frequencies sampled across the band for the slowest medium and the worst phase error. */
 const BAND_SAMPLES = 33;
 /** Per-round-trip amplitude retention is capped here when estimating bounces (keeps factors finite). */
@@ -145,10 +148,26 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   }
 
   const thickness = effective.thickness_m;
+  // Sheets inside the stack: a resistive sheet is exact on an E node and only approximate between
+  // two (its current is shared), so among slightly finer grids pick one that puts them on nodes.
+  const innerSheets = effective.sheets.map((sh) => sh.x_m).filter((x) => x > 0 && x < thickness);
+  const misalignment = (cells: number): number => {
+    let worst = 0;
+    for (const x of innerSheets) { const u = (x / thickness) * cells; worst = Math.max(worst, Math.abs(u - Math.round(u))); }
+    return worst;
+  };
   const cellsFor = (N: number): { dx: number; stackCells: number } => {
     const target = lambdaMin / N;
     if (thickness <= 0) return { dx: target, stackCells: 0 };
-    const stackCells = Math.max(1, Math.ceil(thickness / target - 1e-9));
+    let stackCells = Math.max(1, Math.ceil(thickness / target - 1e-9));
+    if (innerSheets.length > 0) {
+      let best = stackCells, bestMis = misalignment(stackCells);
+      for (let c = stackCells + 1; c <= Math.ceil(stackCells * SHEET_ALIGN_RANGE) && bestMis > SHEET_ALIGN_TOL; c++) {
+        const m = misalignment(c);
+        if (m < bestMis - 1e-12) { best = c; bestMis = m; }
+      }
+      stackCells = best;
+    }
     return { dx: thickness / stackCells, stackCells };
   };
   const phaseErrors = (dx: number): number[] => {
@@ -259,6 +278,11 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
       bounceFactor: bounce[i],
     };
   });
+  if (innerSheets.length > 0 && misalignment(stackCells) > 0.05) {
+    warnings.push(
+      `a resistive sheet lies ${misalignment(stackCells).toFixed(2)} of a cell off the nearest grid node (no grid up to ${SHEET_ALIGN_RANGE}× finer puts every sheet on a node); its current is shared between two nodes, which may cost accuracy for low-resistance sheets.`,
+    );
+  }
   if (predictedError > accuracy) {
     warnings.push(
       `predicted grid-dispersion error ${predictedError.toPrecision(2)} exceeds the accuracy target ${accuracy} at ${N.toFixed(1)} cells per wavelength; raise the cells per wavelength.`,

@@ -109,6 +109,15 @@ describe('pulse run vs the exact solution', () => {
     expect(err.T).toBeLessThan(run.plan.accuracyTarget);
   });
 
+  it('a low-resistance sheet between glass and air at an awkward depth (the planner puts it on a node)', () => {
+    const stack = stackOf([bulk(fixed(6.3), 4.13), sheet(12), bulk(air, 16.7), bulk(fixed(6.3), 4.07)], { band_GHz: [0.7, 6] });
+    const { err, run } = runAndCompare(stack);
+    const u = 4.13e-3 / run.plan.dx_m;
+    expect(Math.abs(u - Math.round(u))).toBeLessThan(0.05);
+    expect(err.R).toBeLessThan(run.plan.accuracyTarget);
+    expect(err.T).toBeLessThan(run.plan.accuracyTarget);
+  });
+
   it('Salisbury screen: η0 sheet a quarter wavelength (at 5 GHz) before a conductor nulls R there', () => {
     const f0 = 5e9, d = C0_m_per_s / f0 / 4;
     const stack = stackOf([sheet(ETA0_ohm), bulk(air, d * 1e3)], { back: 'pec', band_GHz: [2, 8] });
