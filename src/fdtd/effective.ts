@@ -30,13 +30,15 @@ export function resolveStack(stack: Stack): Resolved {
   const warnings: string[] = [];
   const band = stack.band_Hz;
   const cache = new Map<string, StepModel>();
+  const thicknessOf = (name: string): number =>
+    stack.layers.reduce((d, l) => d + (l.kind === 'bulk' && l.material.name === name ? l.thickness_m : 0), 0);
   const modelOf = (mat: BulkMaterial): StepModel => {
     const spec = mat.spec;
     if (spec.model !== 'power-law') return stepModelOf(spec);
     const key = `${mat.name}|${spec.a}|${spec.b}|${spec.c}|${spec.d}`;
     const hit = cache.get(key);
     if (hit) return hit;
-    const fit = fitPowerLaw(spec, band, mat.name);
+    const fit = fitPowerLaw(spec, band, mat.name, thicknessOf(mat.name));
     fits.push(fit);
     cache.set(key, fit.model);
     return fit.model;
@@ -51,6 +53,7 @@ export function resolveStack(stack: Stack): Resolved {
   let x = 0;
   let ended = false;
   let previous = front;
+  let conductors = 0;
   for (let i = 0; i < stack.layers.length && !ended; i++) {
     const layer = stack.layers[i];
     const label = `layers[${i}] ${layer.material.name}`;
@@ -67,6 +70,7 @@ export function resolveStack(stack: Stack): Resolved {
           `${label}: a conductor ${(d / delta).toFixed(0)} skin depths thick at the band bottom; the pulse engine treats it as a perfect conductor at its front face (x = ${(x * 1e3).toFixed(3)} mm): layers behind it are not simulated and T = 0.`,
         );
         ended = true;
+        conductors++;
         break;
       }
       const sigma = effectiveConductivity(spec, band[0]);
@@ -75,6 +79,7 @@ export function resolveStack(stack: Stack): Resolved {
         `${label}: a conductive film ${(d * 1e6).toFixed(2)} µm thick (${kd.toFixed(2)} skin depths at the band top); the pulse engine treats it as a resistive sheet of ${(1 / (sigma * d)).toPrecision(3)} Ω/sq at its centre (thin-film approximation, error of order (d/δ)² = ${(kd * kd).toPrecision(2)}).`,
       );
       sheets.push({ x_m: x + d / 2, conductance_S: sigma * d, label });
+      conductors++;
       segments.push({ x0_m: x, x1_m: x + d, model: previous, label: `${label} (film filled with its neighbour)` });
       x += d;
       continue;
@@ -89,14 +94,16 @@ export function resolveStack(stack: Stack): Resolved {
     else if (isConductor(stack.back.spec, band)) {
       warnings.push(`back: "${stack.back.name}" is a conductor; the pulse engine treats it as a perfect conductor at the back face.`);
       back = 'pec';
+      conductors++;
     } else back = modelOf(stack.back);
   }
   for (const f of fits) {
     if (f.maxRelErr_abs > 0.005) {
       warnings.push(
-        `material "${f.material}": the power law is stepped as a fitted causal model; worst error over the band ${(100 * f.maxRelErr_re).toFixed(2)} % in ε', ${(100 * f.maxRelErr_im).toFixed(2)} % in ε'' (the power law itself is not causal, so no time-domain model matches it exactly).`,
+        `material "${f.material}": the power law is stepped as a fitted causal model; worst error over the band ${(100 * f.maxRelErr_abs).toFixed(2)} % in |ε| (${(100 * f.maxRelErr_re).toFixed(2)} % in ε', ${(100 * f.maxRelErr_im).toFixed(2)} % in ε''), weighted toward what the stack's response is sensitive to; the agreement rows 'as stepped' separate this from the engine's own error (the power law itself is not causal, so no time-domain model matches it exactly).`,
       );
     }
   }
-  return { effective: { front, segments, sheets, back, thickness_m: x }, fits, warnings };
+  const substitutions = fits.length + conductors;
+  return { effective: { front, segments, sheets, back, thickness_m: x, substitutions }, fits, warnings };
 }

@@ -5,7 +5,7 @@
 
 import type { PowerLawModel } from '../materials/types.ts';
 import { permittivity } from '../materials/permittivity.ts';
-import { EPS0_F_per_m } from '../units.ts';
+import { C0_m_per_s, EPS0_F_per_m } from '../units.ts';
 import type { StepModel } from './media.ts';
 import { stepModelPermittivity } from './media.ts';
 import { nnls } from './nnls.ts';
@@ -36,7 +36,12 @@ const REWEIGHT_ROUNDS = 16;
 /** Evaluation points of the error report. */
 const CHECK_POINTS = 201;
 
-export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], material = 'power-law'): PowerLawFit {
+/**
+ * @param thickness_m total thickness of this material in the stack (0 for a half-space): the fit then
+ *   weights each frequency by the phase the material accumulates there, so the error it leaves in a
+ *   thick wall's transmission is spread evenly over the band instead of piling up at the top.
+ */
+export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', thickness_m = 0): PowerLawFit {
   const [f1, f2] = band_Hz;
   // Fit slightly beyond the band: the pulse carries some energy there too.
   const lo = f1 / FIT_MARGIN, hi = f2 * FIT_MARGIN;
@@ -61,8 +66,11 @@ export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], materi
     const f = lo * Math.pow(hi / lo, i / (nf - 1)), w = 2 * Math.PI * f;
     const e = permittivity(pl, f);
     const er = e.re, ei = -e.im; // ε', ε''
-    const wr = 1 / Math.max(er, 1e-6);
-    const wi = 1 / Math.max(ei, 1e-3 * er, 1e-9);
+    // Both parts weighted alike by 1/|ε| (a relative error in the complex ε, which is what sets the
+    // face's reflection) times 1 + ½ k0 n d (the phase a relative error in ε adds across the layer).
+    const g = 1 + (Math.PI * f * Math.sqrt(Math.max(er, 1)) * thickness_m) / C0_m_per_s;
+    const wr = g / Math.max(Math.hypot(er, ei), 1e-6);
+    const wi = wr;
     const r = 2 * i, s = 2 * i + 1;
     A[r * n + 0] = wr; b[r] = (er - 1) * wr;
     A[s * n + 1] = wi / (w * EPS0_F_per_m); b[s] = ei * wi;

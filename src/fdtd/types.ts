@@ -83,6 +83,8 @@ export interface EffectiveStack {
   back: StepModel | 'pec';
   /** Back face of the gridded stack (the conductor's face when a metal layer ends it). */
   thickness_m: number;
+  /** Media the engine steps in place of what the stack names (fitted power laws, conductors as walls or sheets). */
+  substitutions: number;
 }
 
 export interface GridPlan {
