@@ -2,10 +2,11 @@
 // file, and a PNG of each view. Tables come from the core unchanged; only the text is made here.
 
 import { formatCsv, type Column } from '../report/table.ts';
+import { formatEchoesCsv } from '../report/echo-table.ts';
 import type { StackFile } from '../stack/file.ts';
 import type { Solved } from './engine.ts';
 import type { WireColumn, WireReport } from './protocol.ts';
-import { canvasPng, downloadBlob, downloadText, safeName } from './download.ts';
+import { canvasPng, downloadBlob as saveBlob, downloadText as saveText, safeName } from './download.ts';
 
 export interface ExportInput {
   title: string;
@@ -16,9 +17,15 @@ export interface ExportInput {
   canvases: Array<[string, HTMLCanvasElement]>;
 }
 
+/** Pause between downloads: browsers may drop some of a rapid burst of downloads from one page. */
+const GAP_MS = 150;
+const pause = (): Promise<void> => new Promise((ok) => setTimeout(ok, GAP_MS));
+
 /** Download everything; returns notes on anything left out. */
 export async function exportAll(input: ExportInput): Promise<string[]> {
   const notes: string[] = [];
+  const downloadText = async (name: string, text: string, type: string): Promise<void> => { await pause(); saveText(name, text, type); };
+  const downloadBlob = async (name: string, blob: Blob): Promise<void> => { await pause(); saveBlob(name, blob); };
   const r = input.report;
   const tables: Array<[string, readonly WireColumn[] | null | undefined]> = [
     ['spectrum.csv', r?.spectrum ?? input.solved?.spectrum],
@@ -30,15 +37,16 @@ export async function exportAll(input: ExportInput): Promise<string[]> {
   for (const [name, t] of tables) {
     if (t === null || t === undefined || t.length === 0) continue;
     try {
-      downloadText(name, tableCsv(t), 'text/csv');
+      await downloadText(name, tableCsv(t), 'text/csv');
     } catch (e) {
       notes.push(`${name}: ${e instanceof Error ? e.message : String(e)}`);
     }
   }
-  downloadText(`${safeName(input.title)}.stack.json`, `${JSON.stringify(input.file, null, 2)}\n`, 'application/json');
+  if (r !== null) await downloadText('summary.json', `${JSON.stringify(r.summary, null, 2)}\n`, 'application/json');
+  await downloadText(`${safeName(input.title)}.stack.json`, `${JSON.stringify(input.file, null, 2)}\n`, 'application/json');
   for (const [name, canvas] of input.canvases) {
     try {
-      downloadBlob(`${name}.png`, await canvasPng(canvas));
+      await downloadBlob(`${name}.png`, await canvasPng(canvas));
     } catch (e) {
       notes.push(`${name}.png: ${e instanceof Error ? e.message : String(e)}`);
     }
@@ -46,19 +54,12 @@ export async function exportAll(input: ExportInput): Promise<string[]> {
   return notes;
 }
 
-/** CSV of a table; numeric tables go through the core formatter, a text column is quoted per RFC 4180. */
+/** CSV text of a wire table, through the same core formatters the CLI uses. */
 export function tableCsv(t: readonly WireColumn[]): string {
-  if (t.every((c) => c.data instanceof Float64Array)) return formatCsv(t as Column[]);
-  const numeric = t.map((c) => ({ name: c.name, data: c.data instanceof Float64Array ? c.data : new Float64Array(c.data.length) }));
-  const lines = formatCsv(numeric).split('\n');
-  const header = t.map((c) => c.name).join(',');
-  const out = [header];
-  for (let i = 1; i < lines.length - 1; i++) {
-    const cells = lines[i].split(',');
-    t.forEach((c, j) => { if (Array.isArray(c.data)) cells[j] = quote(c.data[i - 1]); });
-    out.push(cells.join(','));
-  }
-  return `${out.join('\n')}\n`;
+  const path = t.find((c) => c.name === 'path');
+  const numeric = t.filter((c): c is Column => c.data instanceof Float64Array);
+  if (path !== undefined && Array.isArray(path.data)) return formatEchoesCsv({ columns: numeric, path: path.data });
+  // A table with no rows (the pulse engine skipped this stack): the header alone, as the CLI writes it.
+  if (numeric.length > 0 && numeric[0].data.length === 0) return `${numeric.map((c) => c.name).join(',')}\n`;
+  return formatCsv(numeric);
 }
-
-const quote = (s: string): string => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);

@@ -5,6 +5,8 @@
 import type { Stack } from '../stack/types.ts';
 import type { PulseOptions, PulseRun } from '../fdtd/types.ts';
 import { createPulseRun } from '../fdtd/run.ts';
+import { runReport } from '../report/run.ts';
+import { copyTable } from './tables.ts';
 import type { FieldFrame, PulseGeometry, RunSettings, WireReport } from './protocol.ts';
 
 let run: PulseRun | null = null;
@@ -87,8 +89,27 @@ export function rewindPulse(): FieldFrame {
   return frameOf(run, null);
 }
 
+/** The full pulse-run report (the one `slabecho run` writes), as wire tables. */
 export async function fullReport(
-  _stack: Stack, _warnings: string[], _settings: RunSettings, _progress: (fraction: number, note: string) => void,
+  stack: Stack, inputWarnings: string[], settings: RunSettings, progress: (fraction: number, note: string) => void,
 ): Promise<Omit<WireReport, 'ms'>> {
-  throw new Error('the pulse engine is not available in this build');
+  let last = -1;
+  const rep = await runReport(stack, {
+    inputWarnings,
+    pulse: pulseOptions(settings),
+    onProgress: (f) => {
+      const t = performance.now();
+      if (t - last < 100 && f < 1) return;
+      last = t;
+      progress(f, f < 0.1 ? 'exact and FEM' : f < 0.95 ? `FDTD ${Math.round(((f - 0.1) / 0.85) * 100)} %` : 'spectra and echoes');
+    },
+  });
+  return {
+    spectrum: copyTable(rep.spectrum),
+    profile: copyTable(rep.profile),
+    echoes: [...copyTable(rep.echoes.columns), { name: 'path', data: [...rep.echoes.path] }],
+    trace: copyTable(rep.trace),
+    summary: rep.summary,
+    warnings: [...rep.warnings],
+  };
 }
