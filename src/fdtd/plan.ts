@@ -16,6 +16,7 @@ import { C0_m_per_s, ETA0_ohm } from '../units.ts';
 import type { Stack } from '../stack/types.ts';
 import { PlanError } from './errors.ts';
 import { resolveStack } from './effective.ts';
+import { atIncidence } from './oblique.ts';
 import { yeePhaseErrorPerMetre } from './dispersion.ts';
 import { type StepModel, extinctionIndex, refractiveIndex, stepModelPermittivity } from './media.ts';
 import { pulseForBand } from './pulse.ts';
@@ -78,13 +79,6 @@ export function stabilityCap(media: StepModel[], dx: number, courant: number): n
 export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   const band = stack.band_Hz;
   if (!(band[0] > 0 && band[1] > band[0])) throw new PlanError('band: must satisfy 0 < min < max', 'bad-input');
-  if (Math.abs(stack.incidence.angle_rad) > 1e-9) {
-    throw new PlanError(
-      'incidence: the pulse engine models normal incidence only; use the exact solver or the FEM for oblique angles',
-      'unsupported',
-      { angle_deg: (stack.incidence.angle_rad * 180) / Math.PI },
-    );
-  }
   const accuracy = options.accuracy ?? DEFAULT_ACCURACY;
   if (!(accuracy > 0)) throw new PlanError('accuracy: must be > 0', 'bad-input');
   const pmlCells = Math.round(options.pmlCells ?? DEFAULT_PML_CELLS);
@@ -94,7 +88,9 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   const maxCells = options.maxCells ?? DEFAULT_MAX_CELLS;
   const maxWork = options.maxWork ?? DEFAULT_MAX_WORK;
 
-  const { effective, fits, warnings } = resolveStack(stack);
+  const resolved = resolveStack(stack);
+  const { fits, warnings } = resolved;
+  const effective = atIncidence(resolved.effective, stack.incidence);
   const freqs = sampleBand(band);
   const fTop = band[1], fMid = (band[0] + band[1]) / 2;
   const media: StepModel[] = [effective.front, ...effective.segments.map((s) => s.model)];

@@ -123,7 +123,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const prior = Array.isArray(summary.agreement) ? (summary.agreement as AgreementRow[]) : base.agreement;
   summary.agreement = [...prior, ...agreement.map(roundRow)];
 
-  methods.push({ name: 'fdtd', description: 'leapfrog FDTD pulse run (normal incidence)', time_ms: Math.round(run_ms * 1e3) / 1e3 });
+  methods.push({ name: 'fdtd', description: stack.incidence.angle_rad === 0 ? 'leapfrog FDTD pulse run (normal incidence)' : `leapfrog FDTD pulse run (${stack.incidence.polarization} at ${r6(degFromRad(stack.incidence.angle_rad))}°, as normal incidence on ε_r − ε_front sin²θ)`, time_ms: Math.round(run_ms * 1e3) / 1e3 });
   summary.methods = methods;
   summary.grid = gridSummary(run.plan);
   const energy = run.energy();

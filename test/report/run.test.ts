@@ -71,10 +71,11 @@ describe('runReport', () => {
     expectNoNaN(r);
   });
 
-  it('oblique incidence: the pulse engine is skipped with a warning, solve results kept', async () => {
-    const stack = makeStack({ band_GHz: [1, 6], points: 11, angle_deg: 30, layers: [layer(dielectric(4), 0.05)] });
+  it('oblique TM incidence: the pulse engine is skipped with a warning, solve results kept', async () => {
+    const stack = makeStack({ band_GHz: [1, 6], points: 11, angle_deg: 30, polarization: 'TM', layers: [layer(dielectric(4), 0.05)] });
     const r = await runReport(stack);
-    expect(r.skipped).toMatch(/normal incidence/);
+    expect(r.skipped).toMatch(/TE only/);
+    expect(r.warnings.join('\n')).toMatch(/FDTD skipped/);
     expect(findColumn(r.spectrum, 'R_tmm_re')).toBeDefined();
     expect(findColumn(r.spectrum, 'R_fdtd_re')).toBeUndefined();
     expect(r.trace[0].data.length).toBe(0);
