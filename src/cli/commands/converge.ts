@@ -23,7 +23,7 @@ Solve the stack in FILE at a sequence of resolutions and print, for each, the la
 theory predicts (FEM: 2p for Lagrange order p; FDTD: 2). Shows how much resolution a result needs.
 
 Options:
-  --method M      fem (default) or fdtd (normal incidence only)
+  --method M      fem (default) or fdtd (normal incidence or TE at an angle)
   --fem-order P   study one FEM order (1, 2 or 3) instead of all three
   -h, --help      show this help
 
@@ -47,7 +47,13 @@ Exit: 0 done, 2 invalid stack or usage, 1 internal error.`,
       return 0;
     }
     try {
-      io.out(formatStudy(fdtdStudy(stack, ref), 'cells/λ'));
+      const study = fdtdStudy(stack, ref);
+      if (study.modelFloor) {
+        io.out(`media stepped as fitted causal models (power laws) or substitutes (metal): errors below are against the exact\n` +
+          `solution of the stepped media; that solution differs from the stack's own by max|dR| ${study.modelFloor.R.toExponential(2)}, ` +
+          `max|dT| ${study.modelFloor.T.toExponential(2)}, a floor no grid removes`);
+      }
+      io.out(formatStudy(study.rows, 'cells/λ'));
     } catch (e) {
       if (e instanceof PlanError) throw new InputError(`fdtd: ${e.message}`);
       throw e;
