@@ -38,8 +38,9 @@ export class Controls {
     title: '', front: 'air', back: 'air', fmin: 1, fmax: 10, points: 501,
     angle: 0, polarization: 'TE', profile: 5,
   };
-  private readonly view = { accuracy: 'engine default', spectrum: 'magnitude' as SpectrumMode, xUnit: 'mm', lambda: 5, envelope: false, speed: 4 };
+  private readonly view = { accuracy: 'engine default', spectrum: 'magnitude' as SpectrumMode, xUnit: 'mm', lambda: 5, envelope: false, speed: 4, autoSpeed: true };
   private stackControllers: Controller[] = [];
+  private speedController: Controller | null = null;
 
   constructor(container: HTMLElement, private readonly host: ControlHost) {
     this.gui = new GUI({ container, title: 'Parameters', injectStyles: false, autoPlace: false });
@@ -61,6 +62,12 @@ export class Controls {
     this.gui.controllers.forEach((c) => c.updateDisplay());
     this.buildStack();
     this.buildLayers();
+  }
+
+  /** Show a speed the page chose (auto speed). */
+  showSpeed(n: number): void {
+    this.view.speed = n;
+    this.speedController?.updateDisplay();
   }
 
   private materialNames(kind: 'any' | 'bulk'): string[] {
@@ -177,10 +184,18 @@ export class Controls {
       host.settingsChanged('accuracy');
     }), 'accuracy');
     this.view.speed = s.speed;
-    tag(folder.add(this.view, 'speed', 1, 200, 1).name('steps per frame').onChange((n: number) => {
-      s.speed = Math.max(1, Math.round(n));
+    this.view.autoSpeed = s.autoSpeed;
+    const auto = folder.add(this.view, 'autoSpeed').name('speed from the grid').onChange((on: boolean) => {
+      s.autoSpeed = on;
       host.settingsChanged('speed');
-    }), 'speed');
+    });
+    tag(auto, 'auto-speed');
+    this.speedController = folder.add(this.view, 'speed', 1, 200, 1).name('steps per frame').onChange((n: number) => {
+      s.speed = Math.max(1, Math.round(n));
+      if (s.autoSpeed) { s.autoSpeed = false; this.view.autoSpeed = false; auto.updateDisplay(); }
+      host.settingsChanged('speed');
+    });
+    tag(this.speedController, 'speed');
     const traces = folder.addFolder('Traces in the field view');
     for (const name of TRACE_NAMES) {
       tag(traces.add(s.traces, name).name(name).onChange(() => host.settingsChanged('traces')), `trace-${name}`);

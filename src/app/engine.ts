@@ -1,7 +1,8 @@
-// Page side of the worker protocol. Two workers from the same script:
-// - live: exact + FEM solves (latest edit wins; at most one in flight) and the steppable pulse run;
-// - batch: the full pulse run with spectra and echoes; cancelling terminates it (a long synchronous
-//   run cannot read messages), and the next run starts a fresh one.
+// Page side of the worker protocol. Three workers from the same script:
+// - solver: exact + FEM solves (latest edit wins; at most one in flight), never queued behind a run;
+// - live: the steppable pulse run the field view animates;
+// - batch: the full pulse run with spectra and echoes; cancelling terminates it, and the next run
+//   starts a fresh one.
 
 import type { FieldFrame, FromWorker, PulseGeometry, RunSettings, ToWorker, WireColumn, WireReport } from './protocol.ts';
 import { transferablesOf } from './protocol.ts';
@@ -22,6 +23,7 @@ export interface EngineEvents {
 const spawn = (): Worker => new Worker(new URL('./worker.ts', import.meta.url), { type: 'module', name: 'slabecho-engine' });
 
 export class Engine {
+  private readonly solver: Worker;
   private readonly live: Worker;
   private batch: Worker | null = null;
   private nextId = 1;
@@ -35,9 +37,12 @@ export class Engine {
   private spare: FieldFrame | null = null;
 
   constructor(private readonly on: EngineEvents) {
+    this.solver = spawn();
+    this.solver.onmessage = (e: MessageEvent<FromWorker>) => this.fromLive(e.data);
+    this.solver.onerror = (e) => { e.preventDefault(); this.on.solveFailed([`engine worker: ${e.message || 'failed to start'}`], 0); };
     this.live = spawn();
     this.live.onmessage = (e: MessageEvent<FromWorker>) => this.fromLive(e.data);
-    this.live.onerror = (e) => { e.preventDefault(); this.on.solveFailed([`engine worker: ${e.message || 'failed to start'}`], 0); };
+    this.live.onerror = (e) => { e.preventDefault(); this.on.pulseFailed([`engine worker: ${e.message || 'failed to start'}`], 0); };
   }
 
   /** Solve exact + FEM for this file; returns the request id. Only the latest queued request runs. */
@@ -45,7 +50,7 @@ export class Engine {
     const id = this.nextId++;
     if (this.solveInFlight) { this.solveQueued = { file, id }; return id; }
     this.solveInFlight = true;
-    this.post(this.live, { kind: 'solve', id, file });
+    this.post(this.solver, { kind: 'solve', id, file });
     return id;
   }
 
@@ -114,7 +119,7 @@ export class Engine {
           this.solveInFlight = false;
           const q = this.solveQueued;
           this.solveQueued = null;
-          if (q !== null) { this.solveInFlight = true; this.post(this.live, { kind: 'solve', id: q.id, file: q.file }); }
+          if (q !== null) { this.solveInFlight = true; this.post(this.solver, { kind: 'solve', id: q.id, file: q.file }); }
           // A newer request is on its way: this answer is already stale.
           if (q !== null) return;
           if (m.kind === 'solved') this.on.solved(m); else this.on.solveFailed(m.messages, m.id);

@@ -128,7 +128,11 @@ export class FieldView {
 
   private xRange(): [number, number] {
     const g = this.geometry;
-    if (g !== null && g.x_m.length > 1) return [this.toPlot(g.x_m[0]), this.toPlot(g.x_m[g.x_m.length - 1])];
+    if (g !== null && g.x_m.length > 1) {
+      const a = this.toPlot(g.x_m[0]), b = this.toPlot(g.x_m[g.x_m.length - 1]);
+      // Behind a conductor the grid ends at its face: leave room to draw the conductor.
+      return [a, this.sketch?.pec === true ? b + 0.06 * (b - a) : b];
+    }
     const d = this.sketch?.thickness_m ?? 0.1;
     return [this.toPlot(-0.5 * d - 0.05), this.toPlot(1.5 * d + 0.05)];
   }

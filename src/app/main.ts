@@ -14,7 +14,7 @@ import { DEFAULT_PRESET, PRESETS, presetFile } from './presets.ts';
 import type { FieldFrame, PulseGeometry, WireReport } from './protocol.ts';
 import { ClipRecorder } from './recorder.ts';
 import { downloadBlob, safeName } from './download.ts';
-import { readSettings, type Settings } from './settings.ts';
+import { autoStepsPerFrame, readSettings, type Settings } from './settings.ts';
 import { sketchStack, type StackSketch } from './sketch.ts';
 import { Messages } from './messages.ts';
 import { adoptGuiStyles } from './guiStyles.ts';
@@ -119,6 +119,7 @@ class Workbench implements ControlHost {
 
   /** ControlHost: validate a change to the stack file; apply it when valid. */
   edit(change: (f: StackFile) => void): boolean {
+    const t0 = performance.now();
     const draft = JSON.parse(JSON.stringify(this.file)) as StackFile;
     change(draft);
     const r = parseStackObject(draft);
@@ -128,6 +129,7 @@ class Workbench implements ControlHost {
     }
     this.messages.clear('edit');
     this.apply(r.file, r.stack, r.warnings);
+    this.editStart = t0;
     return true;
   }
 
@@ -214,7 +216,9 @@ class Workbench implements ControlHost {
     const pending = this.engine.reporting ? 'FDTD: pulse run in progress' : rep === null ? 'FDTD: no finished pulse run for this stack' : '';
     const s = this.solved;
     this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], this.settings.spectrumMode, pending);
-    this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending);
+    const oblique = this.file.incidence.angle_deg !== 0;
+    this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending,
+      oblique ? 'the standing-wave profile is computed at normal incidence only' : s === null ? 'solving…' : 'no profile');
   }
 
   private drawTraceView(): void {
@@ -251,6 +255,10 @@ class Workbench implements ControlHost {
 
   private onPulseReady(g: PulseGeometry): void {
     this.geometry = g;
+    if (this.settings.autoSpeed) {
+      this.settings.speed = autoStepsPerFrame(g.cells, g.courant);
+      this.controls.showSpeed(this.settings.speed);
+    }
     this.messages.clear('pulse');
     this.field.setGeometry(g);
     this.field.render();
@@ -371,6 +379,11 @@ class Workbench implements ControlHost {
     if (topic === 'spectrum') { this.drawFrequencyViews(); return; }
     if (topic === 'trace') { this.drawTraceView(); return; }
     if (topic === 'accuracy') { this.restartPulse(0); return; }
+    if (topic === 'speed' && this.settings.autoSpeed && this.geometry !== null) {
+      this.settings.speed = autoStepsPerFrame(this.geometry.cells, this.geometry.courant);
+      this.controls.showSpeed(this.settings.speed);
+      storeSettings(this.settings);
+    }
   }
 
   private fieldOptions(): FieldViewOptions {

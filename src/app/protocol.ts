@@ -1,8 +1,8 @@
 // Messages between the page and the engine worker (src/app/worker.ts). Typed arrays travel as
 // transferables: the page hands its frame buffers back with each `advance` so no frame allocates.
 //
-// The page runs two workers from the same script: a "live" one (exact + FEM solves on every edit,
-// and the steppable pulse run the field view animates) and a "batch" one (the full pulse run with
+// The page runs three workers from the same script: a "solver" (exact + FEM on every edit), a "live"
+// one (the steppable pulse run the field view animates) and a "batch" one (the full pulse run with
 // spectra and echoes, which shows progress and is cancelled by terminating that worker).
 
 /** A table column on the wire: numbers, or text (the echo table's path names). */

@@ -7,6 +7,8 @@ export type SpectrumMode = 'magnitude' | 'phase' | 'group delay';
 export interface Settings {
   /** Steps of the pulse run per animation frame. */
   speed: number;
+  /** Pick `speed` from the grid so the pulse crosses the view in a few seconds. */
+  autoSpeed: boolean;
   traces: Record<TraceName, boolean>;
   xUnit: 'mm' | 'wavelengths';
   /** Frequency at which positions are given in wavelengths, GHz. */
@@ -20,6 +22,7 @@ export interface Settings {
 
 export const DEFAULT_SETTINGS: Settings = {
   speed: 10,
+  autoSpeed: true,
   traces: { total: true, incident: false, reflected: true, transmitted: true },
   xUnit: 'mm',
   lambda_GHz: 5,
@@ -36,6 +39,7 @@ export function readSettings(value: unknown): Settings {
   const num = (x: unknown, lo: number, hi: number): number | undefined =>
     typeof x === 'number' && Number.isFinite(x) && x >= lo && x <= hi ? x : undefined;
   s.speed = Math.round(num(v.speed, 1, 1000) ?? s.speed);
+  if (typeof v.autoSpeed === 'boolean') s.autoSpeed = v.autoSpeed;
   if (v.traces !== null && typeof v.traces === 'object') {
     const t = v.traces as Record<string, unknown>;
     for (const k of Object.keys(s.traces) as TraceName[]) if (typeof t[k] === 'boolean') s.traces[k] = t[k];
@@ -46,4 +50,10 @@ export function readSettings(value: unknown): Settings {
   if (typeof v.envelope === 'boolean') s.envelope = v.envelope;
   s.accuracy = v.accuracy === null ? null : num(v.accuracy, 1e-4, 0.5) ?? s.accuracy;
   return s;
+}
+
+/** Steps per frame that carry the pulse across `cells` grid cells in about `seconds` at 60 frames/s. */
+export function autoStepsPerFrame(cells: number, courant: number, seconds = 4): number {
+  const steps = cells / Math.max(0.05, courant);
+  return Math.max(1, Math.min(200, Math.round(steps / (60 * seconds))));
 }

@@ -12,7 +12,7 @@ export class ProfileView {
   readonly chart: Chart;
   constructor(host: HTMLElement) { this.chart = new Chart(host, 460); }
 
-  show(tables: Array<readonly WireColumn[] | null>, sketch: StackSketch | null, f_GHz: number, note: string): void {
+  show(tables: Array<readonly WireColumn[] | null>, sketch: StackSketch | null, f_GHz: number, note: string, empty = 'solving…'): void {
     const absE: ChartSeries[] = [], phase: ChartSeries[] = [];
     const seen = new Set<string>();
     let xMin = Infinity, xMax = -Infinity;
@@ -51,7 +51,7 @@ export class ProfileView {
         { yLabel: '|E| / E₀', series: absE, bands, markers },
         { yLabel: 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8 },
       ],
-      empty: 'solving…',
+      empty,
     });
   }
 }
