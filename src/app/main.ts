@@ -90,7 +90,7 @@ class Workbench implements ControlHost {
       solveFailed: (m) => this.messages.show('solve', 'error', 'The exact/FEM solve failed', m),
       pulseReady: (g) => this.onPulseReady(g),
       frame: (f) => { if (this.pendingFrame !== null) this.engine.recycle(this.pendingFrame); this.pendingFrame = f; },
-      pulseFailed: (m) => { this.messages.show('pulse', 'error', 'The pulse run could not start', m); this.setPlaying(false); },
+      pulseFailed: (m) => { this.messages.show('pulse', 'warn', 'No pulse animation for this stack:', m); this.setPlaying(false); },
       progress: (fr, note) => this.onProgress(fr, note),
       report: (r, id) => this.onReport(r, id),
       reportFailed: (m) => this.onReportFailed(m),
@@ -223,7 +223,8 @@ class Workbench implements ControlHost {
 
   private drawTraceView(): void {
     const rep = this.reportCurrent();
-    const note = rep !== null ? '' : this.engine.reporting ? 'pulse run in progress…' : 'no finished pulse run for this stack';
+    const note = rep !== null ? (rep.trace[0]?.data.length === 0 ? 'the pulse engine did not run for this stack (see the warnings)' : '')
+      : this.engine.reporting ? 'pulse run in progress…' : 'no finished pulse run for this stack';
     this.trace.show(rep?.trace ?? null, rep?.echoes ?? null, this.settings.envelope, note);
   }
 

@@ -202,6 +202,24 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await expect(page.locator('[data-testid="stack-title"]').textContent()).resolves.toBe(titleBefore);
   });
 
+  it('edits the stack: adds, reorders and removes layers, and the exact/FEM views follow', async () => {
+    const layerCount = (): Promise<number> => page.locator('[data-testid$="-material"][data-testid^="layer-"]').count();
+    const n0 = await layerCount();
+    const v0 = (await stats()).version;
+    await page.click('[data-testid="layer-add"] button');
+    await expect.poll(layerCount).toBe(n0 + 1);
+    await page.locator(`[data-testid="layer-${n0}-material"] select`).selectOption('concrete');
+    await page.click(`[data-testid="layer-${n0}-up"] button`);
+    await expect.poll(() => page.locator(`[data-testid="layer-${n0 - 1}-material"] select`).inputValue()).toBe('concrete');
+    await page.waitForFunction((v) => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return s.version >= v + 3 && s.solvedVersion === s.version;
+    }, v0);
+    await page.click(`[data-testid="layer-${n0 - 1}-remove"] button`);
+    await expect.poll(layerCount).toBe(n0);
+    await expect.poll(() => page.locator(`[data-testid="layer-${n0 - 1}-material"] select`).inputValue()).not.toBe('concrete');
+  });
+
   it('keeps an edit across a reload', async () => {
     const input = page.locator('[data-testid="layer-0-thickness"] input');
     await input.fill('123.5');
