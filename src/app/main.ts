@@ -75,6 +75,8 @@ class Workbench implements ControlHost {
   private recorder: ClipRecorder | null = null;
   private editStart: number | null = null;
   private restartTimer = 0;
+  /** False once the user cancelled the full run for this stack. */
+  private reportWanted = true;
   readonly stats: WorkbenchStats = {
     fieldRenders: 0, renderer: '', lastEditToUpdate_ms: null, lastSolve_ms: null, version: 0,
     solvedVersion: -1, reportVersion: -1, step: 0, playing: false, recording: false,
@@ -234,6 +236,7 @@ class Workbench implements ControlHost {
   private restartPulse(delay_ms: number): void {
     clearTimeout(this.restartTimer);
     this.engine.cancelReport();
+    this.reportWanted = true;
     this.setRunStatus('running', 0, 'waiting for edits to settle');
     this.drawTraceView();
     this.restartTimer = window.setTimeout(() => {
@@ -242,11 +245,22 @@ class Workbench implements ControlHost {
       this.frame = null;
       this.field.setGeometry(null);
       this.engine.pulse(this.file, settings);
-      this.startReport();
+      if (this.reportWanted) this.startReport();
     }, delay_ms);
   }
 
+  /** Cancel the full run (running, or about to start); the animation is not affected. */
+  private cancelReport(): void {
+    const wasRunning = this.engine.cancelReport();
+    if (!wasRunning && !this.reportWanted) return;
+    this.reportWanted = false;
+    this.setRunStatus('cancelled', 0, 'cancelled');
+    this.drawTraceView();
+    this.drawFrequencyViews();
+  }
+
   private startReport(): void {
+    this.reportWanted = true;
     this.reportRequestVersion = this.version;
     this.engine.report(this.file, { accuracy: this.settings.accuracy });
     this.setRunStatus('running', 0, 'starting');
@@ -270,6 +284,7 @@ class Workbench implements ControlHost {
   }
 
   private onReport(r: WireReport, _id: number): void {
+    this.reportWanted = false;
     this.report = r;
     this.reportVersion = this.reportRequestVersion;
     this.stats.reportVersion = this.reportVersion;
@@ -409,13 +424,7 @@ class Workbench implements ControlHost {
       }
       void f.text().then((t) => this.importText(f.name, t));
     });
-    $('run-cancel').addEventListener('click', () => {
-      if (this.engine.cancelReport()) {
-        this.setRunStatus('cancelled', 0, 'cancelled');
-        this.drawTraceView();
-        this.drawFrequencyViews();
-      }
-    });
+    $('run-cancel').addEventListener('click', () => this.cancelReport());
     $('run-start').addEventListener('click', () => this.startReport());
     const about = $<HTMLDialogElement>('about');
     $('about-open').addEventListener('click', () => about.showModal());
@@ -423,12 +432,18 @@ class Workbench implements ControlHost {
   }
 
   private wireKeys(): void {
-    window.addEventListener('keydown', (e) => {
+    const typing = (e: KeyboardEvent): boolean => {
       const t = e.target as HTMLElement | null;
-      if (t !== null && (t.closest('input, select, textarea, [contenteditable="true"]') !== null)) return;
-      if (e.key === ' ' || e.code === 'Space') { e.preventDefault(); this.togglePlay(); }
+      return t !== null && t.closest('input, select, textarea, dialog, [contenteditable="true"]') !== null;
+    };
+    const isSpace = (e: KeyboardEvent): boolean => e.key === ' ' || e.code === 'Space';
+    window.addEventListener('keydown', (e) => {
+      if (typing(e) || e.altKey || e.ctrlKey || e.metaKey) return;
+      if (isSpace(e)) { e.preventDefault(); if (!e.repeat) this.togglePlay(); }
       else if (e.key === 'ArrowRight') { e.preventDefault(); this.stepOnce(); }
     });
+    // Space on a focused button would also click it on key-up: space always means play/pause here.
+    window.addEventListener('keyup', (e) => { if (isSpace(e) && !typing(e)) e.preventDefault(); });
   }
 
   private async exportNow(): Promise<void> {

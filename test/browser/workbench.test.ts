@@ -220,6 +220,17 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await expect.poll(() => page.locator(`[data-testid="layer-${n0 - 1}-material"] select`).inputValue()).not.toBe('concrete');
   });
 
+  it('cancels the background pulse run and starts it again', async () => {
+    const state = (): Promise<string | null> => page.locator('[data-testid="run-status"]').getAttribute('data-state');
+    await page.locator('[data-testid="preset"] select').selectOption('meeting-room-partition');
+    await page.click('[data-testid="run-cancel"]');
+    expect(await state()).toBe('cancelled');
+    await page.waitForTimeout(1000);
+    expect(await state()).toBe('cancelled');
+    await page.click('[data-testid="run-start"]');
+    await page.waitForSelector('[data-testid="run-status"][data-state="done"]', { timeout: 120_000 });
+  });
+
   it('keeps an edit across a reload', async () => {
     const input = page.locator('[data-testid="layer-0-thickness"] input');
     await input.fill('123.5');
