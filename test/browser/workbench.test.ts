@@ -101,6 +101,11 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(site.log.some((r) => r.path.endsWith('/favicon.svg') && r.status === 200)).toBe(true);
     expect(outside).toEqual([]);
     expect(consoleProblems).toEqual([]);
+    // The about panel carries the cautions.
+    await page.click('[data-testid="about-open"]');
+    await expect(page.locator('[data-testid="about"]').textContent()).resolves.toMatch(/licensed professional practice/);
+    await page.click('[data-testid="about-close"]');
+    expect(await page.locator('[data-testid="about"]').isVisible()).toBe(false);
   });
 
   it('animates the field view while playing (pixels differ between two moments)', async () => {
