@@ -43,8 +43,10 @@ async function editTimes(page: Page, preset: string, edits: number): Promise<{ p
   await page.locator('[data-testid="preset"] select').selectOption(preset);
   await page.waitForFunction(() => { const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats; return s.solvedVersion === s.version; });
   await page.waitForTimeout(500);
-  const hasLayer = await page.locator('[data-testid="layer-0-thickness"] input').count() > 0;
-  const input = hasLayer ? page.locator('[data-testid="layer-0-thickness"] input') : page.locator('[data-testid="angle"] input').last();
+  const thickness = page.locator('[data-testid^="layer-"][data-testid$="-thickness"] input').first();
+  const hasLayer = await thickness.count() > 0;
+  const which = hasLayer ? await page.locator('[data-testid^="layer-"][data-testid$="-thickness"]').first().getAttribute('data-testid') : null;
+  const input = hasLayer ? thickness : page.locator('[data-testid="angle"] input').last();
   const base = Number(await input.inputValue());
   const times: number[] = [], solves: number[] = [];
   for (let k = 1; k <= edits; k++) {
@@ -61,7 +63,8 @@ async function editTimes(page: Page, preset: string, edits: number): Promise<{ p
     solves.push(s.lastSolve_ms ?? NaN);
     await page.waitForTimeout(400);
   }
-  return { preset, edit: hasLayer ? 'layer 1 thickness' : 'incidence angle', times_ms: times, solve_ms: solves };
+  const layerNo = which === null ? 0 : Number(/layer-(\d+)-/.exec(which)?.[1] ?? 0) + 1;
+  return { preset, edit: hasLayer ? `layer ${layerNo} thickness` : 'incidence angle', times_ms: times, solve_ms: solves };
 }
 
 async function main(): Promise<void> {
