@@ -4,6 +4,7 @@
 
 import type { Stack } from '../stack/types.ts';
 import type { PulseOptions, PulseRun } from '../fdtd/types.ts';
+import { leadInSteps } from '../fdtd/pulse.ts';
 import { createPulseRun } from '../fdtd/run.ts';
 import { runReport } from '../report/run.ts';
 import { copyTable } from './tables.ts';
@@ -17,8 +18,11 @@ let incident = new Float64Array(0);
 export const pulseOptions = (settings: RunSettings): PulseOptions =>
   (settings.accuracy !== null ? { accuracy: settings.accuracy } : {});
 
+/** A fresh animated run, advanced through the quiet lead-in so play shows the pulse at once. */
 function create(stack: Stack, settings: RunSettings): PulseRun {
-  return createPulseRun(stack, pulseOptions(settings));
+  const r = createPulseRun(stack, pulseOptions(settings));
+  r.step(leadInSteps(r.plan.pulse, r.plan.dt_s));
+  return r;
 }
 
 export function startPulse(stack: Stack, settings: RunSettings): PulseGeometry {
@@ -64,9 +68,10 @@ function frameOf(r: PulseRun, recycle: FieldFrame | null): FieldFrame {
   const pec = runStack?.back === 'pec';
   for (let i = 0; i < n; i++) {
     const g = grid[i], inc = incident[i];
-    // In front of the TF/SF plane the grid holds the scattered (reflected) field only.
+    // In front of the TF/SF plane the grid holds the scattered (reflected) field only; the incident
+    // wave is born at the source node, so in front of that there is no total field to show.
     const total = i < nodes.tfsf ? g + inc : g;
-    f.total[i] = total;
+    f.total[i] = i < nodes.auxOffset ? NaN : total;
     f.incident[i] = inc;
     f.reflected[i] = i <= nodes.front ? total - inc : NaN;
     f.transmitted[i] = !pec && i >= nodes.back ? total : NaN;

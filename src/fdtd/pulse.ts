@@ -51,3 +51,16 @@ export function pulseSpectrumRelative(p: PulseShape, f_Hz: number): number {
   const a = Math.PI * p.tau_s;
   return Math.abs(Math.exp(-((a * (f_Hz - p.f0_Hz)) ** 2)) - Math.exp(-((a * (f_Hz + p.f0_Hz)) ** 2)));
 }
+
+/** Envelope level (relative to its peak) at which the pulse is said to begin, for display. */
+const VISIBLE_ENVELOPE = 1e-3;
+
+/**
+ * Whole time steps before the pulse's envelope at the source rises to 1e−3 of its peak: nothing
+ * visible happens on the grid before then, so an animation may start there (the run's time and
+ * step count stay true).
+ */
+export function leadInSteps(p: PulseShape, dt_s: number): number {
+  const t = p.t0_s - p.tau_s * Math.sqrt(-Math.log(VISIBLE_ENVELOPE));
+  return Math.max(0, Math.floor(t / dt_s));
+}
