@@ -4,10 +4,11 @@
 // - batch: the full pulse run with spectra and echoes; cancelling terminates it, and the next run
 //   starts a fresh one.
 
+import type { AgreementRow } from '../report/format-agreement.ts';
 import type { FieldFrame, FromWorker, PulseGeometry, RunSettings, ToWorker, WireColumn, WireReport } from './protocol.ts';
 import { transferablesOf } from './protocol.ts';
 
-export interface Solved { id: number; spectrum: WireColumn[]; profile: WireColumn[]; warnings: string[]; ms: number }
+export interface Solved { id: number; spectrum: WireColumn[]; profile: WireColumn[]; agreement: AgreementRow[]; warnings: string[]; ms: number }
 
 export interface EngineEvents {
   solved(s: Solved): void;

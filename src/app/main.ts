@@ -21,6 +21,8 @@ import { adoptGuiStyles } from './guiStyles.ts';
 import { SpectrumView } from './views/spectrumView.ts';
 import { ProfileView } from './views/profileView.ts';
 import { TraceView } from './views/traceView.ts';
+import { AgreementView } from './views/agreementView.ts';
+import type { AgreementRow } from '../report/format-agreement.ts';
 
 /** Figures the browser tests and the benchmark read. */
 export interface WorkbenchStats {
@@ -59,6 +61,7 @@ class Workbench implements ControlHost {
   private readonly spectrum = new SpectrumView($('spectrum-view'));
   private readonly profile = new ProfileView($('profile-view'));
   private readonly trace = new TraceView($('trace-view'));
+  private readonly agreement = new AgreementView($('agreement'));
   private field!: FieldView;
   private controls!: Controls;
   private version = 0;
@@ -221,6 +224,9 @@ class Workbench implements ControlHost {
     const oblique = this.file.incidence.angle_deg !== 0;
     this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending,
       oblique ? 'the standing-wave profile is computed at normal incidence only' : s === null ? 'solving…' : 'no profile');
+    // The full run's rows include the exact/FEM row; until it is there, show the solve's own.
+    const fromRun = (rep?.summary as { agreement?: AgreementRow[] } | undefined)?.agreement;
+    this.agreement.show(fromRun ?? s?.agreement ?? [], pending);
   }
 
   private drawTraceView(): void {

@@ -5,6 +5,8 @@
 // one (the steppable pulse run the field view animates) and a "batch" one (the full pulse run with
 // spectra and echoes, which shows progress and is cancelled by terminating that worker).
 
+import type { AgreementRow } from '../report/format-agreement.ts';
+
 /** A table column on the wire: numbers, or text (the echo table's path names). */
 export interface WireColumn {
   name: string;
@@ -68,7 +70,7 @@ export type ToWorker =
   | { kind: 'report'; id: number; file: unknown; settings: RunSettings };
 
 export type FromWorker =
-  | { kind: 'solved'; id: number; spectrum: WireColumn[]; profile: WireColumn[]; warnings: string[]; ms: number }
+  | { kind: 'solved'; id: number; spectrum: WireColumn[]; profile: WireColumn[]; agreement: AgreementRow[]; warnings: string[]; ms: number }
   | { kind: 'pulse-ready'; id: number; geometry: PulseGeometry }
   | { kind: 'frame'; id: number; frame: FieldFrame }
   | { kind: 'progress'; id: number; fraction: number; note: string }

@@ -35,7 +35,7 @@ function handle(m: ToWorker): void | Promise<void> {
       try {
         const t0 = now();
         const rep = solveReport(r.stack, { inputWarnings: r.warnings });
-        send({ kind: 'solved', id: m.id, spectrum: copyTable(rep.spectrum), profile: copyTable(rep.profile), warnings: rep.warnings, ms: now() - t0 });
+        send({ kind: 'solved', id: m.id, spectrum: copyTable(rep.spectrum), profile: copyTable(rep.profile), agreement: rep.agreement, warnings: rep.warnings, ms: now() - t0 });
       } catch (e) {
         send({ kind: 'failed', id: m.id, stage: 'solve', messages: messagesOf(e) });
       }

@@ -100,7 +100,9 @@ export function resolveStack(stack: Stack): Resolved {
   for (const f of fits) {
     if (f.maxRelErr_abs > 0.005) {
       warnings.push(
-        `material "${f.material}": the power law is stepped as a fitted causal model; worst error over the band ${(100 * f.maxRelErr_abs).toFixed(2)} % in |ε| (${(100 * f.maxRelErr_re).toFixed(2)} % in ε', ${(100 * f.maxRelErr_im).toFixed(2)} % in ε''), weighted toward what the stack's response is sensitive to; the agreement rows 'as stepped' separate this from the engine's own error (the power law itself is not causal, so no time-domain model matches it exactly).`,
+        `material "${f.material}": stepped by the pulse engine as a fitted causal model (a power law is not causal); ` +
+        `worst error over the band ${(100 * f.maxRelErr_abs).toFixed(2)} % in |ε| (${(100 * f.maxRelErr_re).toFixed(2)} % in ε', ` +
+        `${(100 * f.maxRelErr_im).toFixed(2)} % in ε''). The agreement row "stepped media vs tmm" shows what this does to R and T.`,
       );
     }
   }

@@ -148,6 +148,10 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
   it('exports the CLI\'s tables (same columns, same numbers), the stack file, the summary and a PNG per view', async () => {
     await page.waitForFunction(() => ['done', 'failed'].includes(document.querySelector<HTMLElement>('[data-testid="run-status"]')?.dataset.state ?? ''), undefined, { timeout: 150_000 });
     await expect(page.locator('[data-testid="run-status"]').getAttribute('data-state')).resolves.toBe('done');
+    // The page says how far the three methods agree, with the targets (the figures come from the report).
+    const agreement = await page.locator('[data-testid="agreement"]').textContent();
+    expect(agreement).toMatch(/FEM vs exact.*met/s);
+    expect(agreement).toMatch(/FDTD vs exact/);
     const files = await downloadsOf(() => page.click('[data-testid="export"]'), 10);
     const byName = new Map<string, Buffer>();
     for (const d of files) byName.set(d.suggestedFilename(), await saved(d));
