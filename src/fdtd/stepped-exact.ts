@@ -3,22 +3,16 @@
 // isolates the engine's own error (grid, boundaries, truncation) from the fit's; comparing with the
 // exact solution of the original stack gives the end-to-end figure.
 
-import { type Complex, scale, sqrt } from '../complex.ts';
 import { type Spectrum, emptySpectrum } from '../results.ts';
-import type { Region, StackAtFrequency } from '../tmm/media.ts';
+import { type Region, type StackAtFrequency, regionOf } from '../tmm/media.ts';
 import { solveAt } from '../tmm/recursion.ts';
-import { C0_m_per_s, MU0_H_per_m } from '../units.ts';
 import { type StepModel, stepModelPermittivity } from './media.ts';
 import type { EffectiveStack } from './types.ts';
 
-function region(m: StepModel, thickness_m: number, f_Hz: number): Region {
-  const w = 2 * Math.PI * f_Hz;
-  const eps: Complex = stepModelPermittivity(m, f_Hz);
-  let q = sqrt(eps);
-  if (q.im > 0 || (q.im === 0 && q.re < 0)) q = scale(q, -1);
-  const kx = scale(q, w / C0_m_per_s);
-  return { eps, kx, Y: scale(kx, 1 / (w * MU0_H_per_m)), thickness_m };
-}
+const NORMAL = { re: 0, im: 0 };
+/** A stepped medium as a region of the exact solver (normal incidence: oblique TE is already folded into ε). */
+const region = (m: StepModel, thickness_m: number, f_Hz: number): Region =>
+  regionOf(stepModelPermittivity(m, f_Hz), thickness_m, f_Hz, NORMAL, 'TE');
 
 /** Normal-incidence R and T of the effective stack at each frequency. */
 export function solveEffective(eff: EffectiveStack, f_Hz: Float64Array): Spectrum {

@@ -34,10 +34,13 @@ export interface StackAtFrequency {
   interface_m: Float64Array;
 }
 
-function region(material: BulkMaterial, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region {
+/**
+ * A region of relative permittivity `eps` at f_Hz, for a transverse wavenumber with (k_t/k0)² =
+ * kt2_over_k02 (zero at normal incidence).
+ */
+export function regionOf(eps: Complex, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region {
   const w = 2 * Math.PI * f_Hz;
   const k0 = w / C0_m_per_s;
-  const eps = permittivity(material.spec, f_Hz);
   let q = sqrt(sub(eps, kt2_over_k02)); // k_x / k0
   if (q.im > 0 || (q.im === 0 && q.re < 0)) q = scale(q, -1);
   const kx = scale(q, k0);
@@ -46,6 +49,9 @@ function region(material: BulkMaterial, thickness_m: number, f_Hz: number, kt2_o
     : div(scale(eps, w * EPS0_F_per_m), kx);
   return { eps, kx, Y, thickness_m };
 }
+
+const region = (material: BulkMaterial, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region =>
+  regionOf(permittivity(material.spec, f_Hz), thickness_m, f_Hz, kt2_over_k02, pol);
 
 /** Evaluates every region of the stack at f_Hz for the stack's incidence. */
 export function stackAtFrequency(stack: Stack, f_Hz: number): StackAtFrequency {
