@@ -82,6 +82,22 @@ export interface ParsedArgs {
   positionals: string[];
 }
 
+/** A plain decimal number as typed on a command line: 12, -0.5, .5, 1e-3 (no hex, no blanks, no "Infinity"). */
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+
+/**
+ * The value of a numeric option, or undefined when it was not given. A text that is not a finite decimal
+ * number, or one `ok` refuses, is a UsageError naming the option: `--courant: must be a number in (0, 1] (got "2")`.
+ */
+export function numberOption(values: ParsedArgs['values'], name: string, rule: string,
+  ok: (x: number) => boolean = () => true): number | undefined {
+  const text = values[name];
+  if (typeof text !== 'string') return undefined;
+  const x = DECIMAL.test(text.trim()) ? Number(text) : Number.NaN;
+  if (!Number.isFinite(x) || !ok(x)) throw new UsageError(`--${name}: ${rule} (got "${text}")`);
+  return x;
+}
+
 /** node's parseArgs messages are long; keep the part a user needs. */
 function describeArgError(e: unknown): string {
   const msg = e instanceof Error ? e.message : String(e);

@@ -51,6 +51,28 @@ describe('top level', () => {
       expect(u.err).toHaveLength(1);
     }
   });
+  it('numeric options take plain decimal numbers only: one line naming the option, exit 2', async () => {
+    const f = file(wall), out = join(tmp.dir, 'never-written');
+    const cases: [string[], string][] = [
+      [['materials', '--at-GHz', '0x10'], '--at-GHz'],
+      [['materials', '--at-GHz', 'Infinity'], '--at-GHz'],
+      [['solve', f, '--out', out, '--fem-density', ' '], '--fem-density'],
+      [['solve', f, '--out', out, '--fem-order', '2.5'], '--fem-order'],
+      [['run', f, '--out', out, '--courant', '0b1'], '--courant'],
+      [['run', f, '--out', out, '--accuracy', '1e-2x'], '--accuracy'],
+      [['converge', f, '--fem-order', '4'], '--fem-order'],
+      [['bench', '--steps', '1e3.5'], '--steps'],
+    ];
+    for (const [args, option] of cases) {
+      const r = await cli(...args);
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.err, args.join(' ')).toHaveLength(1);
+      expect(r.stderr).toMatch(new RegExp(`^slabecho \\w+: ${option}: must be `));
+    }
+    expect(existsSync(out)).toBe(false);
+    // Exponent notation is a plain decimal: 1e1 GHz is 10 GHz.
+    expect((await cli('materials', '--at-GHz', '1e1', '--json')).code).toBe(0);
+  });
   it('an unexpected exception is one line and exit 1, no stack trace', async () => {
     const out: string[] = [], err: string[] = [];
     const code = await runCommand({

@@ -9,16 +9,14 @@ import { solveFem } from '../../fem/solve.ts';
 import type { Stack } from '../../stack/types.ts';
 import { loadStackFile } from '../io.ts';
 import type { Command } from '../command.ts';
-import { readArgs, UsageError } from '../command.ts';
+import { numberOption, readArgs, type ParsedArgs } from '../command.ts';
 
 const DEFAULT_CELLS = 200_000;
 const DEFAULT_STEPS = 5_000;
 
-function positiveInt(name: string, text: string | undefined, fallback: number, max: number): number {
-  if (text === undefined) return fallback;
-  const v = Number(text);
-  if (!Number.isInteger(v) || v < 1 || v > max) throw new UsageError(`--${name}: must be a whole number from 1 to ${max} (got ${text})`);
-  return v;
+/** A whole-number option from 1 to max, or `fallback` when not given. */
+function countOption(values: ParsedArgs['values'], name: string, fallback: number, max: number): number {
+  return numberOption(values, name, `must be a whole number from 1 to ${max}`, (v) => Number.isInteger(v) && v >= 1 && v <= max) ?? fallback;
 }
 
 const PRESETS_DIR = fileURLToPath(new URL('../../../presets/', import.meta.url));
@@ -54,8 +52,8 @@ Options:
       cells: { type: 'string' }, steps: { type: 'string' }, json: { type: 'boolean' },
     }, [0, 0]);
     if (parsed === null) return 0;
-    const cells = positiveInt('cells', parsed.values.cells as string | undefined, DEFAULT_CELLS, 20_000_000);
-    const steps = positiveInt('steps', parsed.values.steps as string | undefined, DEFAULT_STEPS, 10_000_000);
+    const cells = countOption(parsed.values, 'cells', DEFAULT_CELLS, 20_000_000);
+    const steps = countOption(parsed.values, 'steps', DEFAULT_STEPS, 10_000_000);
     const grid = benchGrid(cells);
     benchSteps(grid, Math.min(50, steps)); // warm-up (JIT), not timed
     const t0 = performance.now();

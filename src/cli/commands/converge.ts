@@ -8,6 +8,7 @@ import { solveTmm } from '../../tmm/solve.ts';
 import { linspace } from '../../units.ts';
 import type { Command } from '../command.ts';
 import { InputError, readArgs, UsageError } from '../command.ts';
+import { femOrderFromArgs } from '../fem-args.ts';
 import { loadOrExplain } from './solve.ts';
 
 /** Frequencies a study uses: the stack's own, at most this many (the study solves many meshes). */
@@ -34,9 +35,8 @@ Exit: 0 done, 2 invalid stack or usage, 1 internal error.`,
     if (a === null) return 0;
     const method = (a.values.method as string | undefined) ?? 'fem';
     if (method !== 'fem' && method !== 'fdtd') throw new UsageError(`--method: must be fem or fdtd (got "${method}")`);
-    const po = a.values['fem-order'];
-    if (po !== undefined && !/^[123]$/.test(String(po))) throw new UsageError(`--fem-order: must be 1, 2 or 3 (got "${po}")`);
-    const orders: FemOrder[] = po === undefined ? [1, 2, 3] : [Number(po) as FemOrder];
+    const po = femOrderFromArgs(a.values);
+    const orders: FemOrder[] = po === undefined ? [1, 2, 3] : [po];
     const { stack } = loadOrExplain(a.positionals[0], io);
     const f = stack.points <= MAX_STUDY_POINTS ? bandFrequencies(stack) : linspace(stack.band_Hz[0], stack.band_Hz[1], MAX_STUDY_POINTS);
     const ref = solveTmm(stack, f);

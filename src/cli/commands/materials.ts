@@ -5,7 +5,7 @@ import { effectiveConductivity, permittivity } from '../../materials/permittivit
 import type { Material } from '../../materials/types.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import type { Command } from '../command.ts';
-import { readArgs, UsageError } from '../command.ts';
+import { numberOption, readArgs } from '../command.ts';
 
 export interface MaterialRow {
   name: string;
@@ -67,12 +67,7 @@ Options:
   async run(args, io) {
     const a = readArgs(materials, args, io, { 'at-GHz': { type: 'string' }, json: { type: 'boolean' } }, [0, 0]);
     if (a === null) return 0;
-    let f: number | undefined;
-    const raw = a.values['at-GHz'];
-    if (typeof raw === 'string') {
-      f = raw.trim() === '' ? Number.NaN : Number(raw);
-      if (!Number.isFinite(f) || f <= 0 || f > 1000) throw new UsageError(`--at-GHz: must be a number > 0 and at most 1000 (GHz) (got "${raw}")`);
-    }
+    const f = numberOption(a.values, 'at-GHz', 'must be a number > 0 and at most 1000 (GHz)', (x) => x > 0 && x <= 1000);
     const rows = CATALOG.map((m) => materialRow(m, f));
     if (a.values.json) { io.out(JSON.stringify(rows, null, 2)); return 0; }
     const valid = (m: Material) => {

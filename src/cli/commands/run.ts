@@ -12,7 +12,7 @@ import { formatAgreement } from '../../report/format-agreement.ts';
 import { runReport, type RunReport } from '../../report/run.ts';
 import { formatCsv } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
-import { CliError, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
+import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { ensureDir, removeIfPresent, writeFilesAtomic } from '../io.ts';
 import { loadOrExplain } from './solve.ts';
@@ -20,22 +20,14 @@ import { loadOrExplain } from './solve.ts';
 /** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
 export const EXIT_INTERRUPTED = 130;
 
-function positiveNumber(values: ParsedArgs['values'], name: string, check: (x: number) => boolean, rule: string): number | undefined {
-  const v = values[name];
-  if (typeof v !== 'string') return undefined;
-  const x = Number(v);
-  if (v.trim() === '' || !Number.isFinite(x) || !check(x)) throw new UsageError(`--${name}: ${rule} (got "${v}")`);
-  return x;
-}
-
 /** Pulse options from the command line; UsageError (exit 2) naming the option. */
 export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions {
   const out: PulseOptions = {};
-  const acc = positiveNumber(values, 'accuracy', (x) => x > 0 && x < 1, 'must be a number between 0 and 1, e.g. 0.01');
+  const acc = numberOption(values, 'accuracy', 'must be a number between 0 and 1, e.g. 0.01', (x) => x > 0 && x < 1);
   if (acc !== undefined) out.accuracy = acc;
-  const cpw = positiveNumber(values, 'cells-per-wavelength', (x) => x >= 4, 'must be a number >= 4');
+  const cpw = numberOption(values, 'cells-per-wavelength', 'must be a number >= 4', (x) => x >= 4);
   if (cpw !== undefined) out.cellsPerWavelength = cpw;
-  const s = positiveNumber(values, 'courant', (x) => x > 0 && x <= 1, 'must be a number in (0, 1]');
+  const s = numberOption(values, 'courant', 'must be a number in (0, 1]', (x) => x > 0 && x <= 1);
   if (s !== undefined) out.courant = s;
   return out;
 }
