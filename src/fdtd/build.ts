@@ -5,6 +5,7 @@ import { EPS0_F_per_m } from '../units.ts';
 import { type PmlGrading, PML_ORDER, PML_SIGMA_FACTOR, pmlRegion } from './cpml.ts';
 import { type DebyeArrays, type DispersiveSpan, type KernelState, type OscArrays, emptyKernelState } from './kernel.ts';
 import { type StepModel, refractiveIndex, stepModelPermittivity } from './media.ts';
+import { SHEET_ALIGN_TOL } from './plan.ts';
 import type { GridPlan } from './types.ts';
 
 /** α_max Δt/ε0 as a fraction of 2π f_min Δt (CFS term; small). */
@@ -112,12 +113,15 @@ export function buildGrids(plan: GridPlan, band_Hz: [number, number]): BuiltGrid
   for (const s of effective.segments) placed.push({ x0: s.x0_m, x1: s.x1_m, model: s.model });
   if (effective.back !== 'pec') placed.push({ x0: effective.thickness_m, x1: Infinity, model: effective.back });
   const media = placeMedia(nodes.total, nodes.front, dx, dt, placed);
-  // Sheets: conductance split between the two nearest nodes (all of it on a node it sits on).
+  // Sheets: all of the conductance on the nearest node when the sheet is within SHEET_ALIGN_TOL of a cell
+  // of it (the planner aims for that), else split between the two nearest nodes. Splitting even a sliver
+  // off a low-resistance sheet would put a strong scatterer on the neighbouring node.
   for (const sh of effective.sheets) {
     const u = sh.x_m / dx + nodes.front;
-    const j = Math.floor(u + 1e-9), f = Math.max(0, u - j);
+    const j = Math.floor(u), f = u - j;
     const gPerLength = sh.conductance_S / dx;
-    if (f < 1e-9) media.sigma[j] += gPerLength;
+    if (f <= SHEET_ALIGN_TOL) media.sigma[j] += gPerLength;
+    else if (f >= 1 - SHEET_ALIGN_TOL) media.sigma[j + 1] += gPerLength;
     else { media.sigma[j] += (1 - f) * gPerLength; media.sigma[j + 1] += f * gPerLength; }
   }
   const epsInf = fillCoefficients(main, media, courant, dt);

@@ -32,8 +32,9 @@ export const DEFAULT_MAX_WORK = 3e10;
 const DISPERSION_SHARE = 0.5;
 /** Cells between the front PML and the TF/SF plane (the scattered-field probe sits in the middle). */
 const SF_CELLS = 4;
-/** Sheets are put within this fraction of a cell of a node when a grid up to SHEET_ALIGN_RANGE× finer allows. */
-const SHEET_ALIGN_TOL = 0.02;
+/** Sheets are put within this fraction of a cell of a node when a grid up to SHEET_ALIGN_RANGE× finer allows;
+ *  the builder then steps such a sheet on that node (build.ts). */
+export const SHEET_ALIGN_TOL = 0.02;
 const SHEET_ALIGN_RANGE = 3;
 /** Frequencies sampled across the band for the slowest medium and the worst phase error. */
 const BAND_SAMPLES = 33;

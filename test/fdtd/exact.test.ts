@@ -118,6 +118,16 @@ describe('pulse run vs the exact solution', () => {
     expect(err.T).toBeLessThan(run.plan.accuracyTarget);
   });
 
+  it('a conductive film 0.5 µm thick (σ = 1e7 S/m, the catalog metal) behind a 5 mm slab: stepped as a sheet, within the target', () => {
+    // The film is 0.3 skin depths thick at 10 GHz: nearly a short of R_s = 1/(σd) = 0.2 Ω behind the slab, a
+    // strongly resonant layer. Reference: the exact solver on the film itself (its thin-film error is O((d/δ)²)).
+    const metal = material('metal', { model: 'fixed', eps_r: 1, sigma_S_per_m: 1e7 });
+    const { err, run } = runAndCompare(stackOf([bulk(fixed(4), 5), bulk(metal, 0.0005)]));
+    expect(run.plan.effective.sheets.length).toBe(1);
+    expect(err.R).toBeLessThan(run.plan.accuracyTarget);
+    expect(err.T).toBeLessThan(run.plan.accuracyTarget);
+  });
+
   it('Salisbury screen: η0 sheet a quarter wavelength (at 5 GHz) before a conductor nulls R there', () => {
     const f0 = 5e9, d = C0_m_per_s / f0 / 4;
     const stack = stackOf([sheet(ETA0_ohm), bulk(air, d * 1e3)], { back: 'pec', band_GHz: [2, 8] });
