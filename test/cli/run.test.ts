@@ -1,5 +1,5 @@
 // `slabecho run` in-process: the files it writes, its exit codes.
-import { readFileSync, writeFileSync, existsSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { cli, readCsv, tempDir } from './support.ts';
@@ -31,6 +31,21 @@ describe('slabecho run', () => {
     expect(summary.grid.cell_mm).toBeGreaterThan(0);
     expect(summary.agreement.some((a: { pair: string }) => a.pair === 'fdtd-tmm')).toBe(true);
     expect(r.stdout).toMatch(/fdtd vs tmm/);
+  });
+
+  it('TM at an angle: the exact and FEM results, echoes.csv and trace.csv with their headers only, no profile.csv', async () => {
+    const tm = join(tmp.dir, 'tm.stack.json');
+    writeFileSync(tm, JSON.stringify({ ...JSON.parse(readFileSync(slab, 'utf8')), incidence: { angle_deg: 30, polarization: 'TM' } }));
+    const out = join(tmp.dir, 'out-tm');
+    mkdirSync(out);
+    writeFileSync(join(out, 'profile.csv'), 'stale');
+    const r = await cli('run', tm, '--out', out);
+    expect(r.code, r.stderr).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(['echoes.csv', 'spectrum.csv', 'summary.json', 'trace.csv']);
+    expect(readFileSync(join(out, 'echoes.csv'), 'utf8')).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path\n');
+    expect(readFileSync(join(out, 'trace.csv'), 'utf8')).toBe('t_ns,E_incident,E_reflected,E_transmitted\n');
+    expect(readCsv(readFileSync(join(out, 'spectrum.csv'), 'utf8')).header).toContain('R_fem_re');
+    expect(r.stderr).toMatch(/warning: FDTD skipped: .*TE only/);
   });
 
   it('bad pulse options and a grid too large: exit 2, nothing written', async () => {

@@ -4,7 +4,6 @@
 // Interruption (Ctrl-C): the run stops at the end of the current chunk of steps and nothing is written
 // (files already in DIR are left as they were); exit 130. All files are written atomically together.
 
-import { join } from 'node:path';
 import { FdtdInstabilityError, PlanError } from '../../fdtd/errors.ts';
 import type { PulseOptions } from '../../fdtd/types.ts';
 import { formatEchoesCsv } from '../../report/echo-table.ts';
@@ -14,8 +13,7 @@ import { formatCsv } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
-import { ensureDir, removeIfPresent, writeFilesAtomic } from '../io.ts';
-import { loadOrExplain } from './solve.ts';
+import { loadOrExplain, writeReport } from './solve.ts';
 
 /** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
 export const EXIT_INTERRUPTED = 130;
@@ -34,21 +32,21 @@ export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions
 
 /** Write every file of a run report into `dir` at once (atomically); returns the paths. */
 export function writeRunReport(dir: string, report: RunReport): string[] {
-  ensureDir(dir);
-  const files = [{ name: 'spectrum.csv', text: formatCsv(report.spectrum) }];
-  if (report.profile.length > 0) files.push({ name: 'profile.csv', text: formatCsv(report.profile) });
-  files.push({ name: 'echoes.csv', text: formatEchoesCsv(report.echoes) });
-  files.push({ name: 'trace.csv', text: traceCsv(report) });
-  files.push({ name: 'summary.json', text: `${JSON.stringify(report.summary, null, 2)}\n` });
-  const written = writeFilesAtomic(dir, files);
-  if (report.profile.length === 0) removeIfPresent(join(dir, 'profile.csv'));
-  return written;
+  return writeReport(dir, report, [
+    { name: 'echoes.csv', text: formatEchoesCsv(report.echoes) },
+    { name: 'trace.csv', text: formatCsv(report.trace) }, // header only when the pulse engine was skipped
+  ]);
 }
 
-/** trace.csv; header only when the pulse engine was skipped. */
-function traceCsv(report: RunReport): string {
-  if (report.trace[0].data.length === 0) return `${report.trace.map((c) => c.name).join(',')}\n`;
-  return formatCsv(report.trace);
+/**
+ * Run `write` (synchronous) with a SIGINT listener in place, so a Ctrl-C arriving while the files are
+ * renamed into place cannot end the process between two renames: the run is complete by then, and every
+ * file of it is written.
+ */
+function withSigintHeld<T>(write: () => T): T {
+  const hold = () => {};
+  process.on('SIGINT', hold);
+  try { return write(); } finally { process.removeListener('SIGINT', hold); }
 }
 
 /** Progress lines on stderr, the first after one second, then at most one a second. */
@@ -68,15 +66,18 @@ export const run: Command = {
   summary: 'FDTD pulse run beside the exact solution: spectra, echoes, traces into a directory',
   usage: `Usage: slabecho run FILE --out DIR [options]
 
-Send a broadband pulse at the stack in FILE (leapfrog FDTD, normal incidence), and solve it exactly
-(and by FEM) at the same frequencies. Writes into DIR (created if needed), all files at once:
+Send a broadband pulse at the stack in FILE (leapfrog FDTD), and solve it exactly (and by FEM) at the
+same frequencies. Writes into DIR (created if needed), all files at once:
   spectrum.csv   f_GHz, the exact and FEM columns, then R_fdtd_re,R_fdtd_im,T_fdtd_re,T_fdtd_im
   profile.csv    x_mm, E_tmm_re,E_tmm_im, FEM columns, E_fdtd_re,E_fdtd_im at profile_GHz
   echoes.csv     t_ns,level_dB,amplitude,predicted_t_ns,path: one row per echo; t_ns after the
                  front-face echo (at 0), level relative to the incident pulse, path in plain words
   trace.csv      t_ns,E_incident,E_reflected,E_transmitted: the time records at x = 0 and the back face
   summary.json   as for solve, plus grid, run, pulse, echoes, power-law fits, agreement and timings
-At oblique incidence the pulse engine is skipped (warning): solve's results with empty echoes and trace.
+The engine is one-dimensional. At an angle in TE it steps the equivalent normal-incidence problem (each
+medium's ε_r lowered by ε_front sin²θ; needs a lossless, non-dispersive front medium such as air). TM at an
+angle is not stepped: a warning, solve's results, and echoes.csv and trace.csv with only their headers.
+There is no profile.csv at oblique incidence.
 
 Options:
   --out DIR                   output directory (required)
@@ -125,7 +126,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       return EXIT_INTERRUPTED;
     }
     for (const w of report.warnings) io.err(`warning: ${w}`);
-    const written = writeRunReport(out, report);
+    const written = withSigintHeld(() => writeRunReport(out, report));
     io.out(`${stack.title}: ${stack.layers.length} layer${stack.layers.length === 1 ? '' : 's'}, ` +
       `${fmtGHz(stack.band_Hz[0] / 1e9)}–${fmtGHz(stack.band_Hz[1] / 1e9)} GHz, ${stack.points} points`);
     if (!report.skipped) {

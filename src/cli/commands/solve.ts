@@ -21,12 +21,18 @@ export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: s
   return { stack: r.stack, warnings: r.warnings };
 }
 
-/** Write a report's files into `dir` atomically; returns the paths written. */
-export function writeReport(dir: string, report: Report): string[] {
+/** A file of a report: its name in the output directory and its text. */
+export interface ReportFile { name: string; text: string }
+
+/**
+ * Write a report's files into `dir` (created if needed) all at once, atomically: spectrum.csv, profile.csv
+ * (when there is a profile), then `extra`, then summary.json. Returns the paths written.
+ */
+export function writeReport(dir: string, report: Report, extra: readonly ReportFile[] = []): string[] {
   ensureDir(dir);
-  const files = [{ name: 'spectrum.csv', text: formatCsv(report.spectrum) }];
+  const files: ReportFile[] = [{ name: 'spectrum.csv', text: formatCsv(report.spectrum) }];
   if (report.profile.length > 0) files.push({ name: 'profile.csv', text: formatCsv(report.profile) });
-  files.push({ name: 'summary.json', text: `${JSON.stringify(report.summary, null, 2)}\n` });
+  files.push(...extra, { name: 'summary.json', text: `${JSON.stringify(report.summary, null, 2)}\n` });
   const written = writeFilesAtomic(dir, files);
   // A profile.csv left by an earlier normal-incidence run would not belong to these results.
   if (report.profile.length === 0) removeIfPresent(join(dir, 'profile.csv'));
