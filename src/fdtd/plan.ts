@@ -36,6 +36,8 @@ const SF_CELLS = 4;
  *  the builder then steps such a sheet on that node (build.ts). */
 export const SHEET_ALIGN_TOL = 0.02;
 const SHEET_ALIGN_RANGE = 3;
+/** For the bounce estimate, a sheet this close to a face (in shortest wavelengths) acts at that face. */
+const SHEET_NEAR_FACE = 0.01;
 /** Frequencies sampled across the band for the slowest medium and the worst phase error. */
 const BAND_SAMPLES = 33;
 /** Per-round-trip amplitude retention is capped here when estimating bounces (keeps factors finite). */
@@ -121,9 +123,15 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
     }
     const a = index(segs[j].model, f); return { re: a.n, im: -a.k };
   };
-  const sheetAdmittance = (x: number): number => {
+  // Normalized conductance of the sheets just outside a face (dir −1: in front of x, +1: behind it). Sheets
+  // within a hundredth of the shortest wavelength count: a conductor film's sheet sits at the film's centre,
+  // microns behind the face of the layer in front, and still closes that layer.
+  const sheetAdmittance = (x: number, dir: -1 | 1): number => {
     let g = 0;
-    for (const s of effective.sheets) if (Math.abs(s.x_m - x) <= 1e-12 + 1e-9 * Math.abs(x)) g += s.conductance_S * ETA0_ohm;
+    for (const s of effective.sheets) {
+      const beyond = dir * (s.x_m - x); // ≥ 0 on the outer side of the face
+      if (beyond >= -1e-12 && beyond <= SHEET_NEAR_FACE * lambdaMin) g += s.conductance_S * ETA0_ohm;
+    }
     return g;
   };
   const k0Mid = (2 * Math.PI * fMid) / C0_m_per_s;
@@ -131,14 +139,14 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   let attAcc = 1;
   for (let i = 0; i < segs.length; i++) {
     const s = segs[i], me = index(s.model, fMid);
-    const side = (j: number, x: number): number => {
+    const side = (j: number, x: number, dir: -1 | 1): number => {
       const y = admittanceAt(j, fMid);
       if (y === 'pec') return 1;
-      return reflectionMagnitude(me, y.re + sheetAdmittance(x), y.im);
+      return reflectionMagnitude(me, y.re + sheetAdmittance(x, dir), y.im);
     };
     const d = s.x1_m - s.x0_m;
     const loss = Math.exp(-2 * me.k * k0Mid * d);
-    const rho = Math.min(MAX_RETENTION, side(i - 1, s.x0_m) * side(i + 1, s.x1_m) * loss);
+    const rho = Math.min(MAX_RETENTION, side(i - 1, s.x0_m, -1) * side(i + 1, s.x1_m, 1) * loss);
     bounce.push((1 + rho) / (1 - rho));
     atten.push(attAcc);
     attAcc *= loss;

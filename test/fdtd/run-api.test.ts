@@ -7,7 +7,7 @@ import { pulseForBand, pulseSpectrumRelative } from '../../src/fdtd/pulse.ts';
 import { createPulseRun, runToEnd, runToEndSync } from '../../src/fdtd/run.ts';
 import { profileTmm } from '../../src/tmm/profile.ts';
 import { C0_m_per_s } from '../../src/units.ts';
-import { air, bulk, fixed, material, stackOf } from './stacks.ts';
+import { air, bulk, fixed, material, sheet, stackOf } from './stacks.ts';
 
 describe('grid plan', () => {
   it('puts the front and back faces on E nodes and reports per-layer figures', () => {
@@ -48,6 +48,16 @@ describe('grid plan', () => {
     expect(p.effective.back).toBe('pec');
     expect(p.effective.thickness_m).toBeCloseTo(0.01, 12);
     expect(p.warnings.some((w) => w.includes('perfect conductor'))).toBe(true);
+  });
+
+  it('a thin conductor film closes the layer in front of it for the bounce estimate, like the sheet it is stepped as', () => {
+    // Bookkeeping (common practice, no source): the film becomes a sheet of 1/(σd) = 0.2 Ω at its centre,
+    // 0.25 µm behind the slab's back face; the slab's bounce factor must be that of a slab closed by that sheet.
+    const metal = material('metal', { model: 'fixed', eps_r: 1, sigma_S_per_m: 1e7 });
+    const film = planGrid(stackOf([bulk(fixed(4), 5), bulk(metal, 0.0005)]));
+    const bare = planGrid(stackOf([bulk(fixed(4), 5), sheet(1 / (1e7 * 0.5e-6))]));
+    expect(bare.layers[0].bounceFactor).toBeGreaterThan(1.9);
+    expect(film.layers[0].bounceFactor).toBeCloseTo(bare.layers[0].bounceFactor, 4); // the film's own medium behind differs
   });
 });
 
