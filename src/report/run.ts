@@ -16,6 +16,7 @@ import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
 import { agreementRow, type AgreementRow } from './format-agreement.ts';
 import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
+import { fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
 
@@ -142,7 +143,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     max_rel_error_eps_re: r3(f.maxRelErr_re),
     max_rel_error_eps_im: r3(f.maxRelErr_im),
     max_rel_error_eps: r3(f.maxRelErr_abs),
-    model: f.model,
+    model: fittedModel(f.model),
   }));
   summary.pulse = {
     f0_GHz: r6(run.plan.pulse.f0_Hz / 1e9),

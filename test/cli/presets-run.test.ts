@@ -31,6 +31,11 @@ describe('run on every preset', () => {
       expect(fdtd!.R_max).toBeLessThanOrEqual(0.01);
       expect(fdtd!.T_max).toBeLessThanOrEqual(0.01);
       expect(summary.run.truncated).toBe(false);
+      // Fitted power laws are reported in the stack file's own model terms (README, Pulse run).
+      for (const fit of summary.power_law_fits) {
+        expect(Object.keys(fit.model)).toEqual(['eps_inf', 'sigma_S_per_m', 'debye', 'lorentz', 'drude']);
+        expect(fit.model.eps_inf).toBeGreaterThanOrEqual(1);
+      }
       const echoes = readFileSync(join(out, 'echoes.csv'), 'utf8').trimEnd().split('\n');
       expect(echoes.length).toBeGreaterThan(1);
       expect(echoes[1]).toMatch(/front face/);
