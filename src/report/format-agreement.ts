@@ -20,6 +20,12 @@ export function agreementRow(pair: string, test: Spectrum, ref: Spectrum, target
   return row;
 }
 
+/** The row with its figures to 3 significant digits and its frequencies to 6, as summary.json carries it. */
+export function roundedRow(r: AgreementRow): AgreementRow {
+  const sig = (x: number, n: number) => Number(x.toPrecision(n));
+  return { ...r, R_max: sig(r.R_max, 3), T_max: sig(r.T_max, 3), R_worst_f_GHz: sig(r.R_worst_f_GHz, 6), T_worst_f_GHz: sig(r.T_worst_f_GHz, 6) };
+}
+
 const sci = (x: number): string => (x === 0 ? '0' : x.toExponential(1));
 const ghz = (x: number): string => String(Number(x.toPrecision(6)));
 

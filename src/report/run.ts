@@ -9,12 +9,11 @@ import { createPulseRun, runToEnd } from '../fdtd/run.ts';
 import { solveEffective } from '../fdtd/stepped-exact.ts';
 import type { GridPlan, PulseOptions, PulseRun } from '../fdtd/types.ts';
 import type { Profile, Spectrum } from '../results.ts';
-import { dtft } from '../spectra/dtft.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
 import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
-import { agreementRow, type AgreementRow } from './format-agreement.ts';
+import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
 import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
 import { fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
@@ -121,8 +120,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     agreement.push(agreementRow('fdtd-tmm as stepped', fdtd, stepped, target));
     agreement.push(agreementRow('stepped media-tmm', stepped, tmm));
   }
-  const prior = Array.isArray(summary.agreement) ? (summary.agreement as AgreementRow[]) : base.agreement;
-  summary.agreement = [...prior, ...agreement.map(roundRow)];
+  const allAgreement = [...base.agreement, ...agreement];
+  summary.agreement = allAgreement.map(roundedRow);
 
   methods.push({ name: 'fdtd', description: stack.incidence.angle_rad === 0 ? 'leapfrog FDTD pulse run (normal incidence)' : `leapfrog FDTD pulse run (${stack.incidence.polarization} at ${r6(degFromRad(stack.incidence.angle_rad))}°, as normal incidence on ε_r − ε_front sin²θ)`, time_ms: Math.round(run_ms * 1e3) / 1e3 });
   summary.methods = methods;
@@ -166,7 +165,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const ech = echoColumns(echoes);
   if (ech.path.length > 0) assertTable(ech.columns);
   progress(1);
-  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: [...base.agreement, ...agreement], stopped };
+  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: allAgreement, stopped };
 }
 
 function emptyEchoColumns(): Column[] {
@@ -174,10 +173,6 @@ function emptyEchoColumns(): Column[] {
 }
 function emptyTrace(): Column[] {
   return ['t_ns', 'E_incident', 'E_reflected', 'E_transmitted'].map((name) => ({ name, data: new Float64Array(0) }));
-}
-
-function roundRow(r: AgreementRow): AgreementRow {
-  return { ...r, R_max: r3(r.R_max), T_max: r3(r.T_max), R_worst_f_GHz: r6(r.R_worst_f_GHz), T_worst_f_GHz: r6(r.T_worst_f_GHz) };
 }
 
 /** A Spectrum from the report's `R_<tag>_re…` columns, or null when they are absent. */
@@ -217,15 +212,8 @@ function gridSummary(p: GridPlan): Record<string, unknown> {
  */
 export function profileOnGrid(stack: Stack, run: PulseRun, x_m: Float64Array): { re: Float64Array; im: Float64Array } {
   const p: Profile = run.profile();
-  const rec = run.records();
-  const f = [p.f_Hz];
-  const inc = dtft(rec.incident, rec.dt_s, Float64Array.from(f));
-  const ratio = (x: Float64Array): Complex => {
-    const X = dtft(x, rec.dt_s, Float64Array.from(f));
-    const d = inc.re[0] ** 2 + inc.im[0] ** 2;
-    return d > 0 ? { re: (X.re[0] * inc.re[0] + X.im[0] * inc.im[0]) / d, im: (X.im[0] * inc.re[0] - X.re[0] * inc.im[0]) / d } : { re: 0, im: 0 };
-  };
-  const R = ratio(rec.reflected), T = ratio(rec.transmitted);
+  const at = spectrumFromRecords(run.records(), Float64Array.of(p.f_Hz));
+  const R: Complex = { re: at.R_re[0], im: at.R_im[0] }, T: Complex = { re: at.T_re[0], im: at.T_im[0] };
   const s = stackAtFrequency(stack, p.f_Hz);
   const d = stackThickness_m(stack);
   const pecBack = run.plan.effective.back === 'pec';

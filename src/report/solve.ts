@@ -16,7 +16,7 @@ import { SLABECHO_VERSION } from '../version.ts';
 import { assertTable, complexColumns, scaledColumn, type Column } from './table.ts';
 import type { FemOptions } from '../fem/types.ts';
 import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
-import type { AgreementRow } from './format-agreement.ts';
+import { roundedRow, type AgreementRow } from './format-agreement.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -116,7 +116,7 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
     methods,
     results: resultsInBrief(stack, tmm),
     ...(fem ? { fem: fem.mesh } : {}),
-    agreement,
+    agreement: agreement.map(roundedRow),
     warnings,
   };
   progress(1);
