@@ -7,7 +7,6 @@ import { randomBytes } from 'node:crypto';
 import { basename, dirname, join } from 'node:path';
 import { STACK_LIMITS } from '../stack/file.ts';
 import { parseStackText, type ParseResult } from '../stack/parse.ts';
-import { formatCsv, type Column } from '../report/table.ts';
 import { InputError } from './command.ts';
 
 const code = (e: unknown): string | undefined => (e as { code?: string } | null)?.code;
@@ -114,6 +113,3 @@ export function removeIfPresent(path: string): boolean {
     throw e;
   }
 }
-
-/** CSV text for columns (see report/table.ts); throws on NaN, naming the column. */
-export const csvText = (columns: readonly Column[]): string => formatCsv(columns);

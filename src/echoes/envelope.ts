@@ -2,7 +2,7 @@
 // the positive ones, keep DC and Nyquist once, transform back. The record is zero-padded to at
 // least twice its length so the circular transform does not wrap its end onto its start.
 
-import { type ComplexColumns, inverseFft, nextPow2, realFft } from '../spectra/fft.ts';
+import { type ComplexColumns, inverseFft, magnitude, nextPow2, realFft } from '../spectra/fft.ts';
 
 /** z[n] = x[n] + j·H{x}[n] for the record's own length. */
 export function analyticSignal(x: Float64Array): ComplexColumns {
@@ -17,12 +17,5 @@ export function analyticSignal(x: Float64Array): ComplexColumns {
   return { re: z.re.slice(0, n), im: z.im.slice(0, n) };
 }
 
-/** |z[n]| of an analytic signal. */
-export function magnitudeOf(z: ComplexColumns): Float64Array {
-  const out = new Float64Array(z.re.length);
-  for (let i = 0; i < out.length; i++) out[i] = Math.hypot(z.re[i], z.im[i]);
-  return out;
-}
-
 /** The envelope |x + jH{x}| of a real record. */
-export const envelope = (x: Float64Array): Float64Array => magnitudeOf(analyticSignal(x));
+export const envelope = (x: Float64Array): Float64Array => magnitude(analyticSignal(x));

@@ -7,6 +7,13 @@ import FFT from 'fft.js';
 
 export interface ComplexColumns { re: Float64Array; im: Float64Array }
 
+/** |X| at each index. */
+export function magnitude(X: ComplexColumns): Float64Array {
+  const out = new Float64Array(X.re.length);
+  for (let k = 0; k < out.length; k++) out[k] = Math.hypot(X.re[k], X.im[k]);
+  return out;
+}
+
 const plans = new Map<number, FFT>();
 
 /** A cached fft.js plan of size n (a power of two ≥ 2). */

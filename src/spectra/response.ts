@@ -1,23 +1,10 @@
-// Ratio of two records' spectra at the requested frequencies, e.g. R(f) = Ê_reflected / Ê_incident.
-// Both records must share the time axis (t_n = n Δt), so any common time offset cancels.
+// Ratio of two spectra at the same frequencies, e.g. R(f) = Ê_reflected / Ê_incident, with a guard where
+// the denominator is weak. Both records must share the time axis (t_n = n Δt), so any common offset cancels.
 
-import { dtft } from './dtft.ts';
-import type { ComplexColumns } from './fft.ts';
+import { magnitude, type ComplexColumns } from './fft.ts';
 
 /** Incident spectrum below this fraction of its in-band peak marks a frequency as weak (−60 dB). */
 export const WEAK_RELATIVE = 1e-3;
-
-export interface Response extends ComplexColumns {
-  /** 1 where the denominator's spectrum is weak: the ratio there is unreliable (0 if it vanished). */
-  weak: Uint8Array;
-}
-
-/** |X| at each frequency. */
-export function magnitude(X: ComplexColumns): Float64Array {
-  const out = new Float64Array(X.re.length);
-  for (let k = 0; k < out.length; k++) out[k] = Math.hypot(X.re[k], X.im[k]);
-  return out;
-}
 
 /** Weak-frequency mask: |den| < relative × max|den| over the requested frequencies, or not finite. */
 export function weakMask(den: ComplexColumns, relative = WEAK_RELATIVE): Uint8Array {
@@ -43,12 +30,4 @@ export function divideSpectra(num: ComplexColumns, den: ComplexColumns, weak: Ui
     if (Number.isFinite(r) && Number.isFinite(i)) { re[k] = r; im[k] = i; } else weak[k] = 1;
   }
   return { re, im };
-}
-
-/** Spectrum of num over spectrum of den at f_Hz, by direct DTFT of both records. */
-export function responseFromRecords(num: Float64Array, den: Float64Array, dt_s: number, f_Hz: Float64Array): Response {
-  const D = dtft(den, dt_s, f_Hz);
-  const weak = weakMask(D);
-  const { re, im } = divideSpectra(dtft(num, dt_s, f_Hz), D, weak);
-  return { re, im, weak };
 }

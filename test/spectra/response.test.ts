@@ -1,6 +1,5 @@
 // R(f) from records against closed forms; the weak-spectrum guard; group delay.
 import { describe, expect, it } from 'vitest';
-import { responseFromRecords } from '../../src/spectra/response.ts';
 import { spectrumFromRecords } from '../../src/spectra/spectrum.ts';
 import { groupDelay, unwrappedPhase } from '../../src/spectra/groupDelay.ts';
 import { linspace } from '../../src/units.ts';
@@ -10,7 +9,7 @@ const gauss = (t: number, t0: number, s: number) => Math.exp(-((t - t0) ** 2) / 
 const pulse = (t: number, t0: number, s: number, fc: number) => gauss(t, t0, s) * Math.sin(2 * Math.PI * fc * (t - t0));
 const sample = (n: number, dt: number, fn: (t: number) => number) => new Float64Array(n).map((_, i) => fn(i * dt));
 
-describe('responseFromRecords', () => {
+describe('spectrumFromRecords', () => {
   it('ratio of two Gaussians matches the closed-form ratio of their transforms', () => {
     // G_s(f) = s√(2π) exp(−2π²s²f²) e^{−j2πf t0} (standard Fourier pair, Bracewell ch. 6), so
     // G_2/G_1 = (s2/s1) exp(−2π²(s2² − s1²) f²) e^{−j2πf (t2 − t1)}.
@@ -18,15 +17,17 @@ describe('responseFromRecords', () => {
     const den = sample(N, dt, (t) => gauss(t, t1, s1));
     const num = sample(N, dt, (t) => 0.8 * gauss(t, t2, s2));
     const f = linspace(0.2e9, 4e9, 39);
-    const r = responseFromRecords(num, den, dt, f);
+    const r = spectrumFromRecords({ dt_s: dt, count: N, incident: den, reflected: num, transmitted: num }, f);
     let worst = 0;
     f.forEach((fk, i) => {
       const m = (0.8 * s2 / s1) * Math.exp(-2 * Math.PI ** 2 * (s2 * s2 - s1 * s1) * fk * fk);
       const ph = -2 * Math.PI * fk * (t2 - t1);
-      worst = Math.max(worst, Math.hypot(r.re[i] - m * Math.cos(ph), r.im[i] - m * Math.sin(ph)));
+      worst = Math.max(worst, Math.hypot(r.R_re[i] - m * Math.cos(ph), r.R_im[i] - m * Math.sin(ph)));
+      worst = Math.max(worst, Math.hypot(r.T_re[i] - m * Math.cos(ph), r.T_im[i] - m * Math.sin(ph)));
       expect(r.weak[i]).toBe(0);
     });
     expect(worst).toBeLessThan(1e-9);
+    expect(r.warnings).toEqual([]);
   });
 
   it('marks frequencies where the incident spectrum is weak and never returns NaN', () => {
@@ -34,13 +35,17 @@ describe('responseFromRecords', () => {
     const den = sample(N, dt, (t) => gauss(t, 0.5e-9, s)); // |G| falls ~ exp(−2π²s²f²): −60 dB near 8.8 GHz
     const num = sample(N, dt, (t) => -0.5 * gauss(t, 0.6e-9, s));
     const f = linspace(1e9, 40e9, 40);
-    const r = responseFromRecords(num, den, dt, f);
+    const r = spectrumFromRecords({ dt_s: dt, count: N, incident: den, reflected: num }, f);
     expect(r.weak[0]).toBe(0);
     expect(r.weak[39]).toBe(1);
-    for (let i = 0; i < 40; i++) { expect(Number.isFinite(r.re[i])).toBe(true); expect(Number.isFinite(r.im[i])).toBe(true); }
-    const zero = responseFromRecords(num, new Float64Array(N), dt, f);
+    for (let i = 0; i < 40; i++) { expect(Number.isFinite(r.R_re[i])).toBe(true); expect(Number.isFinite(r.R_im[i])).toBe(true); }
+    expect(r.warnings.join()).toMatch(/more than 60 dB below its peak at \d+ of 40 frequencies .*unreliable/);
+    // No transmitted record (a conductor behind): T is zero, not NaN.
+    expect(Array.from(r.T_re).every((v) => v === 0)).toBe(true);
+    const zero = spectrumFromRecords({ dt_s: dt, count: N, incident: new Float64Array(N), reflected: num }, f);
     expect(Array.from(zero.weak).every((w) => w === 1)).toBe(true);
-    expect(Array.from(zero.re).every((v) => v === 0)).toBe(true);
+    expect(Array.from(zero.R_re).every((v) => v === 0)).toBe(true);
+    expect(Array.from(zero.R_im).every((v) => v === 0)).toBe(true);
   });
 
   it('a slab built from its echoes gives the closed-form (Airy) R and T', () => {
