@@ -1,7 +1,7 @@
 // Ties each measured echo to a bounce path.
 //   - Predicted arrivals within half a pulse width of the measured delay are candidates; the echo is
-//     named after the strongest. The next strongest, if at least 0.35 as strong, is named with it, joined by
-//     " & " and marked "(unresolved)": paths closer than the pulse width arrive as one echo.
+//     named after the strongest. The next strongest, if at least 0.35 as strong, is named with it, the two in
+//     order of arrival, joined by " & " and marked "(unresolved)": paths closer than the pulse width arrive as one echo.
 //   - An echo with no candidate, within two pulse widths of a measured echo at least 4× (12 dB)
 //     stronger, is a change of that echo's shape (frequency-dependent reflection or loss spread the
 //     pulse; the echo extraction represents the spread as extra delayed copies): "reshaping of …".
@@ -31,7 +31,9 @@ export function attributeEchoes(t_s: Float64Array, amplitude: Float64Array, pred
     if (cand.length === 0) continue;
     cand.sort((a, b) => amp[b] - amp[a]);
     const best = cand[0];
-    const together = cand.filter((j) => amp[j] >= TOGETHER * amp[best] && amp[j] > 0).slice(0, MAX_NAMES);
+    // Named in the order they arrive (front face first), as a reader walks through the stack.
+    const together = cand.filter((j) => amp[j] >= TOGETHER * amp[best] && amp[j] > 0).slice(0, MAX_NAMES)
+      .sort((a, b) => predicted.delay_s[a] - predicted.delay_s[b]);
     predicted_t_s[k] = predicted.delay_s[best];
     path[k] = together.length > 1 ? `${together.map((j) => predicted.name[j]).join(' & ')} (unresolved)` : predicted.name[best];
     matched[k] = 1;

@@ -67,6 +67,18 @@ describe('attribution', () => {
     expect(tab.amplitude[3]).toBeCloseTo(echoes[2][1], 3);
   });
 
+  it('paths closer than the pulse width are named together, in order of arrival', () => {
+    // Air | ε_r = 4, 5 mm | conductor. Front face r = −1/3; conductor path t01 (−1) t10 = −(2/3)(4/3) = −8/9
+    // (closed forms, physics reference), 2 d √ε'/c = 67 ps later: inside half the pulse's 165 ps width.
+    const tau = (2 * 0.005 * 2) / C0;
+    const rec = train([[0, -1 / 3], [tau, -8 / 9]], 1e-12, 3000);
+    const stack = makeStack({ band_GHz: [1, 5], layers: [layer(dielectric(4, 0, 'slab'), 0.005)], back: 'pec' });
+    const tab = echoTable(stack, rec);
+    expect(tab.path[0]).toBe('front face & conductor (unresolved)');
+    // the predicted delay is the strongest path's
+    expect(tab.predicted_t_s[0]).toBeCloseTo(tau, 15);
+  });
+
   it('an echo far from every predicted path is reported as unmatched', () => {
     const t1 = 0.12 / C0; // ε 4, 60 mm: back face at 0.80 ns, two round trips at 1.60 ns; the stray echo at 1.10 ns
     const rec = train([[0, -1 / 3], [2 * t1, 0.1], [2.75 * t1, 0.1]], 1e-12, 3000);
