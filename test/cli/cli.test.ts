@@ -180,7 +180,7 @@ describe('solve', () => {
     const pr = readCsv(readFileSync(join(out, 'profile.csv'), 'utf8'));
     expect(pr.header.slice(0, 3)).toEqual(['x_mm', 'E_tmm_re', 'E_tmm_im']);
     for (const row of [...sp.rows, ...pr.rows]) for (const v of row) expect(Number.isFinite(v)).toBe(true);
-    // |E(0)| = |1 + R| at the front face: incident amplitude 1 at x = 0 (README conventions).
+    // E(0) = 1 + R at the front face: incident amplitude 1 at x = 0, R referred to x = 0 (README conventions).
     const at0 = pr.rows.find((row) => row[0] === 0)!;
     const s = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
     expect(s).toMatchObject({ title: 'Test wall', band_GHz: [1, 6], points: 21, profile_GHz: 3.5, incidence: { angle_deg: 0, polarization: 'TE' } });
@@ -189,6 +189,8 @@ describe('solve', () => {
     expect(s.methods[0].name).toBe('tmm');
     expect(s.methods[0].time_ms).toBeGreaterThanOrEqual(0);
     expect(at0).toBeDefined();
+    const atProfile = sp.rows.find((row) => row[0] === s.profile_GHz)!;
+    expect(Math.hypot(at0[1] - (1 + atProfile[1]), at0[2] - atProfile[2])).toBeLessThan(1e-9);
     expect(r.stdout).toMatch(/wrote .*spectrum\.csv/);
   });
   it('an invalid stack: exit 2 and nothing written', async () => {
