@@ -6,6 +6,7 @@ import { fdtdStudy, femStudy, formatStudy } from '../../report/converge.ts';
 import { bandFrequencies } from '../../results.ts';
 import { solveTmm } from '../../tmm/solve.ts';
 import { linspace } from '../../units.ts';
+import { fmtGHz } from '../../stack/warnings.ts';
 import type { Command } from '../command.ts';
 import { InputError, readArgs, UsageError } from '../command.ts';
 import { femOrderFromArgs } from '../fem-args.ts';
@@ -36,28 +37,31 @@ Exit: 0 done, 2 invalid stack or usage, 1 internal error.`,
     const method = (a.values.method as string | undefined) ?? 'fem';
     if (method !== 'fem' && method !== 'fdtd') throw new UsageError(`--method: must be fem or fdtd (got "${method}")`);
     const po = femOrderFromArgs(a.values);
+    if (po !== undefined && method === 'fdtd') throw new UsageError('--fem-order: applies to --method fem only');
     const orders: FemOrder[] = po === undefined ? [1, 2, 3] : [po];
-    const { stack } = loadOrExplain(a.positionals[0], io);
+    const { stack, warnings } = loadOrExplain(a.positionals[0], io);
+    for (const w of warnings) io.err(`warning: ${w}`);
     const f = stack.points <= MAX_STUDY_POINTS ? bandFrequencies(stack) : linspace(stack.band_Hz[0], stack.band_Hz[1], MAX_STUDY_POINTS);
     const ref = solveTmm(stack, f);
-    io.out(`${stack.title}: ${method.toUpperCase()} against the exact solution, ${f.length} frequencies, ` +
-      `${stack.band_Hz[0] / 1e9}–${stack.band_Hz[1] / 1e9} GHz`);
-    if (method === 'fem') {
-      io.out(formatStudy(femStudy(stack, ref, orders), 'el/λ'));
-      return 0;
-    }
-    try {
-      const study = fdtdStudy(stack, ref);
+    // The study runs before anything is printed, so a stack the engine refuses gives one line and exit 2.
+    const lines: string[] = [];
+    if (method === 'fem') lines.push(formatStudy(femStudy(stack, ref, orders), 'el/λ'));
+    else {
+      let study;
+      try { study = fdtdStudy(stack, ref); } catch (e) {
+        if (e instanceof PlanError) throw new InputError(`fdtd: ${e.message}`);
+        throw e;
+      }
       if (study.modelFloor) {
-        io.out(`media stepped as fitted causal models (power laws) or substitutes (metal): errors below are against the exact\n` +
+        lines.push(`media stepped as fitted causal models (power laws) or substitutes (metal): errors below are against the exact\n` +
           `solution of the stepped media; that solution differs from the stack's own by max|dR| ${study.modelFloor.R.toExponential(2)}, ` +
           `max|dT| ${study.modelFloor.T.toExponential(2)}, a floor no grid removes`);
       }
-      io.out(formatStudy(study.rows, 'cells/λ'));
-    } catch (e) {
-      if (e instanceof PlanError) throw new InputError(`fdtd: ${e.message}`);
-      throw e;
+      lines.push(formatStudy(study.rows, 'cells/λ'));
     }
+    io.out(`${stack.title}: ${method.toUpperCase()} against the exact solution, ${f.length} frequencies, ` +
+      `${fmtGHz(stack.band_Hz[0] / 1e9)}–${fmtGHz(stack.band_Hz[1] / 1e9)} GHz`);
+    for (const l of lines) io.out(l);
     return 0;
   },
 };
