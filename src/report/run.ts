@@ -154,6 +154,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     count: echoes.t_s.length,
     group_delays_at_GHz: r6(echoes.centre_Hz / 1e9),
     t_ns: nsList(echoes.t_s),
+    level_dB: Array.from(echoes.level_dB, (x) => Number(x.toFixed(2))),
+    predicted_t_ns: nsList(echoes.predicted_t_s),
     path: echoes.path,
   };
   summary.timings_ms = { fdtd: Math.round(run_ms), spectra: Math.round(spectrum_ms), echoes: Math.round(echoes_ms) };

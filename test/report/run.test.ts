@@ -47,6 +47,12 @@ describe('runReport', () => {
     expect(Math.abs(t[1] - (2 * d * 2) / C0 * 1e9)).toBeLessThan(2e-3); // within 2 ps
     expect(amp[0]).toBeCloseTo(-1 / 3, 2);
     expect(amp[1]).toBeCloseTo(8 / 27, 2);
+    // summary.json repeats the echo table for a reader: delay, level, prediction and path of each echo
+    const se = r.summary.echoes as { count: number; t_ns: number[]; level_dB: number[]; predicted_t_ns: number[]; path: string[] };
+    expect(se.path.slice(0, 2)).toEqual(['front face', 'back face']);
+    expect(se.level_dB[0]).toBeCloseTo(20 * Math.log10(1 / 3), 1);
+    expect(se.predicted_t_ns[1]).toBeCloseTo((2 * d * 2) / C0 * 1e9, 4);
+    expect([se.t_ns.length, se.level_dB.length, se.predicted_t_ns.length, se.path.length]).toEqual(Array(4).fill(se.count));
     // profile: FDTD against exact, same grid
     const e = (n: string) => findColumn(r.profile, n)!.data;
     let worst = 0;
