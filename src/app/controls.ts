@@ -97,13 +97,13 @@ export class Controls {
     add(folder.add(v, 'back', ['pec', ...this.materialNames('bulk')]).name('behind the stack').onChange((m: string) => {
       if (!host.edit((s) => { s.back = m; })) revert();
     }), 'back');
-    add(folder.add(v, 'fmin').min(0.001).name('band from (GHz)').onFinishChange((x: number) => {
+    add(folder.add(v, 'fmin').name('band from (GHz)').onFinishChange((x: number) => {
       if (!host.edit((s) => { s.band_GHz = [x, s.band_GHz[1]]; clampProfile(s); })) revert(); else this.syncProfile();
     }), 'band-min');
-    add(folder.add(v, 'fmax').min(0.001).name('band to (GHz)').onFinishChange((x: number) => {
+    add(folder.add(v, 'fmax').name('band to (GHz)').onFinishChange((x: number) => {
       if (!host.edit((s) => { s.band_GHz = [s.band_GHz[0], x]; clampProfile(s); })) revert(); else this.syncProfile();
     }), 'band-max');
-    add(folder.add(v, 'points').min(2).step(1).name('spectrum points').onFinishChange((x: number) => {
+    add(folder.add(v, 'points').step(1).name('spectrum points').onFinishChange((x: number) => {
       if (!host.edit((s) => { s.points = Math.round(x); })) revert();
     }), 'points');
     add(folder.add(v, 'angle', 0, 89, 0.5).name('incidence angle (°)').onChange((x: number) => {
@@ -149,15 +149,21 @@ export class Controls {
       else { layer = this.host.file.layers[i]; sub.title(layerTitle(layer, i)); }
     }), `layer-${i}-material`);
     if (layer.thickness_mm !== undefined) {
-      const c = sub.add(v, 'thickness_mm').name('thickness (mm)').min(0.001)
+      // No min(): lil-gui would clamp a typed −4 to the min and apply that. Valid values apply while
+      // typing; an invalid one is refused by the parser when the input is left (the field named).
+      const setThickness = (d: number): boolean => host.edit((s) => { s.layers[i] = { ...s.layers[i], thickness_mm: d }; });
+      const c = sub.add(v, 'thickness_mm').name('thickness (mm)')
         .onChange((d: number) => {
-          if (!(d > 0)) return;
-          if (host.edit((s) => { s.layers[i] = { ...s.layers[i], thickness_mm: d }; })) {
+          if (d > 0 && setThickness(d)) {
             layer = this.host.file.layers[i];
             sub.title(layerTitle(layer, i));
           }
         })
-        .onFinishChange(() => { v.thickness_mm = this.host.file.layers[i]?.thickness_mm ?? v.thickness_mm; c.updateDisplay(); });
+        .onFinishChange((d: number) => {
+          if (!(d > 0)) setThickness(d);
+          v.thickness_mm = this.host.file.layers[i]?.thickness_mm ?? v.thickness_mm;
+          c.updateDisplay();
+        });
       tag(c, `layer-${i}-thickness`);
     }
     const move = (to: number): void => {

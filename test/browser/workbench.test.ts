@@ -227,6 +227,15 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await page.click(`[data-testid="layer-${n0 - 1}-remove"] button`);
     await expect.poll(layerCount).toBe(n0);
     await expect.poll(() => page.locator(`[data-testid="layer-${n0 - 1}-material"] select`).inputValue()).not.toBe('concrete');
+    // A negative thickness is refused with the field named (not clamped to some small value and applied).
+    const thickness = page.locator('[data-testid="layer-0-thickness"] input');
+    const before = await thickness.inputValue();
+    const v1 = (await stats()).version;
+    await thickness.fill('-4');
+    await thickness.press('Enter');
+    await expect.poll(() => page.locator('[data-testid="msg-edit"]').textContent()).toContain('layers[0].thickness_mm');
+    expect((await stats()).version).toBe(v1);
+    await expect(thickness.inputValue()).resolves.toBe(before);
   });
 
   it('cancels the background pulse run and starts it again', async () => {
