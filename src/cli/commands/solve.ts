@@ -42,7 +42,7 @@ export function writeReport(dir: string, report: Report, extra: readonly ReportF
 export const solve: Command = {
   name: 'solve',
   summary: 'exact R, T spectra and standing-wave profile of a stack into a directory',
-  usage: `Usage: slabecho solve FILE --out DIR
+  usage: `Usage: slabecho solve FILE --out DIR [--fem-order P] [--fem-density N]
 
 Solve the stack in FILE with the exact transfer-matrix method, cross-checked by the FEM, and write into DIR
 (created if needed):
