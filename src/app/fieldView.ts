@@ -47,6 +47,8 @@ export class FieldView {
   private sketch: StackSketch | null = null;
   private geometry: PulseGeometry | null = null;
   private frame: FieldFrame | null = null;
+  /** Shown in place of the time readout while there is no grid. */
+  private noGridNote = 'preparing the pulse run…';
   private yMax = 1.1;
   private width = 800;
   private dirty = true;
@@ -109,8 +111,10 @@ export class FieldView {
     this.dirty = true;
   }
 
-  setGeometry(geometry: PulseGeometry | null): void {
+  /** The pulse run's grid; null while it is prepared, or with `note` when there is none. */
+  setGeometry(geometry: PulseGeometry | null, note = 'preparing the pulse run…'): void {
     this.geometry = geometry;
+    this.noGridNote = note;
     this.frame = null;
     this.yMax = 1.1;
     this.dirty = true;
@@ -296,7 +300,7 @@ export class FieldView {
     const f = this.frame, geo = this.geometry;
     for (const name of TRACE_NAMES) this.traces[name].clear();
     if (f === null || geo === null) {
-      this.clock.text = geo === null ? 'preparing the pulse run…' : 't = 0.000 ns · step 0';
+      this.clock.text = geo === null ? this.noGridNote : 't = 0.000 ns · step 0';
       return;
     }
     // Grow the vertical scale if the field outgrows it (it never shrinks during a run).

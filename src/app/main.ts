@@ -53,6 +53,10 @@ class Workbench implements ControlHost {
   file: StackFile;
   stack: Stack;
   sketch: StackSketch;
+  /** The parser's warnings for the current stack. */
+  private inputWarnings: string[];
+  /** Why the pulse engine declined the current stack (shown once, not again among the warnings). */
+  private pulseRefusal: string[] = [];
   readonly settings: Settings;
   readonly presets = PRESETS.map((p) => p.name);
   presetName = DEFAULT_PRESET;
@@ -85,9 +89,10 @@ class Workbench implements ControlHost {
     solvedVersion: -1, reportVersion: -1, step: 0, playing: false, recording: false,
   };
 
-  constructor(initial: { file: StackFile; stack: Stack }, settings: Settings) {
+  constructor(initial: { file: StackFile; stack: Stack; warnings: string[] }, settings: Settings) {
     this.file = initial.file;
     this.stack = initial.stack;
+    this.inputWarnings = initial.warnings;
     this.sketch = sketchStack(initial.stack);
     this.settings = settings;
     this.engine = new Engine({
@@ -95,7 +100,7 @@ class Workbench implements ControlHost {
       solveFailed: (m) => this.messages.show('solve', 'error', 'The exact/FEM solve failed', m),
       pulseReady: (g) => this.onPulseReady(g),
       frame: (f) => { if (this.pendingFrame !== null) this.engine.recycle(this.pendingFrame); this.pendingFrame = f; },
-      pulseFailed: (m) => { this.messages.show('pulse', 'warn', 'No pulse animation for this stack:', m); this.setPlaying(false); },
+      pulseFailed: (m) => this.onPulseFailed(m),
       progress: (fr, note) => this.onProgress(fr, note),
       report: (r, id) => this.onReport(r, id),
       reportFailed: (m) => this.onReportFailed(m),
@@ -113,7 +118,7 @@ class Workbench implements ControlHost {
     this.wireButtons();
     this.wireKeys();
     this.showTitle();
-    this.messages.warnings(this.currentWarnings());
+    this.showWarnings();
     this.solveNow();
     this.restartPulse(0);
     requestAnimationFrame(() => this.loop());
@@ -163,21 +168,24 @@ class Workbench implements ControlHost {
   private apply(file: StackFile, stack: Stack, warnings: string[]): void {
     this.file = file;
     this.stack = stack;
+    this.inputWarnings = warnings;
     this.sketch = sketchStack(stack);
     this.version++;
     this.stats.version = this.version;
     storeStack(file);
     this.showTitle();
-    this.messages.warnings(warnings);
+    this.showWarnings();
     this.field.setStack(this.sketch);
     this.editStart = performance.now();
     this.solveNow();
     this.restartPulse(350);
   }
 
-  private currentWarnings(): string[] {
-    const r = parseStackObject(this.file);
-    return r.ok ? r.warnings : [];
+  /** The parser's, the latest solve's and (when current) the pulse run's warnings, each once. */
+  private showWarnings(): void {
+    const skipped = new Set(this.pulseRefusal.map((m) => `FDTD skipped: ${m}`));
+    const all = [...this.inputWarnings, ...(this.solved?.warnings ?? []), ...(this.reportCurrent()?.warnings ?? [])];
+    this.messages.warnings(all.filter((w) => !skipped.has(w)));
   }
 
   private showTitle(): void {
@@ -201,7 +209,7 @@ class Workbench implements ControlHost {
     this.stats.solvedVersion = v;
     this.stats.lastSolve_ms = s.ms;
     this.messages.clear('solve');
-    this.messages.warnings(this.currentWarnings(), s.warnings);
+    this.showWarnings();
     this.drawFrequencyViews();
   }
 
@@ -231,7 +239,7 @@ class Workbench implements ControlHost {
 
   private drawTraceView(): void {
     const rep = this.reportCurrent();
-    const note = rep !== null ? (rep.trace[0]?.data.length === 0 ? 'the pulse engine did not run for this stack (see the warnings)' : '')
+    const note = rep !== null ? (rep.trace[0]?.data.length === 0 ? 'the pulse engine did not run for this stack (see the messages above)' : '')
       : this.engine.reporting ? 'pulse run in progress…' : 'no finished pulse run for this stack';
     this.trace.show(rep?.trace ?? null, rep?.echoes ?? null, this.settings.envelope, note);
   }
@@ -249,7 +257,9 @@ class Workbench implements ControlHost {
       const settings = { accuracy: this.settings.accuracy };
       this.geometry = null;
       this.frame = null;
+      this.pulseRefusal = [];
       this.field.setGeometry(null);
+      this.field.render();
       this.engine.pulse(this.file, settings);
       if (this.reportWanted) this.startReport();
     }, delay_ms);
@@ -285,6 +295,15 @@ class Workbench implements ControlHost {
     this.field.render();
   }
 
+  private onPulseFailed(m: string[]): void {
+    this.pulseRefusal = m;
+    this.messages.show('pulse', 'warn', 'No pulse animation for this stack:', m);
+    this.setPlaying(false);
+    this.field.setGeometry(null, 'no pulse animation for this stack (see the message above)');
+    this.field.render();
+    this.showWarnings();
+  }
+
   private onProgress(fraction: number, note: string): void {
     this.setRunStatus('running', fraction, note);
   }
@@ -295,7 +314,7 @@ class Workbench implements ControlHost {
     this.reportVersion = this.reportRequestVersion;
     this.stats.reportVersion = this.reportVersion;
     this.setRunStatus('done', 1, `finished in ${(r.ms / 1000).toFixed(1)} s`);
-    this.messages.warnings(this.currentWarnings(), this.solved?.warnings ?? [], r.warnings);
+    this.showWarnings();
     this.drawTraceView();
     this.drawFrequencyViews();
   }
@@ -471,17 +490,17 @@ class Workbench implements ControlHost {
   }
 }
 
-function initialStack(): { file: StackFile; stack: Stack; note: string | null } {
+function initialStack(): { file: StackFile; stack: Stack; warnings: string[]; note: string | null } {
   const stored = loadStoredStack();
   if (stored !== undefined) {
     const r = parseStackObject(stored);
-    if (r.ok) return { file: r.file, stack: r.stack, note: null };
+    if (r.ok) return { ...r, note: null };
   }
   const r = parseStackObject(presetFile(DEFAULT_PRESET));
-  if (r.ok) return { file: r.file, stack: r.stack, note: stored !== undefined ? 'The stored stack was unreadable; the default preset is loaded.' : null };
+  if (r.ok) return { ...r, note: stored !== undefined ? 'The stored stack was unreadable; the default preset is loaded.' : null };
   const empty = parseStackObject({ title: 'Empty stack', band_GHz: [1, 10], layers: [] });
   if (!empty.ok) throw new Error(empty.errors.join('\n'));
-  return { file: empty.file, stack: empty.stack, note: `The default preset is invalid: ${r.errors.join('; ')}` };
+  return { ...empty, note: `The default preset is invalid: ${r.errors.join('; ')}` };
 }
 
 adoptGuiStyles();

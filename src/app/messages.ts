@@ -8,8 +8,8 @@ export class Messages {
 
   constructor(private readonly host: HTMLElement) {}
 
+  /** Show a message under `key`, in place of the one it replaces (so the strip does not reorder). */
   show(key: string, level: Level, title: string, items: readonly string[]): void {
-    this.clear(key);
     const box = document.createElement('div');
     box.className = `msg ${level}`;
     box.dataset.testid = `msg-${key}`;
@@ -37,7 +37,8 @@ export class Messages {
       }
       box.appendChild(ul);
     }
-    this.host.appendChild(box);
+    const old = this.boxes.get(key);
+    if (old !== undefined) old.replaceWith(box); else this.host.appendChild(box);
     this.boxes.set(key, box);
   }
 

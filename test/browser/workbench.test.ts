@@ -249,6 +249,27 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await page.waitForSelector('[data-testid="run-status"][data-state="done"]', { timeout: 120_000 });
   });
 
+  it('runs oblique TE in the pulse engine and says once, in words, why TM at an angle has no pulse run', async () => {
+    const state = (): Promise<string | null> => page.locator('[data-testid="run-status"]').getAttribute('data-state');
+    await page.locator('[data-testid="preset"] select').selectOption('radome-panel');
+    await page.waitForSelector('[data-testid="run-status"][data-state="done"]', { timeout: 120_000 });
+    await expect(page.locator('[data-testid="agreement"]').textContent()).resolves.toMatch(/FDTD vs exact/);
+    expect(await page.locator('[data-testid="msg-pulse"]').count()).toBe(0);
+    await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-oblique-TE.png') });
+    await page.locator('[data-testid="polarization"] select').selectOption('TM');
+    const refusal = page.locator('[data-testid="msg-pulse"]');
+    await refusal.waitFor();
+    await expect(refusal.textContent()).resolves.toContain('incidence.polarization');
+    await expect.poll(state).toBe('done');
+    // The refusal is not repeated among the warnings, and no FDTD row or echo is claimed.
+    await expect(page.locator('[data-testid="msg-warnings"]').textContent()).resolves.not.toContain('FDTD skipped');
+    const agreement = await page.locator('[data-testid="agreement"]').textContent();
+    expect(agreement).toMatch(/FEM vs exact/);
+    expect(agreement).not.toMatch(/FDTD/);
+    await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-oblique-TM.png') });
+    await page.locator('[data-testid="trace-view"]').screenshot({ path: join(ARTIFACTS, 'trace-view-oblique-TM.png') });
+  });
+
   it('keeps an edit across a reload', async () => {
     const input = page.locator('[data-testid="layer-0-thickness"] input');
     await input.fill('123.5');

@@ -14,8 +14,8 @@ export class TraceView {
   show(trace: readonly WireColumn[] | null, echoes: readonly WireColumn[] | null, asEnvelope: boolean, note: string): void {
     const t = num(trace, 't_ns');
     const inc = num(trace, 'E_incident'), refl = num(trace, 'E_reflected'), trans = num(trace, 'E_transmitted');
-    if (t === null || inc === null || refl === null) {
-      this.chart.set({ title: 'Echoes', subtitle: note, xLabel: 'time t (ns)', panels: [], empty: note || 'waiting for the pulse run' });
+    if (t === null || inc === null || refl === null || t.length === 0) {
+      this.chart.set({ title: 'Echoes', xLabel: 'time t (ns)', panels: [], empty: note || 'waiting for the pulse run' });
       return;
     }
     // Echo delays are measured from the incident pulse's envelope peak at x = 0.
