@@ -27,7 +27,12 @@ export function utf8Bytes(text: string): number {
 
 export function parseJsonText(text: string): JsonResult {
   try {
-    return { ok: true, value: JSON.parse(text) };
+    const value: unknown = JSON.parse(text);
+    // JSON.parse keeps the last of two equal keys without a word; a hand-edited file means one of them.
+    const dup = findJsonError(text, true);
+    if (dup === undefined) return { ok: true, value };
+    const { line, column } = lineColumn(text, dup.offset);
+    return { ok: false, error: `line ${line}, column ${column}: ${dup.reason}` };
   } catch (e) {
     const found = findJsonError(text);
     if (found === undefined) return { ok: false, error: `invalid JSON: ${e instanceof Error ? e.message : String(e)}` };
@@ -42,9 +47,15 @@ const HEX = /^[0-9a-fA-F]{4}$/;
 
 type Want = 'value' | 'value-or-close' | 'key' | 'key-or-close' | 'colon' | 'comma-or-close' | 'end';
 
-/** Offset and reason of the first syntax error in `s`, or undefined if it is valid JSON. Iterative: deep nesting is fine. */
-export function findJsonError(s: string): { offset: number; reason: string } | undefined {
+/**
+ * Offset and reason of the first syntax error in `s`, or undefined if it is valid JSON. With
+ * `refuseDuplicateKeys`, a key that appears twice in one object counts as an error too.
+ * Iterative: deep nesting is fine.
+ */
+export function findJsonError(s: string, refuseDuplicateKeys = false): { offset: number; reason: string } | undefined {
   const n = s.length, open: string[] = [];
+  /** The keys seen so far in each open object (null for a list), parallel to `open`. */
+  const keys: (Set<string> | null)[] = [];
   let i = 0, want: Want = 'value';
   const fail = (offset: number, reason: string) => ({ offset, reason });
   const afterValue = (): Want => (open.length > 0 ? 'comma-or-close' : 'end');
@@ -78,25 +89,31 @@ export function findJsonError(s: string): { offset: number; reason: string } | u
       case 'comma-or-close': {
         const close = open[open.length - 1] === '{' ? '}' : ']';
         if (ch === ',') { i++; want = close === '}' ? 'key' : 'value'; }
-        else if (ch === close) { open.pop(); i++; want = afterValue(); }
+        else if (ch === close) { open.pop(); keys.pop(); i++; want = afterValue(); }
         else return fail(i, `expected ',' or '${close}', found ${JSON.stringify(ch)}`);
         break;
       }
       case 'key':
       case 'key-or-close':
-        if (want === 'key-or-close' && ch === '}') { open.pop(); i++; want = afterValue(); break; }
+        if (want === 'key-or-close' && ch === '}') { open.pop(); keys.pop(); i++; want = afterValue(); break; }
         if (ch !== '"') return fail(i, want === 'key' && ch === '}' ? "trailing comma before '}'" : `expected a double-quoted key, found ${JSON.stringify(ch)}`);
         {
           const r = scanString();
           if (typeof r !== 'number') return r;
+          const seen = keys[keys.length - 1];
+          if (refuseDuplicateKeys && seen) {
+            const key = JSON.parse(s.slice(i, r)) as string;
+            if (seen.has(key)) return fail(i, `the key ${JSON.stringify(key)} appears twice in the same object (JSON keeps only the last); remove one`);
+            seen.add(key);
+          }
           i = r; want = 'colon';
         }
         break;
       case 'value':
       case 'value-or-close':
-        if (want === 'value-or-close' && ch === ']') { open.pop(); i++; want = afterValue(); break; }
-        if (ch === '{') { open.push('{'); i++; want = 'key-or-close'; break; }
-        if (ch === '[') { open.push('['); i++; want = 'value-or-close'; break; }
+        if (want === 'value-or-close' && ch === ']') { open.pop(); keys.pop(); i++; want = afterValue(); break; }
+        if (ch === '{') { open.push('{'); keys.push(new Set()); i++; want = 'key-or-close'; break; }
+        if (ch === '[') { open.push('['); keys.push(null); i++; want = 'value-or-close'; break; }
         if (ch === '"') {
           const r = scanString();
           if (typeof r !== 'number') return r;

@@ -16,6 +16,15 @@ describe('JSON syntax errors are located', () => {
     if (!r.ok) expect(r.error).toBe(`invalid JSON at line 3, column 3: expected ',' or '}', found "\\""`);
   });
 
+  it('refuses a key given twice in one object, which JSON.parse would silently resolve to the last', () => {
+    // RFC 8259 §4: names within an object SHOULD be unique; with duplicates, implementations differ.
+    const r = parseJsonText('{"band_GHz": [1, 3],\n "materials": {"foam": {}, "f\\u006fam": {}},\n "layers": [{"a": 1}, {"a": 2}]}');
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.error).toBe('line 2, column 28: the key "foam" appears twice in the same object (JSON keeps only the last); remove one');
+    // the same key in different objects, or a key equal to a value, is fine
+    expect(parseJsonText('{"a": {"a": "a"}, "b": [{"a": 1}, {"a": 2}]}').ok).toBe(true);
+  });
+
   it('counts UTF-8 bytes', () => {
     expect(utf8Bytes('aé€😀')).toBe(1 + 2 + 3 + 4); // RFC 3629 byte lengths
   });
