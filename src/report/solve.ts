@@ -177,6 +177,7 @@ function resultsInBrief(stack: Stack, sp: Spectrum): Record<string, unknown> {
   return out;
 }
 
-const round3 = (x: number): number => Math.round(x * 1e3) / 1e3;
-const round6 = (x: number): number => Math.round(x * 1e6) / 1e6;
+// `+ 0` turns −0 into 0: JSON has no −0, so a summary read back would differ from the one written.
+const round3 = (x: number): number => Math.round(x * 1e3) / 1e3 + 0;
+const round6 = (x: number): number => Math.round(x * 1e6) / 1e6 + 0;
 const roundDeg = (x: number): number => Number(x.toPrecision(10));

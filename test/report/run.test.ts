@@ -22,6 +22,9 @@ function expectNoNaN(r: Awaited<ReturnType<typeof runReport>>) {
   assertTable(r.trace);
   if (r.echoes.path.length) assertTable(r.echoes.columns);
   expect(JSON.stringify(r.summary)).not.toMatch(/NaN|Infinity/);
+  // JSON.stringify writes NaN and ±Infinity as null, so the text alone cannot show them: the summary must
+  // survive a round trip unchanged (a NaN would come back as null).
+  expect(JSON.parse(JSON.stringify(r.summary))).toEqual(r.summary);
 }
 
 type Row = { pair: string; R_max: number; T_max: number };
