@@ -7,7 +7,9 @@
 //   Σ_layers  2 d |k̃ − k| · bounce factor · attenuation in front of the layer
 // with k̃ from the 1D Yee dispersion relation (dispersion.ts): a phase error of δ radians on an
 // echo of amplitude a moves R by about a·δ. Δx is then trimmed down so the stack's thickness is a
-// whole number of cells: the front face (x = 0) and the back face fall exactly on E nodes.
+// whole number of cells: the front face (x = 0) and the back face fall exactly on E nodes. A stack of
+// a few microns (a film) is instead stepped within the cell at x = 0, when that errs by less than half
+// the accuracy target (`lumped` below).
 //
 // Time step: S = c0 Δt / Δx, default 1 (exact propagation in an air front medium), lowered to
 // √(min ε∞) when a medium has ε∞ < 1.
@@ -108,10 +110,21 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
     throw new PlanError(`courant: must be in (0, ${sMax.toPrecision(4)}] for these media (1D Yee stability)`, 'bad-input', { courant, max: sMax });
   }
 
-  // Shortest wavelength over the band in any medium.
-  let invLambdaMax = 0;
-  for (const m of media) for (const f of freqs) invLambdaMax = Math.max(invLambdaMax, (f * index(m, f).n) / C0_m_per_s);
-  const lambdaMin = 1 / invLambdaMax;
+  // A stack of a few microns is stepped inside the cell of the node at x = 0 (subcell averaging; its sheets on
+  // that node) and T is read there, when that costs at most half the accuracy target: moving T's reference
+  // plane by d errs by about k d in the media around it, a conductor behind moved to x = 0 by 2 k d, and
+  // lumping the stack by about (k d)² inside it. Forcing Δx down to its thickness would ask for millions of cells.
+  const thickness = effective.thickness_m;
+  const maxWavenumber = (m: StepModel): number => {
+    let k = 0;
+    for (const f of freqs) k = Math.max(k, (2 * Math.PI * f * index(m, f).n) / C0_m_per_s);
+    return k;
+  };
+  const kOut = Math.max(maxWavenumber(effective.front), effective.back === 'pec' ? 0 : maxWavenumber(effective.back));
+  const kIn = Math.max(0, ...effective.segments.map((s) => maxWavenumber(s.model)));
+  const lumped = thickness > 0 && 2 * kOut * thickness <= accuracy / 2 && (kIn * thickness) ** 2 <= accuracy / 2;
+  // Shortest wavelength over the band in any medium the grid resolves.
+  const lambdaMin = (2 * Math.PI) / (lumped ? kOut : Math.max(kOut, kIn));
 
   // Per-layer reflection environment (for the bounce factors), at band centre.
   const segs = effective.segments;
@@ -152,7 +165,6 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
     attAcc *= loss;
   }
 
-  const thickness = effective.thickness_m;
   // Sheets inside the stack: a resistive sheet is exact on an E node and only approximate between
   // two (its current is shared), so among slightly finer grids pick one that puts them on nodes.
   const innerSheets = effective.sheets.map((sh) => sh.x_m).filter((x) => x > 0 && x < thickness);
@@ -163,7 +175,7 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   };
   const cellsFor = (N: number): { dx: number; stackCells: number } => {
     const target = lambdaMin / N;
-    if (thickness <= 0) return { dx: target, stackCells: 0 };
+    if (thickness <= 0 || lumped) return { dx: target, stackCells: 0 };
     let stackCells = Math.max(1, Math.ceil(thickness / target - 1e-9));
     if (innerSheets.length > 0) {
       let best = stackCells, bestMis = misalignment(stackCells);
@@ -177,6 +189,7 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   };
   const phaseErrors = (dx: number): number[] => {
     const dt = (courant * dx) / C0_m_per_s;
+    if (lumped) return segs.map(() => 0); // no wave crosses a lumped stack on the grid
     return segs.map((s) => {
       let worst = 0;
       for (const f of freqs) worst = Math.max(worst, 2 * (s.x1_m - s.x0_m) * yeePhaseErrorPerMetre(f, index(s.model, f).n, dx, dt));
@@ -286,6 +299,11 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   if (innerSheets.length > 0 && misalignment(stackCells) > 0.05) {
     warnings.push(
       `a resistive sheet lies ${misalignment(stackCells).toFixed(2)} of a cell off the nearest grid node (no grid up to ${SHEET_ALIGN_RANGE}× finer puts every sheet on a node); its current is shared between two nodes, which may cost accuracy for low-resistance sheets.`,
+    );
+  }
+  if (lumped) {
+    warnings.push(
+      `the stack is ${(thickness * 1e6).toPrecision(3)} µm thick, much less than a cell (${(dx * 1e6).toPrecision(3)} µm): the pulse engine steps it within the cell at x = 0 and reads T there (error of order 2 k d = ${(2 * kOut * thickness).toPrecision(2)}).`,
     );
   }
   if (predictedError > accuracy) {

@@ -128,6 +128,19 @@ describe('pulse run vs the exact solution', () => {
     expect(err.T).toBeLessThan(run.plan.accuracyTarget);
   });
 
+  it('films of a micron alone (a resistive coating, a metal film; on air and on a conductor) are stepped within one cell', () => {
+    // Reference: the exact solver on the films themselves. Forcing Δx down to 1 µm would need ~1e11 cell-updates.
+    const coating = fixed(3, 2e3, 'coating'); // R_s = 1/(σd) = 500 Ω at 1 µm
+    const metal = material('metal', { model: 'fixed', eps_r: 1, sigma_S_per_m: 1e7 });
+    for (const stack of [stackOf([bulk(coating, 0.001)]), stackOf([bulk(metal, 0.0005)]), stackOf([bulk(coating, 0.001)], { back: 'pec' })]) {
+      const { err, run } = runAndCompare(stack);
+      expect(run.plan.nodes.back).toBe(run.plan.nodes.front);
+      expect(run.plan.cells).toBeLessThan(1000);
+      expect(err.R).toBeLessThan(run.plan.accuracyTarget);
+      expect(err.T).toBeLessThan(run.plan.accuracyTarget);
+    }
+  });
+
   it('Salisbury screen: η0 sheet a quarter wavelength (at 5 GHz) before a conductor nulls R there', () => {
     const f0 = 5e9, d = C0_m_per_s / f0 / 4;
     const stack = stackOf([sheet(ETA0_ohm), bulk(air, d * 1e3)], { back: 'pec', band_GHz: [2, 8] });
