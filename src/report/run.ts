@@ -17,7 +17,7 @@ import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.
 import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
 import { fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
-import { assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
+import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
 
 export interface RunOptions extends SolveOptions {
   pulse?: PulseOptions;
@@ -166,6 +166,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   assertTable(trace);
   const ech = echoColumns(echoes);
   if (ech.path.length > 0) assertTable(ech.columns);
+  assertFiniteValues(summary);
   progress(1);
   return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: allAgreement, stopped };
 }

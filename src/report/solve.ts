@@ -13,7 +13,7 @@ import { obliqueProfileWarning, stackWarnings } from '../stack/warnings.ts';
 import { absorption, solveTmm } from '../tmm/solve.ts';
 import { profilePositions, profileTmm } from '../tmm/profile.ts';
 import { SLABECHO_VERSION } from '../version.ts';
-import { assertTable, complexColumns, scaledColumn, type Column } from './table.ts';
+import { assertFiniteValues, assertTable, complexColumns, scaledColumn, type Column } from './table.ts';
 import type { FemOptions } from '../fem/types.ts';
 import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
 import { roundedRow, type AgreementRow } from './format-agreement.ts';
@@ -119,6 +119,7 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
     agreement: agreement.map(roundedRow),
     warnings,
   };
+  assertFiniteValues(summary);
   progress(1);
   return { spectrum, profile, summary, warnings, agreement };
 }

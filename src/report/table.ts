@@ -34,6 +34,20 @@ export function assertTable(columns: readonly Column[]): void {
   }
 }
 
+/**
+ * Check that every number in a JSON-bound value (a report's summary) is finite; throws TableError naming
+ * the first that is not. JSON.stringify would write NaN and ±Infinity as null without a word.
+ */
+export function assertFiniteValues(value: unknown, path = 'summary'): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new TableError(`${path} is ${value}`);
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => assertFiniteValues(v, `${path}[${i}]`));
+  } else if (value !== null && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) assertFiniteValues(v, `${path}.${k}`);
+  }
+}
+
 /** A number with 12 significant digits, trailing zeros dropped: 1.5, 0.000123, 1.23e-7, -0 → 0. */
 export function formatNumber(x: number): string {
   if (x === 0) return '0';

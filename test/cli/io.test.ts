@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { ensureDir, writeAtomic, writeFilesAtomic } from '../../src/cli/io.ts';
 import { InputError } from '../../src/cli/command.ts';
-import { formatCsv, formatNumber, TableError } from '../../src/report/table.ts';
+import { assertFiniteValues, formatCsv, formatNumber, TableError } from '../../src/report/table.ts';
 import { tempDir } from './support.ts';
 
 const tmp = tempDir();
@@ -56,6 +56,10 @@ describe('CSV', () => {
     expect(() => formatCsv([{ name: 'f_GHz', data: Float64Array.of(1, 2) }, { name: 'T_re', data: Float64Array.of(0, Number.NaN) }]))
       .toThrow(new TableError('column T_re holds NaN at row 1'));
     expect(() => formatCsv([{ name: 'E', data: Float64Array.of(Infinity) }])).toThrow(/column E holds Infinity/);
+  });
+  it('a summary with a non-finite number is refused, naming where it is', () => {
+    expect(() => assertFiniteValues({ a: [1, { b: Number.NaN }] })).toThrow(new TableError('summary.a[1].b is NaN'));
+    expect(() => assertFiniteValues({ a: null, b: 'x', c: [0, -1e300] })).not.toThrow();
   });
   it('refuses ragged or duplicate columns', () => {
     expect(() => formatCsv([{ name: 'a', data: new Float64Array(2) }, { name: 'b', data: new Float64Array(3) }])).toThrow(/rows/);
