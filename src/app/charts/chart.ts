@@ -52,7 +52,11 @@ export interface ChartSpec {
   panels: ChartPanel[];
   /** Shown centred when there is nothing to draw. */
   empty?: string;
+  /** Lines of text under the x axis (e.g. the key to numbered markers); the canvas grows to fit. */
+  footer?: string[];
 }
+
+const FOOTER_LINE = 15;
 
 const PAD = { left: 62, right: 16, top: 34, bottom: 38, gap: 26 };
 
@@ -94,7 +98,8 @@ export class Chart {
     const host = this.canvas.parentElement;
     if (host === null) return;
     const w = Math.max(200, Math.floor(host.clientWidth));
-    const h = this.heightPx;
+    const footer = this.spec?.footer ?? [];
+    const h = this.heightPx + (footer.length > 0 ? 8 + FOOTER_LINE * footer.length : 0);
     const dpr = Math.min(2, window.devicePixelRatio || 1);
     if (w !== this.cssW || h !== this.cssH || this.canvas.width !== Math.round(w * dpr)) {
       this.cssW = w; this.cssH = h;
@@ -108,7 +113,8 @@ export class Chart {
     ctx.fillStyle = THEME.panel;
     ctx.fillRect(0, 0, w, h);
     const spec = this.spec;
-    if (spec !== null) this.paint(spec, w, h);
+    if (spec !== null) this.paint(spec, w, this.heightPx);
+    if (footer.length > 0) this.paintFooter(footer, w, this.heightPx);
     this.draws++;
     this.onDraw?.();
   }
@@ -149,6 +155,15 @@ export class Chart {
     });
   }
 
+  private paintFooter(lines: string[], w: number, top: number): void {
+    const ctx = this.ctx;
+    ctx.font = `11px ${THEME.mono}`;
+    ctx.fillStyle = THEME.ink;
+    ctx.textAlign = 'left';
+    ctx.textBaseline = 'alphabetic';
+    lines.forEach((line, i) => ctx.fillText(fitText(ctx, line, w - 24), 12, top + FOOTER_LINE * (i + 1)));
+  }
+
   private paintPanel(
     panel: ChartPanel, xr: [number, number], xTicks: number[], xToPx: (x: number) => number,
     left: number, top: number, width: number, height: number, xLabel: string | null,
@@ -187,8 +202,8 @@ export class Chart {
       const a = Math.max(left, xToPx(b.x0)), z = Math.min(left + width, xToPx(b.x1));
       if (z - a > ctx.measureText(b.label).width + 4) ctx.fillText(b.label, (a + z) / 2, top + height - 4);
     }
-    // Markers.
-    let row = 0;
+    // Markers; a label goes in the first of four rows where it does not overlap the one before it.
+    const rowEnd = [-Infinity, -Infinity, -Infinity, -Infinity];
     for (const m of panel.markers ?? []) {
       const p = Math.round(xToPx(m.x)) + 0.5;
       if (p < left || p > left + width) continue;
@@ -198,9 +213,15 @@ export class Chart {
       ctx.setLineDash([]);
       if (m.label !== undefined) {
         ctx.fillStyle = m.color ?? THEME.inkSoft;
-        ctx.textAlign = p > left + width - 120 ? 'right' : 'left';
-        ctx.fillText(m.label, p + (ctx.textAlign === 'right' ? -3 : 3), top + 12 + 12 * (row % 4));
-        row++;
+        // Right of the line when it fits, else left of it; never past the plot's edge.
+        const label = fitText(ctx, m.label, width - 6);
+        const tw = ctx.measureText(label).width;
+        const x0 = p + 3 + tw <= left + width ? p + 3 : Math.max(left + 3, p - 3 - tw);
+        const free = rowEnd.findIndex((end) => x0 > end + 4);
+        const row = free >= 0 ? free : rowEnd.indexOf(Math.min(...rowEnd));
+        rowEnd[row] = x0 + tw;
+        ctx.textAlign = 'left';
+        ctx.fillText(label, x0, top + 12 + 12 * row);
       }
     }
     // Series.
@@ -299,6 +320,14 @@ function autoY(panel: ChartPanel, xr: [number, number]): [number, number] {
   if (hi - lo < 1e-12 * Math.max(1, Math.abs(hi))) { const c = lo; return [c - 1, c + 1]; }
   const pad = 0.06 * (hi - lo);
   return [lo - pad, hi + pad];
+}
+
+/** `text`, cut with an ellipsis to fit `maxWidth` px in the current font. */
+function fitText(ctx: CanvasRenderingContext2D, text: string, maxWidth: number): string {
+  if (ctx.measureText(text).width <= maxWidth) return text;
+  let n = text.length;
+  while (n > 1 && ctx.measureText(`${text.slice(0, n)}…`).width > maxWidth) n--;
+  return `${text.slice(0, n)}…`;
 }
 
 function hatch(ctx: CanvasRenderingContext2D, x: number, y: number, w: number, h: number, color: string): void {

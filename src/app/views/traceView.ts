@@ -23,12 +23,17 @@ export class TraceView {
     let k0 = 0;
     for (let i = 1; i < eInc.length; i++) if (eInc[i] > eInc[k0]) k0 = i;
     const t0 = t[k0], peak = eInc[k0] > 0 ? eInc[k0] : 1;
+    // Each echo is marked with its number; the key under the chart gives its delay, level and path.
     const et = num(echoes, 't_ns'), lv = num(echoes, 'level_dB'), paths = text(echoes, 'path');
     const markers: ChartMarker[] = [];
-    if (et !== null) {
+    const key: string[] = [];
+    if (et !== null && et.length > 0) {
+      key.push('Echoes marked above: delay after the front-face echo, level re the incident pulse, path');
       for (let i = 0; i < et.length; i++) {
-        const level = lv !== null ? ` (${lv[i].toFixed(1)} dB)` : '';
-        markers.push({ x: t0 + et[i], label: `${paths?.[i] ?? `echo ${i + 1}`}${level}`, color: THEME.reflected });
+        markers.push({ x: t0 + et[i], label: String(i + 1), color: THEME.reflected });
+        const level = lv !== null ? `${lv[i].toFixed(1).replace('-', '−')} dB` : '';
+        const delay = `${et[i] >= 0 ? '+' : '−'}${Math.abs(et[i]).toFixed(3)} ns`;
+        key.push(`${String(i + 1).padStart(2)}  ${delay.padStart(10)}  ${level.padStart(9)}  ${paths?.[i] ?? ''}`);
       }
     }
     const toDb = (x: Float64Array): Float64Array => {
@@ -55,6 +60,6 @@ export class TraceView {
         yFloor: asEnvelope ? -90 : undefined,
       });
     }
-    this.chart.set({ title: 'Echoes', subtitle: note, xLabel: 'time t (ns)', panels });
+    this.chart.set({ title: 'Echoes', subtitle: note, xLabel: 'time t (ns)', panels, footer: key });
   }
 }
