@@ -24,16 +24,16 @@ const ENERGY_EVERY = 4;
 /** Energy above this multiple of the peak seen while the source was on means a blow-up. */
 const BLOWUP_FACTOR = 100;
 
+/** A probe's time record; room is made before a batch of steps, so stepping itself allocates nothing. */
 class Recorder {
   data: Float64Array;
   constructor(capacity: number) { this.data = new Float64Array(Math.max(16, capacity)); }
-  set(k: number, v: number): void {
-    if (k >= this.data.length) {
-      const grown = new Float64Array(this.data.length * 2);
-      grown.set(this.data);
-      this.data = grown;
-    }
-    this.data[k] = v;
+  /** Make room for samples 0 … k (doubling, so a long run reallocates only a few times). */
+  reserve(k: number): void {
+    if (k < this.data.length) return;
+    const grown = new Float64Array(Math.max(k + 1, this.data.length * 2));
+    grown.set(this.data);
+    this.data = grown;
   }
 }
 
@@ -72,7 +72,6 @@ class Run implements PulseRun {
     this.recRef = new Recorder(cap);
     this.recTra = new Recorder(cap);
     this.recSf = new Recorder(cap);
-    for (const r of [this.recInc, this.recRef, this.recTra, this.recSf]) r.set(0, 0);
     const nodes = plan.nodes;
     this.dftLo = nodes.tfsf;
     const dftHi = plan.effective.back === 'pec' ? nodes.back + 1 : nodes.pmlBackStart;
@@ -95,6 +94,8 @@ class Run implements PulseRun {
     const main = this.main, aux = this.aux, nodes = this.plan.nodes;
     const off = nodes.auxOffset, a = nodes.tfsf;
     const dt = this.plan.dt_s, pulse = this.plan.pulse, limit = this.plan.stepsLimit;
+    const last = count > 0 ? Math.min(this.n + Math.ceil(count), limit) : this.n; // NaN/Infinity: limit or none
+    for (const r of [this.recInc, this.recRef, this.recTra, this.recSf]) r.reserve(last);
     while (taken < count && this.finished === null) {
       if (this.n >= limit) { this.finish('step-limit'); break; }
       // H half step (TF/SF: the scattered H in front of the plane must not see the incident E).
@@ -119,10 +120,10 @@ class Run implements PulseRun {
     const nodes = this.plan.nodes, e = this.main.e, k = this.n;
     const inc = this.aux.e[nodes.front - nodes.auxOffset];
     const tot = e[nodes.front];
-    this.recInc.set(k, inc);
-    this.recRef.set(k, tot - inc);
-    this.recTra.set(k, this.plan.effective.back === 'pec' ? 0 : e[nodes.back]);
-    this.recSf.set(k, e[nodes.sfProbe]);
+    this.recInc.data[k] = inc;
+    this.recRef.data[k] = tot - inc;
+    this.recTra.data[k] = this.plan.effective.back === 'pec' ? 0 : e[nodes.back];
+    this.recSf.data[k] = e[nodes.sfProbe];
     this.count = k + 1;
     // Running DFT, e^{−jωt} kernel (e^{+jωt} phasors).
     const ph = this.omegaDt * k, c = Math.cos(ph), s = Math.sin(ph);
