@@ -80,12 +80,13 @@ export function resolveStack(stack: Stack): Resolved {
       );
       sheets.push({ x_m: x + d / 2, conductance_S: sigma * d, label });
       conductors++;
-      segments.push({ x0_m: x, x1_m: x + d, model: previous, label: `${label} (film filled with its neighbour)` });
+      const name = `${layer.material.name} (film filled with its neighbour)`;
+      segments.push({ x0_m: x, x1_m: x + d, model: previous, layer: i, name, label: `layers[${i}] ${name}` });
       x += d;
       continue;
     }
     const model = modelOf(layer.material);
-    segments.push({ x0_m: x, x1_m: x + d, model, label });
+    segments.push({ x0_m: x, x1_m: x + d, model, layer: i, name: layer.material.name, label });
     previous = model;
     x += d;
   }

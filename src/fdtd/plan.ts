@@ -285,10 +285,9 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   }
 
   const layers: LayerGridFigures[] = segs.map((s, i) => {
-    const idx = Number(/^layers\[(\d+)\]/.exec(s.label)?.[1] ?? i);
     const nTop = index(s.model, fTop).n;
     return {
-      index: idx, name: s.label.replace(/^layers\[\d+\] /, ''),
+      index: s.layer, name: s.name,
       n_top: nTop,
       cellsPerWavelength: C0_m_per_s / (fTop * nTop) / dx,
       cells: (s.x1_m - s.x0_m) / dx,

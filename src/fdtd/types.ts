@@ -71,7 +71,13 @@ export interface GridNodes {
 }
 
 /** A bulk region of the effective stack, in metres from the front face. */
-export interface GridSegment { x0_m: number; x1_m: number; model: StepModel; label: string }
+export interface GridSegment {
+  x0_m: number; x1_m: number; model: StepModel;
+  /** Index into stack.layers, and the name the grid figures give it. */
+  layer: number; name: string;
+  /** `layers[i] name`, for messages. */
+  label: string;
+}
 /** A zero-thickness resistive sheet. */
 export interface GridSheet { x_m: number; conductance_S: number; label: string }
 
