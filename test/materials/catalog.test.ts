@@ -82,7 +82,7 @@ describe('ITU-R P.2040-3 Table 3 materials', () => {
     expect(m.note).toContain('1.6 µm at 10 GHz');
   });
 
-  it('air is ε_r = 1, lossless, with no validity limit', () => {
+  it('air is ε_r = 1, lossless, with no validity limit (ITU-R P.2040-3 Table 3 vacuum row)', () => {
     const e = permittivity(bulk('air'), 5 * GHz);
     expect(e).toEqual({ re: 1, im: -0 });
     expect(catalogMaterial('air')!.valid_GHz).toBeNull();
@@ -109,7 +109,7 @@ describe('water at 25 °C, single Debye pole', () => {
 });
 
 describe('catalog integrity', () => {
-  it('every entry has a source and a sane validity range, and is frozen', () => {
+  it('every entry has a source and a sane validity range, and is frozen (bookkeeping, no source)', () => {
     for (const m of CATALOG) {
       expect(m.source.length).toBeGreaterThan(3);
       if (m.valid_GHz) expect(m.valid_GHz[0]).toBeLessThan(m.valid_GHz[1]);

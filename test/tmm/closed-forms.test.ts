@@ -123,7 +123,7 @@ describe('perfect conductor (common practice, no source)', () => {
   });
 });
 
-describe('profile', () => {
+describe('profile (tangential E is continuous across every face and sheet: common practice, no source; positions per README "solve")', () => {
   it('is continuous at every interface and equals 1 + R at x = 0 and T at the back face', () => {
     const st = makeStack({ layers: [layer(dielectric(4, 0.02), 0.03), sheet(200), layer(dielectric(2.2), 0.05)], back: dielectric(9) });
     const { R, T } = tmmAt(st, f);
@@ -153,7 +153,7 @@ describe('profile', () => {
   });
 });
 
-describe('energy', () => {
+describe('energy (Poynting: power along x is ½ Re(Y)|E_t|², so a lossless stack has |R|² + P|T|² = 1; Orfanidis ch. 7, from memory)', () => {
   it('lossless oblique stacks conserve power with the transmitted power factor (TE and TM)', () => {
     for (const polarization of ['TE', 'TM'] as const) {
       const st = makeStack({ layers: [layer(dielectric(4), 0.02), layer(dielectric(2.5), 0.011)], back: dielectric(3), angle_deg: 35, polarization, band_GHz: [1, 12], points: 23 });
