@@ -80,9 +80,9 @@ export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], materi
       A[s * n + 2 + k] = (wi * wt) / d;
     }
     for (let k = 0; k < nOsc; k++) {
-      const a = osc[k].w0sq - w * w, g = w * osc[k].gamma, d = a * a + g * g;
+      const a = osc[k].w0sq - w * w, b = w * osc[k].gamma, d = a * a + b * b; // c/(a + jb)
       A[r * n + 2 + nPoles + k] = (wr * a) / d;
-      A[s * n + 2 + nPoles + k] = (wi * g) / d;
+      A[s * n + 2 + nPoles + k] = (wi * b) / d;
     }
   }
   // Column scaling for conditioning.
