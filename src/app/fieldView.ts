@@ -52,8 +52,6 @@ export class FieldView {
   private yMax = 1.1;
   private width = 800;
   private dirty = true;
-  /** Frames rendered (the benchmark and the tests read this). */
-  renders = 0;
 
   static async create(host: HTMLElement, options: FieldViewOptions): Promise<FieldView> {
     const v = new FieldView(host, options);
@@ -124,12 +122,6 @@ export class FieldView {
     this.frame = frame;
   }
 
-  /** The frame's buffers, to hand back to the worker once drawn. */
-  takeFrame(): FieldFrame | null {
-    const f = this.frame;
-    return f;
-  }
-
   private xRange(): [number, number] {
     const g = this.geometry;
     if (g !== null && g.x_m.length > 1) {
@@ -161,7 +153,6 @@ export class FieldView {
     if (this.dirty) this.drawStatic();
     this.drawTraces();
     this.app.renderer.render(this.app.stage);
-    this.renders++;
   }
 
   private drawStatic(): void {
@@ -178,6 +169,13 @@ export class FieldView {
     g.rect(left, top, w, h).fill({ color: hexNumber(THEME.panel) });
     const clampX = (x: number): number => Math.min(left + w, Math.max(left, x));
     const sk = this.sketch;
+    const xFront = clampX(this.px(this.toPlot(0), xr));
+    const xBack = sk === null ? left + w : clampX(this.px(this.toPlot(sk.thickness_m), xr));
+    // The half-spaces in front of and behind the stack, tinted and named like the layers.
+    if (sk !== null) {
+      g.rect(left, top, xFront - left, h).fill({ color: hexNumber(bandTint(sk.front)) });
+      if (!sk.pec) g.rect(xBack, top, left + w - xBack, h).fill({ color: hexNumber(bandTint(sk.back)) });
+    }
     // Absorbing regions.
     for (const [a, b] of this.geometry?.absorbers ?? []) {
       const x0 = clampX(this.px(this.toPlot(a), xr)), x1 = clampX(this.px(this.toPlot(b), xr));
@@ -207,9 +205,15 @@ export class FieldView {
         t.position.set((x0 + x1) / 2 - t.width / 2, top + h - 16 - 13 * (labelRow++ % 2));
         this.labels.addChild(t);
       }
+      const front = small(sk.front, THEME.inkSoft, 11);
+      if (front.width < xFront - left - 12) { front.position.set(xFront - 6 - front.width, top + h - 16); this.labels.addChild(front); } else front.destroy();
+      if (!sk.pec) {
+        const back = small(sk.back, THEME.inkSoft, 11);
+        if (back.width < left + w - xBack - 12) { back.position.set(xBack + 6, top + h - 16); this.labels.addChild(back); } else back.destroy();
+      }
       // Conductor behind the stack.
       if (sk.pec) {
-        const x0 = clampX(this.px(this.toPlot(sk.thickness_m), xr)), x1 = left + w;
+        const x0 = xBack, x1 = left + w;
         g.rect(x0, top, Math.max(3, x1 - x0), h).fill({ color: hexNumber(THEME.conductor) });
         for (let k = x0 - h; k < x1; k += 6) {
           const a0 = Math.max(k, x0), a1 = Math.min(k + h, x1);
@@ -225,13 +229,14 @@ export class FieldView {
         const x = this.px(this.toPlot(l.x0_m), xr);
         g.moveTo(x, top).lineTo(x, top + h).stroke({ width: 3, color: hexNumber(THEME.sheet) });
         g.poly([x, top - 7, x + 5, top - 2, x, top + 3, x - 5, top - 2]).fill({ color: hexNumber(THEME.sheet) });
+        // Right of the line when it fits before the conductor or the plot's edge, else left of it.
         const t = small(l.label, THEME.sheet, 10);
-        t.position.set(Math.min(left + w - t.width, x + 6), top + 16);
+        const limit = sk.pec ? xBack : left + w;
+        t.position.set(x + 6 + t.width <= limit - 2 ? x + 6 : Math.max(left + 2, x - 6 - t.width), top + 16);
         this.labels.addChild(t);
       }
       // Front face marker.
-      const xf = this.px(this.toPlot(0), xr);
-      g.moveTo(xf, top).lineTo(xf, top + h).stroke({ width: 1, color: hexNumber(THEME.ink), alpha: 0.5 });
+      g.moveTo(xFront, top).lineTo(xFront, top + h).stroke({ width: 1, color: hexNumber(THEME.ink), alpha: 0.5 });
     }
     // Probes and the source plane: a faint line with a small triangle at the top of the plot.
     for (const p of this.geometry?.probes ?? []) {
@@ -241,7 +246,9 @@ export class FieldView {
       g.poly([x - 5, top, x + 5, top, x, top + 8]).fill({ color });
       g.moveTo(x, top).lineTo(x, top + h).stroke({ width: 1, color, alpha: 0.35 });
       const t = small(p.label, p.kind === 'source' ? THEME.source : THEME.probe, 10);
-      const right = x + 7 + t.width < left + w;
+      // The probe at the front face is labelled on its front side, so it never meets the back probe's
+      // label on a thin stack.
+      const right = !(p.kind === 'probe' && p.x_m <= 0) && x + 7 + t.width < left + w;
       t.position.set(right ? x + 7 : x - 7 - t.width, top + 2);
       this.labels.addChild(t);
     }
@@ -257,9 +264,10 @@ export class FieldView {
       lab.position.set(x - lab.width / 2, top + h + 6);
       this.labels.addChild(lab);
     }
-    const unit = this.options.xUnit === 'mm'
+    const unit = (this.options.xUnit === 'mm'
       ? 'position x (mm), front face at 0'
-      : `position x / λ₀ at ${fmt(this.options.lambdaAt_Hz / 1e9)} GHz, front face at 0`;
+      : `position x / λ₀ at ${fmt(this.options.lambdaAt_Hz / 1e9)} GHz, front face at 0`)
+      + (sk?.oblique != null ? ` · ${sk.oblique}: the field along one line normal to the faces` : '');
     const axisLabel = small(unit, THEME.inkSoft, 11);
     axisLabel.position.set(left + w / 2 - axisLabel.width / 2, HEIGHT - 17);
     this.labels.addChild(axisLabel);
@@ -277,7 +285,7 @@ export class FieldView {
     let lx = left + w;
     for (let i = TRACE_NAMES.length - 1; i >= 0; i--) {
       const name = TRACE_NAMES[i];
-      if (!this.options.traces[name]) continue;
+      if (!this.options.traces[name] || (name === 'transmitted' && sk?.pec === true)) continue;
       const t = small(TRACE_LABEL[name], THEME.ink, 12);
       lx -= t.width;
       t.position.set(lx, 12);

@@ -23,6 +23,8 @@ export interface StackSketch {
   pec: boolean;
   thickness_m: number;
   layers: SketchLayer[];
+  /** "30° TE" at oblique incidence, null at normal incidence. */
+  oblique: string | null;
 }
 
 export function sketchStack(stack: Stack): StackSketch {
@@ -44,6 +46,8 @@ export function sketchStack(stack: Stack): StackSketch {
     pec: stack.back === 'pec',
     thickness_m: pos[stack.layers.length],
     layers,
+    oblique: stack.incidence.angle_rad !== 0
+      ? `${fmt((stack.incidence.angle_rad * 180) / Math.PI)}° ${stack.incidence.polarization}` : null,
   };
 }
 
