@@ -30,6 +30,12 @@ export class ProfileView {
       }
     }
     const bands: ChartBand[] = [];
+    if (sketch !== null && Number.isFinite(xMin)) {
+      // The half-spaces, tinted and named like the layers.
+      const d = sketch.thickness_m * 1e3;
+      bands.push({ x0: xMin, x1: 0, color: bandTint(sketch.front), label: sketch.front });
+      if (!sketch.pec) bands.push({ x0: d, x1: xMax, color: bandTint(sketch.back), label: sketch.back });
+    }
     if (sketch !== null) {
       for (const l of sketch.layers) {
         if (l.kind === 'bulk') bands.push({ x0: l.x0_m * 1e3, x1: l.x1_m * 1e3, color: bandTint(l.material), label: l.material });
