@@ -41,7 +41,9 @@ export class AgreementView {
       for (const row of rows) {
         const verdict = row.target === undefined ? 'material model share'
           : `${sci(row.target)} ${row.within_target ? 'met' : 'NOT met'}`;
-        table.append(tr([pairLabel(row.pair), sci(row.R_max), ghz(row.R_worst_f_GHz), sci(row.T_max), ghz(row.T_worst_f_GHz), verdict],
+        // Behind a conductor T is zero for every method: nothing to compare, so no worst frequency.
+        const noT = row.T_max === 0;
+        table.append(tr([pairLabel(row.pair), sci(row.R_max), ghz(row.R_worst_f_GHz), noT ? '—' : sci(row.T_max), noT ? '—' : ghz(row.T_worst_f_GHz), verdict],
           'td', row.within_target === false ? 'missed' : ''));
       }
       this.el.append(table);
