@@ -98,10 +98,12 @@ export class Controls {
       if (!host.edit((s) => { s.back = m; })) revert();
     }), 'back');
     add(folder.add(v, 'fmin').name('band from (GHz)').onFinishChange((x: number) => {
-      if (!host.edit((s) => { s.band_GHz = [x, s.band_GHz[1]]; clampProfile(s); })) revert(); else this.syncProfile();
+      host.edit((s) => { s.band_GHz = [x, s.band_GHz[1]]; clampProfile(s); });
+      this.buildStack(); // shows the clamped profile frequency and the slider's new range, or reverts
     }), 'band-min');
     add(folder.add(v, 'fmax').name('band to (GHz)').onFinishChange((x: number) => {
-      if (!host.edit((s) => { s.band_GHz = [s.band_GHz[0], x]; clampProfile(s); })) revert(); else this.syncProfile();
+      host.edit((s) => { s.band_GHz = [s.band_GHz[0], x]; clampProfile(s); });
+      this.buildStack(); // shows the clamped profile frequency and the slider's new range, or reverts
     }), 'band-max');
     add(folder.add(v, 'points').step(1).name('spectrum points').onFinishChange((x: number) => {
       if (!host.edit((s) => { s.points = Math.round(x); })) revert();
@@ -116,8 +118,6 @@ export class Controls {
       if (!host.edit((s) => { s.profile_GHz = x; })) revert();
     }), 'profile-GHz');
   }
-
-  private syncProfile(): void { this.buildStack(); }
 
   private buildLayers(): void {
     const folder = this.layersFolder;

@@ -73,8 +73,6 @@ export class Engine {
     return true;
   }
 
-  get busyAdvancing(): boolean { return this.advanceInFlight; }
-
   /** Back to step 0 of the current run; a frame follows. */
   rewind(): void {
     if (this.pulseId === 0) return;

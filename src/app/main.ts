@@ -102,7 +102,7 @@ class Workbench implements ControlHost {
       frame: (f) => { if (this.pendingFrame !== null) this.engine.recycle(this.pendingFrame); this.pendingFrame = f; },
       pulseFailed: (m) => this.onPulseFailed(m),
       progress: (fr, note) => this.onProgress(fr, note),
-      report: (r, id) => this.onReport(r, id),
+      report: (r) => this.onReport(r),
       reportFailed: (m) => this.onReportFailed(m),
     });
   }
@@ -308,7 +308,7 @@ class Workbench implements ControlHost {
     this.setRunStatus('running', fraction, note);
   }
 
-  private onReport(r: WireReport, _id: number): void {
+  private onReport(r: WireReport): void {
     this.reportWanted = false;
     this.report = r;
     this.reportVersion = this.reportRequestVersion;

@@ -22,20 +22,13 @@ export interface RunSettings {
 /** Where things are on the pulse run's grid, for drawing. Positions in metres, x = 0 at the front face. */
 export interface PulseGeometry {
   cells: number;
-  dx_m: number;
-  dt_s: number;
   courant: number;
   /** Position of every E node. */
   x_m: Float64Array;
-  /** Back face of the stack. */
-  back_m: number;
   /** Absorbing regions at the open ends, [from, to]. */
   absorbers: Array<[number, number]>;
   /** Probes and the source plane. */
   probes: Array<{ label: string; x_m: number; kind: 'probe' | 'source' }>;
-  /** Steps the engine expects to need (a guide for the timeline; it may stop earlier or later). */
-  expectedSteps: number;
-  warnings: string[];
 }
 
 /** One animation frame of the pulse run. Arrays have `cells` entries; NaN where a trace is not defined. */

@@ -45,10 +45,7 @@ function geometryOf(r: PulseRun, stack: Stack): PulseGeometry {
     { label: 'R probe', x_m: at(n.front), kind: 'probe' },
   ];
   if (stack.back !== 'pec') probes.push({ label: 'T probe', x_m: at(n.back), kind: 'probe' });
-  return {
-    cells: n.total, dx_m: p.dx_m, dt_s: p.dt_s, courant: p.courant, x_m: x,
-    back_m: p.effective.thickness_m, absorbers, probes, expectedSteps: p.expectedSteps, warnings: [...p.warnings],
-  };
+  return { cells: n.total, courant: p.courant, x_m: x, absorbers, probes };
 }
 
 function buffers(recycle: FieldFrame | null, n: number): FieldFrame {

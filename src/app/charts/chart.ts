@@ -13,8 +13,6 @@ export interface ChartSeries {
   color: string;
   width?: number;
   dash?: number[];
-  /** Left out of the legend (e.g. a second half of a split curve). */
-  noLegend?: boolean;
 }
 
 export interface ChartMarker {
@@ -257,7 +255,6 @@ export class Chart {
     let x = left + width;
     for (let i = panel.series.length - 1; i >= 0; i--) {
       const s = panel.series[i];
-      if (s.noLegend === true) continue;
       const tw = ctx.measureText(s.label).width;
       x -= tw;
       ctx.fillStyle = THEME.ink;
