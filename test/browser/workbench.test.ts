@@ -192,6 +192,24 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await page.screenshot({ path: join(ARTIFACTS, 'workbench.png'), fullPage: true });
   });
 
+  it('switches the spectrum to phase and group delay and the echoes to a dB envelope (each redraws the chart)', async () => {
+    const pixels = (id: string): Promise<string> => page.locator(`[data-testid="${id}"] canvas`).evaluate((c) => (c as HTMLCanvasElement).toDataURL());
+    const seen = new Set([await pixels('spectrum-view')]);
+    for (const mode of ['phase', 'group delay', 'magnitude']) {
+      await page.locator('[data-testid="spectrum-mode"] select').selectOption(mode);
+      await expect.poll(() => pixels('spectrum-view')).not.toBe([...seen].at(-1));
+      seen.add(await pixels('spectrum-view'));
+      await page.locator('[data-testid="spectrum-view"]').screenshot({ path: join(ARTIFACTS, `spectrum-view-${mode.replace(' ', '-')}.png`) });
+    }
+    expect(seen.size).toBe(3); // magnitude, phase, group delay (the last switch comes back to the first picture)
+    const plain = await pixels('trace-view');
+    await page.locator('[data-testid="envelope"] input').check();
+    await expect.poll(() => pixels('trace-view')).not.toBe(plain);
+    await page.locator('[data-testid="trace-view"]').screenshot({ path: join(ARTIFACTS, 'trace-view-envelope.png') });
+    await page.locator('[data-testid="envelope"] input').uncheck();
+    await expect.poll(() => pixels('trace-view')).toBe(plain);
+  });
+
   it('refuses a bad import with the parser’s field-named message and keeps the stack', async () => {
     const titleBefore = await page.locator('[data-testid="stack-title"]').textContent();
     const versionBefore = (await stats()).version;
@@ -255,6 +273,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await page.waitForSelector('[data-testid="run-status"][data-state="done"]', { timeout: 120_000 });
     await expect(page.locator('[data-testid="agreement"]').textContent()).resolves.toMatch(/FDTD vs exact/);
     expect(await page.locator('[data-testid="msg-pulse"]').count()).toBe(0);
+    await page.evaluate(() => window.scrollTo(0, 0)); // keep the sticky top bar off the screenshots
     await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-oblique-TE.png') });
     await page.locator('[data-testid="polarization"] select').selectOption('TM');
     const refusal = page.locator('[data-testid="msg-pulse"]');
@@ -266,6 +285,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     const agreement = await page.locator('[data-testid="agreement"]').textContent();
     expect(agreement).toMatch(/FEM vs exact/);
     expect(agreement).not.toMatch(/FDTD/);
+    await page.evaluate(() => window.scrollTo(0, 0));
     await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-oblique-TM.png') });
     await page.locator('[data-testid="trace-view"]').screenshot({ path: join(ARTIFACTS, 'trace-view-oblique-TM.png') });
   });
