@@ -3,7 +3,7 @@
 //     named after the strongest. The next strongest, if at least 0.35 as strong, is named with it, the two in
 //     order of arrival, joined by " & " and marked "(unresolved)": paths closer than the pulse width arrive as one echo.
 //   - An echo with no candidate, within two pulse widths of a measured echo at least 4× (12 dB)
-//     stronger, is a change of that echo's shape (frequency-dependent reflection or loss spread the
+//     stronger (or of another part of that echo's reshaped tail), is a change of that echo's shape (frequency-dependent reflection or loss spread the
 //     pulse; the echo extraction represents the spread as extra delayed copies): "reshaping of …".
 //   - Otherwise it is "unmatched", with its nearest prediction.
 
@@ -38,17 +38,29 @@ export function attributeEchoes(t_s: Float64Array, amplitude: Float64Array, pred
     path[k] = together.length > 1 ? `${together.map((j) => predicted.name[j]).join(' & ')} (unresolved)` : predicted.name[best];
     matched[k] = 1;
   }
+  // Reshaping: a weak echo next to a strong one, or next to another part of the same reshaped tail
+  // (a strongly dispersive face can leave a train of them); repeated until no echo changes.
+  const root = new Int32Array(n).map((_, k) => (matched[k] ? k : -1));
+  for (let changed = true; changed;) {
+    changed = false;
+    for (let k = 0; k < n; k++) {
+      if (root[k] >= 0) continue;
+      let host = -1;
+      for (let i = 0; i < n; i++) {
+        const r = root[i];
+        if (i === k || r < 0 || Math.abs(t_s[i] - t_s[k]) > 2 * pulseWidth_s) continue;
+        if (Math.abs(amplitude[r]) < 4 * Math.abs(amplitude[k])) continue;
+        if (host < 0 || Math.abs(amplitude[r]) > Math.abs(amplitude[host])) host = r;
+      }
+      if (host >= 0) { root[k] = host; changed = true; }
+    }
+  }
   for (let k = 0; k < n; k++) {
     if (matched[k]) continue;
-    let host = -1;
-    for (let i = 0; i < n; i++) {
-      if (i === k || !matched[i] || Math.abs(t_s[i] - t_s[k]) > 2 * pulseWidth_s) continue;
-      if (Math.abs(amplitude[i]) < 4 * Math.abs(amplitude[k])) continue;
-      if (host < 0 || Math.abs(amplitude[i]) > Math.abs(amplitude[host])) host = i;
-    }
     let nearest = -1;
     for (let j = 0; j < m; j++) if (nearest < 0 || Math.abs(predicted.delay_s[j] - t_s[k]) < Math.abs(predicted.delay_s[nearest] - t_s[k])) nearest = j;
     predicted_t_s[k] = nearest >= 0 ? predicted.delay_s[nearest] : 0;
+    const host = root[k];
     if (host >= 0) path[k] = `reshaping of the ${path[host].replace(/ \(unresolved\)$/, '')} echo`;
     else path[k] = nearest >= 0 ? `unmatched (nearest: ${predicted.name[nearest]})` : 'unmatched';
   }
