@@ -21,10 +21,21 @@ function messagesOf(e: unknown): string[] {
   return [String(e)];
 }
 
-function parse(file: unknown, id: number, stage: 'solve' | 'pulse' | 'report') {
+function parse(file: unknown, id: number, stage: Stage) {
   const r = parseStackObject(file);
   if (!r.ok) { send({ kind: 'failed', id, stage, messages: r.errors }); return null; }
   return r;
+}
+
+type Stage = Extract<FromWorker, { kind: 'failed' }>['stage'];
+
+/** Send what `make` builds, or the failure it throws, for message `id`. */
+function answer(id: number, stage: Stage, make: () => FromWorker): void {
+  try {
+    send(make());
+  } catch (e) {
+    send({ kind: 'failed', id, stage, messages: messagesOf(e) });
+  }
 }
 
 function handle(m: ToWorker): void | Promise<void> {
@@ -32,38 +43,24 @@ function handle(m: ToWorker): void | Promise<void> {
     case 'solve': {
       const r = parse(m.file, m.id, 'solve');
       if (r === null) return;
-      try {
+      answer(m.id, 'solve', () => {
         const t0 = now();
         const rep = solveReport(r.stack, { inputWarnings: r.warnings });
-        send({ kind: 'solved', id: m.id, spectrum: copyTable(rep.spectrum), profile: copyTable(rep.profile), agreement: rep.agreement, warnings: rep.warnings, ms: now() - t0 });
-      } catch (e) {
-        send({ kind: 'failed', id: m.id, stage: 'solve', messages: messagesOf(e) });
-      }
+        return { kind: 'solved', id: m.id, spectrum: copyTable(rep.spectrum), profile: copyTable(rep.profile), agreement: rep.agreement, warnings: rep.warnings, ms: now() - t0 };
+      });
       return;
     }
     case 'pulse': {
       const r = parse(m.file, m.id, 'pulse');
       if (r === null) return;
-      try {
-        send({ kind: 'pulse-ready', id: m.id, geometry: startPulse(r.stack, m.settings) });
-      } catch (e) {
-        send({ kind: 'failed', id: m.id, stage: 'pulse', messages: messagesOf(e) });
-      }
+      answer(m.id, 'pulse', () => ({ kind: 'pulse-ready', id: m.id, geometry: startPulse(r.stack, m.settings) }));
       return;
     }
     case 'advance':
-      try {
-        send({ kind: 'frame', id: m.id, frame: advancePulse(m.steps, m.recycle) });
-      } catch (e) {
-        send({ kind: 'failed', id: m.id, stage: 'advance', messages: messagesOf(e) });
-      }
+      answer(m.id, 'advance', () => ({ kind: 'frame', id: m.id, frame: advancePulse(m.steps, m.recycle) }));
       return;
     case 'rewind':
-      try {
-        send({ kind: 'frame', id: m.id, frame: rewindPulse() });
-      } catch (e) {
-        send({ kind: 'failed', id: m.id, stage: 'advance', messages: messagesOf(e) });
-      }
+      answer(m.id, 'advance', () => ({ kind: 'frame', id: m.id, frame: rewindPulse() }));
       return;
     case 'report': {
       const r = parse(m.file, m.id, 'report');
