@@ -115,7 +115,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   // When the engine steps other media than the stack names (power laws fitted, metal as a wall or a
   // sheet), split the figure: the engine against the exact solution of what it stepped (its own
   // numerical error), and that exact solution against the original (the material model's share).
-  if (tmm && (run.plan.fits.length > 0 || run.plan.effective.substitutions > 0)) {
+  if (tmm && run.plan.effective.substitutions > 0) {
     const stepped = solveEffective(run.plan.effective, f_Hz);
     agreement.push(agreementRow('fdtd-tmm as stepped', fdtd, stepped, target));
     agreement.push(agreementRow('stepped media-tmm', stepped, tmm));
