@@ -133,7 +133,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     end: run.doneReason,
     residual_energy_dB: Number.isFinite(energy.level_dB) ? r3(energy.level_dB) : null,
     decay_target_dB: -run.plan.decay_dB,
-    truncated: run.doneReason !== 'decayed',
+    truncated: run.doneReason !== 'converged',
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
   };
   summary.power_law_fits = run.plan.fits.map((f) => ({
