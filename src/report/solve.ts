@@ -16,7 +16,8 @@ import { SLABECHO_VERSION } from '../version.ts';
 import { assertFiniteValues, assertTable, complexColumns, scaledColumn, type Column } from './table.ts';
 import type { FemOptions } from '../fem/types.ts';
 import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
-import { roundedRow, type AgreementRow } from './format-agreement.ts';
+import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
+import { steppedStack } from '../fdtd/stepped-stack.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -37,7 +38,19 @@ export interface SolveOptions {
   inputWarnings?: readonly string[];
   /** FEM order / density / tolerance (defaults: chosen from its a-priori error estimate). */
   fem?: FemOptions;
+  /**
+   * 'tables' (default): every method solves the media as the stack names them. 'stepped': the exact solver and
+   * the FEM solve the media the pulse engine steps (fitted causal models for power laws, conductors as walls
+   * or sheets), so every agreement row is at the methods' own precision; the row "stepped media-tmm" then
+   * keeps the model's share against the tables.
+   */
+  media?: Media;
 }
+
+export type Media = 'tables' | 'stepped';
+
+/** The note a report carries when its methods solve the stepped media. */
+export const STEPPED_MEDIA_NOTE = 'media: the exact solver and the FEM solve the media as the pulse engine steps them (fitted causal models in place of power laws, conductors as walls or sheets); the row "stepped media-tmm" compares those with the tables';
 
 export interface MethodRun { name: string; description: string; time_ms: number }
 
@@ -55,6 +68,9 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
 
   // Exact transfer-matrix spectrum, in chunks so progress means something on long sweeps.
   const f_Hz = bandFrequencies(stack);
+  const media = options.media ?? 'tables';
+  const tables = stack;
+  if (media === 'stepped') { stack = steppedStack(stack); warn(STEPPED_MEDIA_NOTE); }
   let t0 = now();
   const tmm = solveInChunks(stack, f_Hz, (done) => progress(0.9 * done));
   const spectrum: Column[] = [
@@ -69,6 +85,7 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   const fem = femSpectrumPart(stack, tmm, femOptions, warn);
   const agreement: AgreementRow[] = [];
   if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
+  if (media === 'stepped' && stack !== tables) agreement.push(agreementRow('stepped media-tmm', tmm, solveTmm(tables, f_Hz)));
   progress(0.95);
 
   // Standing-wave profile (normal incidence only).
@@ -98,21 +115,23 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   assertTable(spectrum);
   if (profile.length > 0) assertTable(profile);
 
+  const described = tables; // the summary describes the stack as written
   const summary: Record<string, unknown> = {
     slabecho_version: SLABECHO_VERSION,
     title: stack.title,
+    media,
     band_GHz: [ghzFromHz(stack.band_Hz[0]), ghzFromHz(stack.band_Hz[1])],
     points: stack.points,
     incidence: { angle_deg, polarization: stack.incidence.polarization },
     profile_GHz: prof ? ghzFromHz(stack.profile_Hz) : null,
-    front: materialSummary(stack.front, stack),
-    layers: stack.layers.map((l, index) => ({
+    front: materialSummary(described.front, described),
+    layers: described.layers.map((l, index) => ({
       index,
-      ...materialSummary(l.material, stack),
+      ...materialSummary(l.material, described),
       thickness_mm: l.kind === 'bulk' ? mmFromM(l.thickness_m) : 0,
     })),
-    back: stack.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(stack.back, stack),
-    total_thickness_mm: mmFromM(stackThickness_m(stack)),
+    back: described.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(described.back, described),
+    total_thickness_mm: mmFromM(stackThickness_m(described)),
     methods,
     results: resultsInBrief(stack, tmm),
     ...(fem ? { fem: fem.mesh } : {}),
