@@ -5,7 +5,7 @@ import { EPS0_F_per_m } from '../units.ts';
 import { type PmlGrading, PML_ORDER, PML_SIGMA_FACTOR, pmlRegion } from './cpml.ts';
 import { type DispersiveSpan, type KernelState, type PoleGroup, emptyKernelState } from './kernel.ts';
 import { type StepModel, refractiveIndex, stepModelPermittivity } from './media.ts';
-import { SHEET_ALIGN_TOL } from './plan.ts';
+import { SHEET_ALIGN_TOL } from './grid-response.ts';
 import type { GridPlan } from './types.ts';
 
 /** α_max Δt/ε0 as a fraction of 2π f_min Δt (CFS term; small). */

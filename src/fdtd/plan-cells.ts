@@ -17,12 +17,11 @@
 import { C0_m_per_s } from '../units.ts';
 import { decayingRoot } from './discrete.ts';
 import { type StepModel, stepModelPermittivity } from './media.ts';
+import { SHEET_ALIGN_TOL } from './grid-response.ts';
 import { gridError } from './stepped-exact.ts';
 import type { EffectiveStack } from './types.ts';
 
 export const MIN_CELLS_PER_WAVELENGTH = 20;
-/** Sheets are put within this fraction of a cell of a node when a grid up to SHEET_ALIGN_RANGE× finer allows. */
-export const SHEET_ALIGN_TOL = 0.02;
 const SHEET_ALIGN_RANGE = 3;
 /** Candidate cell counts tried when aligning sheets (bounds the search on very fine grids). */
 const SHEET_ALIGN_CANDIDATES = 4096;
@@ -94,9 +93,9 @@ export function chooseCells(c: CellInputs): CellChoice {
     }
     return { dx: thickness / stackCells, stackCells };
   };
+  const stackCellsOf = (dx: number): number => (lumped || thickness <= 0 ? 0 : Math.round(thickness / dx));
   const predict = (dx: number): number => {
-    if (lumped) return 2 * kOut * thickness;
-    const e = gridError(eff, c.freqs, { dx_m: dx, dt_s: (c.courant * dx) / C0_m_per_s, courant: c.courant });
+    const e = gridError(eff, c.freqs, { dx_m: dx, dt_s: (c.courant * dx) / C0_m_per_s, courant: c.courant }, stackCellsOf(dx));
     return Math.max(e.R, e.T);
   };
   const done = (N: number, overLimit: boolean): CellChoice => {

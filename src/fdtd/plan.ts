@@ -16,12 +16,14 @@ import { resolveStack } from './effective.ts';
 import { atIncidence } from './oblique.ts';
 import { decayingRoot, discreteWave } from './discrete.ts';
 import { type StepModel, refractiveIndex, stepModelPermittivity } from './media.ts';
-import { chooseCells, SHEET_ALIGN_TOL } from './plan-cells.ts';
+import { chooseCells } from './plan-cells.ts';
+import { SHEET_ALIGN_TOL } from './grid-response.ts';
 import { estimateSteps } from './plan-steps.ts';
 import { pulseForBand } from './pulse.ts';
 import type { EffectiveStack, GridNodes, GridPlan, LayerGridFigures, PulseOptions } from './types.ts';
 
-export { MIN_CELLS_PER_WAVELENGTH, SHEET_ALIGN_TOL } from './plan-cells.ts';
+export { MIN_CELLS_PER_WAVELENGTH } from './plan-cells.ts';
+export { SHEET_ALIGN_TOL } from './grid-response.ts';
 export const DEFAULT_ACCURACY = 0.01;
 /** Targets below this are accepted but not promised (the stepped media and round-off set a floor). */
 export const FINEST_ACCURACY = 1e-4;

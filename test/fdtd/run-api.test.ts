@@ -59,7 +59,7 @@ describe('grid plan', () => {
     const bare = planGrid(stackOf([bulk(fixed(4), 5), sheet(1 / (1e7 * 0.5e-6))]));
     const open = planGrid(stackOf([bulk(fixed(4), 5)]));
     expect(bare.expectedSteps).toBeGreaterThan(open.expectedSteps);
-    expect(Math.abs(film.expectedSteps - bare.expectedSteps)).toBeLessThan(0.05 * bare.expectedSteps);
+    expect(Math.abs(film.expectedSteps - bare.expectedSteps)).toBeLessThan(0.1 * bare.expectedSteps);
     expect(Math.abs(film.predictedError - bare.predictedError)).toBeLessThan(0.2 * bare.predictedError);
   });
 });
