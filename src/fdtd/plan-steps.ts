@@ -73,16 +73,18 @@ export function estimateSteps(s: StepInputs): StepEstimate {
   const fMid = (f1 + f2) / 2;
   const segs = eff.segments;
   const visible = VISIBLE_FRACTION * s.accuracy;
-  // One-way amplitude through a segment at the band frequency that loses least (bottom, middle or top).
-  const passing = (m: StepModel, d: number): number =>
-    Math.max(...[f1, fMid, f2].map((f) => Math.exp((-2 * Math.PI * f * indexOf(m, f).k * d) / C0_m_per_s)));
+  // Attenuation (Np/m) at the band frequency that loses least (bottom, middle or top).
+  const alpha = (m: StepModel): number => Math.min(...[f1, fMid, f2].map((f) => (2 * Math.PI * f * indexOf(m, f).k) / C0_m_per_s));
+  const passing = (m: StepModel, d: number): number => Math.exp(-alpha(m) * d);
   let amplitude = 1, seenTrip = 0, ring = 0, worstRho = 0, fullTrip = 0;
   for (let i = 0; i < segs.length; i++) {
     const g = segs[i], d = g.x1_m - g.x0_m, me = indexOf(g.model, fMid);
     const t = (d * me.n) / C0_m_per_s;
     fullTrip += t;
     if (amplitude * amplitude < visible) continue; // its echoes never reach the front probe
-    seenTrip += 2 * t;
+    // Echoes from deeper than this come back below the threshold.
+    const a = alpha(g.model), seen = a > 0 ? Math.min(d, Math.log((amplitude * amplitude) / visible) / (2 * a)) : d;
+    seenTrip += (2 * t * seen) / d;
     const rho = Math.min(MAX_RETENTION, faceReflection(s, i, g.x0_m, -1, me) * faceReflection(s, i, g.x1_m, 1, me) * passing(g.model, d) ** 2);
     worstRho = Math.max(worstRho, rho);
     if (rho > 0) ring = Math.max(ring, ((s.decay_dB + 10) / (-20 * Math.log10(rho))) * 2 * t);

@@ -34,6 +34,8 @@ export const DEFAULT_MAX_WORK = 3e10;
 /** Share of the accuracy target the grid's predicted error may use (the rest: interfaces inside cells,
  *  truncation of the records, boundaries), so the engine's measured error stays within 0.3 × target. */
 export const GRID_SHARE = 0.2;
+/** The front gap is at most this many wavelengths (at the profile frequency) when the stack is thicker. */
+const FRONT_GAP_WAVELENGTHS = 6;
 /** Cells between the front PML and the TF/SF plane (the scattered-field probe sits in the middle). */
 const SF_CELLS = 4;
 /** Prediction frequencies: at least this many, and this many per resonance of the stack's longest round trip. */
@@ -96,6 +98,14 @@ function budgetFrequencies(band: [number, number], eff: EffectiveStack): number[
 }
 
 const fmt = (x: number): string => (x >= 1e5 ? x.toExponential(2) : String(Math.round(x)));
+
+/** What to change when a run is too big; at a grazing angle the small time step is the cause. */
+function remedy(stack: Stack, courant: number): string {
+  const base = 'narrow the band or lower its top frequency, ask for a coarser accuracy, or make the stack thinner';
+  if (stack.incidence.angle_rad === 0 || courant >= 0.5) return base;
+  const deg = (stack.incidence.angle_rad * 180) / Math.PI;
+  return `${base}; at ${deg.toFixed(1)}° the time step is ${courant.toPrecision(2)} of normal incidence's (each medium's ε∞ is lowered by ε_front sin²θ), so a smaller angle shortens the run`;
+}
 const times = (a: number, b: number): string => `${(a / b).toPrecision(2)}×`;
 
 export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
@@ -119,7 +129,7 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
     const need = cells.overLimit ? Math.max(nodes.total, stackCells) : nodes.total;
     throw new PlanError(
       `the grid would need more than ${fmt(need)} cells of ${(dx * 1e3).toPrecision(3)} mm (the limit is ${fmt(o.maxCells)}, ${times(need, o.maxCells)} over) ` +
-      `to keep the engine's error within ${o.accuracy}: narrow the band or lower its top frequency, ask for a coarser accuracy, or make the stack thinner`,
+      `to keep the engine's error within ${o.accuracy}: ${remedy(stack, courant)}`,
       'too-many-cells', { cells: need, limit: o.maxCells, dx_m: dx, cellsPerWavelength: cells.N },
     );
   }
@@ -137,7 +147,7 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
     const work = perStep * minSteps;
     throw new PlanError(
       `the run would need at least ${work.toExponential(2)} cell-updates (${nodes.total} cells × ${minSteps} steps; the limit is ${o.maxWork.toExponential(1)}, ${times(work, o.maxWork)} over): ` +
-      'narrow the band or lower its top frequency, ask for a coarser accuracy, or make the stack thinner',
+      remedy(stack, courant),
       'too-much-work', { cells: nodes.total, steps: minSteps, work, limit: o.maxWork },
     );
   }
@@ -182,7 +192,10 @@ const innerSheetWarning = (eff: EffectiveStack, mis: number): boolean =>
 /** [wall | CPML | SF cells (probe) | TF/SF plane | front gap | stack | back gap | CPML | wall]. */
 function layout(stack: Stack, eff: EffectiveStack, dx: number, stackCells: number, P: number): GridNodes {
   const lambdaAt = (m: StepModel, f: number): number => C0_m_per_s / (f * Math.max(refractiveIndex(stepModelPermittivity(m, f)), 1e-6));
-  const gapFront = Math.max(10, Math.ceil(Math.max(1.5 * lambdaAt(eff.front, stack.profile_Hz), eff.thickness_m) / dx) + 2);
+  // In front: 1.5 wavelengths at the profile frequency, or the stack's thickness (the field view shows the
+  // reflected pulse beside the stack) up to FRONT_GAP_WAVELENGTHS of them; a thick wall's air costs steps.
+  const lambdaFront = lambdaAt(eff.front, stack.profile_Hz);
+  const gapFront = Math.max(10, Math.ceil(Math.max(1.5 * lambdaFront, Math.min(eff.thickness_m, FRONT_GAP_WAVELENGTHS * lambdaFront)) / dx) + 2);
   const gapBack = eff.back === 'pec' ? 0 : Math.max(10, Math.ceil((0.5 * lambdaAt(eff.back, stack.profile_Hz)) / dx) + 2);
   const tfsf = P + SF_CELLS;
   const front = tfsf + gapFront;
