@@ -31,6 +31,24 @@ export interface Resolved { effective: EffectiveStack; fits: PowerLawFit[]; warn
 export const FIT_WARN_RE = 0.01;
 export const FIT_WARN_IM = 0.03;
 
+/** A warning for each fit whose worst error over the band is above FIT_WARN_RE in ε' or FIT_WARN_IM in ε''. */
+export function fitWarnings(fits: readonly PowerLawFit[]): string[] {
+  const out: string[] = [];
+  for (const f of fits) {
+    const parts: string[] = [];
+    if (f.maxRelErr_re > FIT_WARN_RE) parts.push(`${(100 * f.maxRelErr_re).toFixed(2)} % in ε'`);
+    if (f.maxRelErr_im > FIT_WARN_IM) parts.push(`${(100 * f.maxRelErr_im).toFixed(2)} % in ε''`);
+    if (f.minEpsRe_wide < 1) parts.push(`ε' down to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top`);
+    if (parts.length === 0) continue;
+    out.push(
+      `material "${f.material}": stepped by the pulse engine as a fitted causal model (a power law is not causal); ` +
+      `its worst error over the band is ${parts.join(' and ')} (${(100 * f.maxRelErr_re).toFixed(2)} % / ${(100 * f.maxRelErr_im).toFixed(2)} % in ε' / ε''), ` +
+      `weighted toward what reaches the probes. The agreement row "stepped media-tmm" shows what this does to R and T.`,
+    );
+  }
+  return out;
+}
+
 /** Stacks resolved recently, by everything the result depends on. */
 const CACHE_SIZE = 16;
 const cache = new Map<string, Resolved>();
@@ -121,18 +139,7 @@ function resolveUncached(stack: Stack): Resolved {
       conductors++;
     } else back = modelOf(stack.back);
   }
-  for (const f of fits) {
-    const parts: string[] = [];
-    if (f.maxRelErr_re > FIT_WARN_RE) parts.push(`${(100 * f.maxRelErr_re).toFixed(2)} % in ε'`);
-    if (f.maxRelErr_im > FIT_WARN_IM) parts.push(`${(100 * f.maxRelErr_im).toFixed(2)} % in ε''`);
-    if (parts.length > 0) {
-      warnings.push(
-        `material "${f.material}": stepped by the pulse engine as a fitted causal model (a power law is not causal); ` +
-        `its worst error over the band is ${parts.join(' and ')} (${(100 * f.maxRelErr_re).toFixed(2)} % / ${(100 * f.maxRelErr_im).toFixed(2)} % in ε' / ε''), ` +
-        `weighted toward what reaches the probes. The agreement row "stepped media-tmm" shows what this does to R and T.`,
-      );
-    }
-  }
+  warnings.push(...fitWarnings(fits));
   const substitutions = fits.length + conductors;
   return { effective: { front, segments, sheets, back, thickness_m: x, substitutions }, fits, warnings };
 }

@@ -68,7 +68,7 @@ const SUPPORT_LEVEL = 0.01;
 const SUPPORT_LOW_LIMIT = 0.5;
 const SUPPORT_HIGH_LIMIT = 3;
 /** Outside the band, weights are this fraction of the band's at its edges, falling with the pulse's content. */
-const OUTSIDE_WEIGHT = 0.1;
+const OUTSIDE_WEIGHT = 0.15;
 /** A part's weight never falls below this fraction of the largest in the band (neither ε' nor ε'' is ignored). */
 const WEIGHT_FLOOR = 0.15;
 /** ε' ≥ 1 is imposed at this many points from half the band's bottom to twice its top, then wherever it fails. */
@@ -173,12 +173,22 @@ function errorWeights(list: Sample[], probeWeight?: ProbeWeight): { re: number[]
   };
 }
 
-/** Frequencies on a fine grid where ε'_fit < 1 (local minima of the dips). */
+/** Frequencies where ε'_fit dips below 1: local minima of a fine grid, refined by golden-section search. */
 function epsReDips(model: StepModel, [a, b]: [number, number]): number[] {
-  const fs = logspace(a, b, WIDE_CHECK_POINTS), v = fs.map((f) => stepModelPermittivity(model, f).re);
+  const fs = logspace(a, b, WIDE_CHECK_POINTS), re = (f: number) => stepModelPermittivity(model, f).re;
+  const v = fs.map(re);
   const out: number[] = [];
   for (let i = 0; i < fs.length; i++) {
-    if (v[i] < 1 && (i === 0 || v[i] <= v[i - 1]) && (i === fs.length - 1 || v[i] <= v[i + 1])) out.push(fs[i]);
+    if ((i > 0 && v[i] > v[i - 1]) || (i < fs.length - 1 && v[i] > v[i + 1])) continue;
+    // Golden-section search for the minimum between the neighbours (in log f).
+    let lo = Math.log(fs[Math.max(0, i - 1)]), hi = Math.log(fs[Math.min(fs.length - 1, i + 1)]);
+    const g = (Math.sqrt(5) - 1) / 2;
+    for (let it = 0; it < 40; it++) {
+      const x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo);
+      if (re(Math.exp(x1)) < re(Math.exp(x2))) hi = x2; else lo = x1;
+    }
+    const f = Math.exp((lo + hi) / 2);
+    if (re(f) < 1) out.push(f);
   }
   return out;
 }
@@ -242,5 +252,6 @@ export function fitErrors(pl: PowerLawModel, model: StepModel, band: [number, nu
   }
   let minRe = Infinity;
   for (const f of logspace(f1 / 2, 2 * f2, WIDE_CHECK_POINTS)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
+  for (const f of epsReDips(model, [f1 / 2, 2 * f2])) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
   return { maxRelErr_re: eRe, maxRelErr_im: eIm, maxRelErr_abs: eAbs, minEpsRe_wide: minRe };
 }
