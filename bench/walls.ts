@@ -1,7 +1,11 @@
 // Pulse engine on walls: engine error (FDTD against the exact solution of the stepped media), model share
 // (stepped media against the stack's own exact solution), grid size, steps, cell-updates and time.
 // A benchmark, not a test: run it under nice on a quiet machine.
-//   nice npx tsx bench/walls.ts [--only TEXT] [--accuracy X] [--set quick|walls|all] [--json]
+//   nice npx tsx bench/walls.ts [--only TEXT] [--accuracy X] [--set none|walls|all] [--json]
+// --set none: the presets and the stacks that once crashed; walls (default): plus a representative set of
+// ITU-R P.2040-3 walls (20–300 mm, 1–6 to 1–40 GHz, air or a conductor behind); all: every catalog wall
+// material × 20/100/300 mm × 1–6/1–20/1–40 GHz × air/conductor (hours). Planning times (first and cached)
+// of an absurd stack come first.
 import { readdirSync, readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { planGrid } from '../src/fdtd/plan.ts';
@@ -36,9 +40,10 @@ const set = values.set ?? 'walls';
 if (set === 'walls' || set === 'all') {
   for (const [m, mm, band, back] of [
     ['concrete', 20, [1, 40], 'air'], ['concrete', 150, [1, 6], 'pec'], ['concrete', 200, [24, 40], 'air'],
-    ['concrete', 200, [1, 6], 'pec'], ['concrete', 300, [1, 6], 'air'], ['brick', 100, [1, 40], 'air'],
-    ['glass', 20, [1, 40], 'pec'], ['plasterboard', 300, [1, 20], 'air'], ['wood', 50, [1, 40], 'pec'],
-    ['concrete', 150, [1, 40], 'pec'],
+    ['concrete', 200, [1, 6], 'pec'], ['concrete', 300, [1, 6], 'air'], ['concrete', 300, [1, 40], 'pec'],
+    ['brick', 100, [1, 6], 'air'], ['brick', 20, [1, 40], 'pec'], ['glass', 20, [1, 40], 'pec'],
+    ['plasterboard', 300, [1, 20], 'air'], ['wood', 50, [1, 40], 'pec'], ['concrete', 150, [1, 40], 'pec'],
+    ['marble', 100, [1, 20], 'air'], ['chipboard', 20, [1, 40], 'air'],
   ] as [string, number, [number, number], string][]) cases.push(wall(m, mm, band, back));
 }
 if (set === 'all') {
@@ -57,6 +62,17 @@ cases.push({ name: 'lossless Drude below its plasma frequency', stack: stackFrom
   title: 'drude', band_GHz: [1, 5], layers: [{ material: 'pl', thickness_mm: 10 }], back: 'air', points: 101,
   materials: { pl: { model: 'drude', eps_inf: 1, plasma_GHz: 8, collision_GHz: 0, sigma_S_per_m: 0 } },
 }) });
+
+// Planning an absurd stack (10 m of concrete over 1–100 GHz): refused, in milliseconds.
+{
+  const absurd = stackFrom({ title: 'absurd', band_GHz: [1, 100], layers: [{ material: 'concrete', thickness_mm: 10000 }], back: 'air', points: 11 });
+  for (const round of ['first', 'cached']) {
+    const t0 = performance.now();
+    let what = 'planned';
+    try { planGrid(absurd); } catch (e) { what = `refused (${(e as Error).message.slice(0, 60)}…)`; }
+    if (!values.json) console.log(`plan 10 m concrete 1–100 GHz, ${round}: ${(performance.now() - t0).toFixed(1)} ms, ${what}`);
+  }
+}
 
 const rows: Record<string, unknown>[] = [];
 for (const c of cases) {
