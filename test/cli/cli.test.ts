@@ -155,6 +155,21 @@ describe('materials', () => {
     const w = (JSON.parse((await cli('materials', '--json', '--at-GHz', '10')).stdout) as { name: string; eps_r: number }[]).find((x) => x.name === 'water-25c')!;
     expect(w.eps_r).toBeCloseTo(62.8, 1);
   });
+  it('--at-GHz 300 lists glass and ceiling board from their 220–450 GHz rows (ITU-R P.2040-3 Table 3: 5.79, 0.0004·f^1.658; 1.52, 0.0029·f^1.029)', async () => {
+    const rows = JSON.parse((await cli('materials', '--json', '--at-GHz', '300')).stdout) as { name: string; eps_r: number; sigma_S_per_m: number; valid_GHz: number[] }[];
+    expect(rows.filter((x) => x.name === 'glass')).toHaveLength(1);
+    const glass = rows.find((x) => x.name === 'glass')!, board = rows.find((x) => x.name === 'ceiling-board')!;
+    expect(glass.eps_r).toBe(5.79);
+    expect(glass.sigma_S_per_m / (0.0004 * 300 ** 1.658)).toBeCloseTo(1, 5);
+    expect(glass.valid_GHz).toEqual([220, 450]);
+    expect(board.eps_r).toBe(1.52);
+    expect(board.sigma_S_per_m / (0.0029 * 300 ** 1.029)).toBeCloseTo(1, 5);
+    // Without a frequency every range is its own row, and the edition is stated.
+    const all = await cli('materials');
+    expect(all.stdout.match(/^glass /gm)).toHaveLength(2);
+    expect(all.stdout).toContain('unchanged from P.2040-2');
+    expect(all.stdout).not.toMatch(/from memory, verify against the Recommendation/);
+  });
   it('--at-GHz must be a number > 0: exit 2 naming the option', async () => {
     for (const bad of ['abc', '0', '-1', '', '1e400', 'NaN']) {
       const r = await cli('materials', `--at-GHz=${bad}`);

@@ -1,6 +1,6 @@
 // slabecho materials [--at-GHz F] [--json]: the built-in catalog with sources and validity ranges.
 
-import { CATALOG } from '../../materials/catalog.ts';
+import { CATALOG, CATALOG_EDITION, CATALOG_ROWS, catalogRanges, pickRange } from '../../materials/catalog.ts';
 import { effectiveConductivity, permittivity } from '../../materials/permittivity.ts';
 import type { Material } from '../../materials/types.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
@@ -55,7 +55,8 @@ export const materials: Command = {
   usage: `Usage: slabecho materials [--at-GHz F] [--json]
 
 List the built-in material catalog: name, model, parameters, the source of the numbers and the
-frequency range over which the source vouches for them. Names are used as they appear here
+frequency range over which the source vouches for them (a material with two ranges, each with its own
+coefficients, has a row for each; with --at-GHz, the row of the range that holds F). Names are used as they appear here
 (lowercase, hyphenated) in a stack file's layers, front and back.
 
 Options:
@@ -68,7 +69,9 @@ Options:
     const a = readArgs(materials, args, io, { 'at-GHz': { type: 'string' }, json: { type: 'boolean' } }, [0, 0]);
     if (a === null) return 0;
     const f = numberOption(a.values, 'at-GHz', 'must be a number > 0 and at most 1000 (GHz)', (x) => x > 0 && x <= 1000);
-    const rows = CATALOG.map((m) => materialRow(m, f));
+    // Every validity range is a row; at one frequency, each material in the range that holds it (or the nearest).
+    const listed = f === undefined ? CATALOG_ROWS : CATALOG.map((m) => pickRange(catalogRanges(m.name), f, f).range);
+    const rows = listed.map((m) => materialRow(m, f));
     if (a.values.json) { io.out(JSON.stringify(rows, null, 2)); return 0; }
     const valid = (m: Material) => {
       if (m.valid_GHz === null) return 'any';
@@ -78,7 +81,7 @@ Options:
     const header = f === undefined
       ? ['name', 'model', 'parameters (f in GHz, σ in S/m)', 'valid GHz', 'source']
       : ['name', 'model', `ε' @${fmtGHz(f)} GHz`, `σ S/m @${fmtGHz(f)} GHz`, 'valid GHz', 'source'];
-    const body = CATALOG.map((m, i) => f === undefined
+    const body = listed.map((m, i) => f === undefined
       ? [m.name, m.spec.model, parameterText(m), valid(m), m.source]
       : [m.name, m.spec.model, String(rows[i].eps_r ?? ''), String(rows[i].sigma_S_per_m ?? ''), valid(m), m.source]);
     for (const l of table(header, body)) io.out(l);
@@ -88,10 +91,12 @@ Options:
       io.out('Notes:');
       for (const m of notes) io.out(`  ${m.name}: ${m.note}`);
     }
-    if (f !== undefined && CATALOG.some((m) => m.valid_GHz && (f! < m.valid_GHz[0] || f! > m.valid_GHz[1]))) {
+    if (f !== undefined && listed.some((m) => m.valid_GHz && (f! < m.valid_GHz[0] || f! > m.valid_GHz[1]))) {
       io.out('');
       io.out(`! the validity range does not include ${fmtGHz(f)} GHz: the value there is extrapolated.`);
     }
+    io.out('');
+    io.out(`Building materials: ${CATALOG_EDITION}. A material with two validity ranges has a row for each; a stack uses the range that holds its band.`);
     return 0;
   },
 };
