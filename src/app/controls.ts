@@ -38,7 +38,10 @@ export class Controls {
     title: '', front: 'air', back: 'air', fmin: 1, fmax: 10, points: 501,
     angle: 0, polarization: 'TE', profile: 5,
   };
-  private readonly view = { accuracy: 'engine default', spectrum: 'magnitude' as SpectrumMode, xUnit: 'mm', lambda: 5, envelope: false, speed: 4, autoSpeed: true };
+  private readonly view = {
+    accuracy: 'engine default', spectrum: 'magnitude' as SpectrumMode, magnitude: 'dB', freqScale: 'linear',
+    xUnit: 'mm', lambda: 5, envelope: false, speed: 4, autoSpeed: true,
+  };
   private stackControllers: Controller[] = [];
   private speedController: Controller | null = null;
 
@@ -222,6 +225,14 @@ export class Controls {
     tag(folder.add(this.view, 'spectrum', ['magnitude', 'phase', 'group delay']).name('spectrum shows').onChange((m: SpectrumMode) => {
       s.spectrumMode = m; host.settingsChanged('spectrum');
     }), 'spectrum-mode');
+    this.view.magnitude = s.magnitude;
+    tag(folder.add(this.view, 'magnitude', ['dB', 'linear']).name('magnitudes in').onChange((m: 'dB' | 'linear') => {
+      s.magnitude = m; host.settingsChanged('spectrum');
+    }), 'magnitude-scale');
+    this.view.freqScale = s.freqScale;
+    tag(folder.add(this.view, 'freqScale', ['linear', 'log']).name('frequency axis').onChange((m: 'linear' | 'log') => {
+      s.freqScale = m; host.settingsChanged('spectrum');
+    }), 'freq-scale');
     this.view.envelope = s.envelope;
     tag(folder.add(this.view, 'envelope').name('echoes as dB envelope').onChange((e: boolean) => {
       s.envelope = e; host.settingsChanged('trace');

@@ -37,6 +37,8 @@ export interface WorkbenchStats {
   step: number;
   playing: boolean;
   recording: boolean;
+  /** The field view's framing: the part of the grid shown, the default one, the stack, mm. */
+  field: { window_mm: [number, number]; default_mm: [number, number]; stack_mm: number; zoomed: boolean };
 }
 
 declare global {
@@ -87,6 +89,7 @@ class Workbench implements ControlHost {
   readonly stats: WorkbenchStats = {
     fieldRenders: 0, renderer: '', lastEditToUpdate_ms: null, lastSolve_ms: null, version: 0,
     solvedVersion: -1, reportVersion: -1, step: 0, playing: false, recording: false,
+    field: { window_mm: [0, 0], default_mm: [0, 0], stack_mm: 0, zoomed: false },
   };
 
   constructor(initial: { file: StackFile; stack: Stack; warnings: string[] }, settings: Settings) {
@@ -110,6 +113,7 @@ class Workbench implements ControlHost {
   async start(): Promise<void> {
     this.field = await FieldView.create($('field-view'), this.fieldOptions());
     this.stats.renderer = this.field.rendererName;
+    this.field.onFraming = () => this.noteFraming();
     this.field.setStack(this.sketch);
     this.field.render();
     this.spectrum.chart.onDraw = () => this.noteUpdated();
@@ -123,6 +127,14 @@ class Workbench implements ControlHost {
     this.restartPulse(0);
     requestAnimationFrame(() => this.loop());
     window.slabecho = { stats: this.stats };
+  }
+
+  private noteFraming(): void {
+    const w = this.field.span(), d = this.field.defaultSpan();
+    this.stats.field = {
+      window_mm: [w.x0_m * 1e3, w.x1_m * 1e3], default_mm: [d.x0_m * 1e3, d.x1_m * 1e3],
+      stack_mm: this.sketch.thickness_m * 1e3, zoomed: this.field.zoomed,
+    };
   }
 
   // ---- stack state -------------------------------------------------------------------------
@@ -149,6 +161,7 @@ class Workbench implements ControlHost {
     this.messages.clear('edit');
     this.presetName = name;
     this.apply(r.file, r.stack, r.warnings);
+    this.field.resetFraming();
     this.controls.refresh(name);
   }
 
@@ -161,6 +174,7 @@ class Workbench implements ControlHost {
     this.messages.clear('import');
     this.messages.clear('edit');
     this.apply(r.file, r.stack, r.warnings);
+    this.field.resetFraming();
     this.controls.refresh();
     this.messages.show('import', 'info', `Loaded ${name}.`, []);
   }
@@ -228,7 +242,8 @@ class Workbench implements ControlHost {
     const rep = this.reportCurrent();
     const pending = this.engine.reporting ? 'FDTD: pulse run in progress' : rep === null ? 'FDTD: no finished pulse run for this stack' : '';
     const s = this.solved;
-    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], this.settings.spectrumMode, pending);
+    const look = { mode: this.settings.spectrumMode, freqScale: this.settings.freqScale, magnitude: this.settings.magnitude };
+    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], look, pending);
     const oblique = this.file.incidence.angle_deg !== 0;
     this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending,
       oblique ? 'the standing-wave profile is computed at normal incidence only' : s === null ? 'solving…' : 'no profile');
@@ -449,6 +464,9 @@ class Workbench implements ControlHost {
       }
       void f.text().then((t) => this.importText(f.name, t));
     });
+    $('zoom-in').addEventListener('click', () => this.field.zoomIn());
+    $('zoom-out').addEventListener('click', () => this.field.zoomOut());
+    $('zoom-reset').addEventListener('click', () => this.field.resetFraming());
     $('run-cancel').addEventListener('click', () => this.cancelReport());
     $('run-start').addEventListener('click', () => this.startReport());
     const about = $<HTMLDialogElement>('about');

@@ -14,6 +14,10 @@ export interface Settings {
   /** Frequency at which positions are given in wavelengths, GHz. */
   lambda_GHz: number;
   spectrumMode: SpectrumMode;
+  /** Frequency axis of the spectrum. */
+  freqScale: 'linear' | 'log';
+  /** Magnitudes of R and T in dB or as plain ratios. */
+  magnitude: 'dB' | 'linear';
   /** Draw the reflected and transmitted records as a dB envelope. */
   envelope: boolean;
   /** Pulse-run accuracy target (predicted worst phase error); null = the engine's default. */
@@ -27,6 +31,8 @@ export const DEFAULT_SETTINGS: Settings = {
   xUnit: 'mm',
   lambda_GHz: 5,
   spectrumMode: 'magnitude',
+  freqScale: 'linear',
+  magnitude: 'dB',
   envelope: false,
   accuracy: null,
 };
@@ -47,6 +53,8 @@ export function readSettings(value: unknown): Settings {
   if (v.xUnit === 'mm' || v.xUnit === 'wavelengths') s.xUnit = v.xUnit;
   s.lambda_GHz = num(v.lambda_GHz, 1e-3, 1e3) ?? s.lambda_GHz;
   if (v.spectrumMode === 'magnitude' || v.spectrumMode === 'phase' || v.spectrumMode === 'group delay') s.spectrumMode = v.spectrumMode;
+  if (v.freqScale === 'linear' || v.freqScale === 'log') s.freqScale = v.freqScale;
+  if (v.magnitude === 'dB' || v.magnitude === 'linear') s.magnitude = v.magnitude;
   if (typeof v.envelope === 'boolean') s.envelope = v.envelope;
   s.accuracy = v.accuracy === null ? null : num(v.accuracy, 1e-4, 0.5) ?? s.accuracy;
   return s;

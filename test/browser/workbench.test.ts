@@ -96,7 +96,8 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(await page.title()).toContain('slabecho');
     const csp = await page.locator('meta[http-equiv="Content-Security-Policy"]').getAttribute('content');
     expect(csp).toContain("default-src 'self'");
-    for (const id of VIEWS) await expect(page.locator(`[data-testid="${id}"] canvas`).count()).resolves.toBe(1);
+    // One picture canvas per view (the charts' cursor overlay is a second, empty canvas).
+    for (const id of VIEWS) await expect(page.locator(`[data-testid="${id}"] canvas:not(.chart-overlay)`).count()).resolves.toBe(1);
     expect(site.log.filter((r) => r.status >= 400)).toEqual([]);
     expect(site.log.some((r) => r.path.endsWith('/favicon.svg') && r.status === 200)).toBe(true);
     expect(outside).toEqual([]);
@@ -193,7 +194,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
   });
 
   it('switches the spectrum to phase and group delay and the echoes to a dB envelope (each redraws the chart)', async () => {
-    const pixels = (id: string): Promise<string> => page.locator(`[data-testid="${id}"] canvas`).evaluate((c) => (c as HTMLCanvasElement).toDataURL());
+    const pixels = (id: string): Promise<string> => page.locator(`[data-testid="${id}"] canvas.chart-canvas`).evaluate((c) => (c as HTMLCanvasElement).toDataURL());
     const seen = new Set([await pixels('spectrum-view')]);
     for (const mode of ['phase', 'group delay', 'magnitude']) {
       await page.locator('[data-testid="spectrum-mode"] select').selectOption(mode);

@@ -52,10 +52,12 @@ export class ProfileView {
       title: 'Standing wave',
       subtitle: `${f_GHz} GHz${note ? ` · ${note}` : ''}`,
       xLabel: 'position x (mm), front face at 0',
+      xName: 'x',
+      xUnit: 'mm',
       xRange: Number.isFinite(xMin) && xMax > xMin ? [xMin, xMax] : undefined,
       panels: [
         { yLabel: '|E| / E₀', series: absE, bands, markers },
-        { yLabel: 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8 },
+        { yLabel: 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8, unit: '°', decimals: 2 },
       ],
       empty,
     });
