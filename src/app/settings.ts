@@ -1,6 +1,7 @@
 // View and run settings the page keeps (and stores), apart from the stack itself.
 
 import type { TraceName } from './fieldView.ts';
+import type { ClipFormat } from './clip/sinks.ts';
 
 export type SpectrumMode = 'magnitude' | 'phase' | 'group delay';
 
@@ -22,7 +23,14 @@ export interface Settings {
   envelope: boolean;
   /** Pulse-run accuracy target (predicted worst phase error); null = the engine's default. */
   accuracy: number | null;
+  /** Clips of the field view: file format and playing time. */
+  clipFormat: ClipFormat;
+  clipLength_s: number;
 }
+
+/** Clip frame rate (frames per second of playing time). */
+export const CLIP_FPS = 30;
+export const CLIP_LENGTH_LIMITS_s: [number, number] = [1, 60];
 
 export const DEFAULT_SETTINGS: Settings = {
   speed: 10,
@@ -35,6 +43,8 @@ export const DEFAULT_SETTINGS: Settings = {
   magnitude: 'dB',
   envelope: false,
   accuracy: null,
+  clipFormat: 'webm',
+  clipLength_s: 6,
 };
 
 /** Stored settings merged over the defaults, each field checked. */
@@ -57,6 +67,8 @@ export function readSettings(value: unknown): Settings {
   if (v.magnitude === 'dB' || v.magnitude === 'linear') s.magnitude = v.magnitude;
   if (typeof v.envelope === 'boolean') s.envelope = v.envelope;
   s.accuracy = v.accuracy === null ? null : num(v.accuracy, 1e-4, 0.5) ?? s.accuracy;
+  if (v.clipFormat === 'webm' || v.clipFormat === 'mp4') s.clipFormat = v.clipFormat;
+  s.clipLength_s = num(v.clipLength_s, ...CLIP_LENGTH_LIMITS_s) ?? s.clipLength_s;
   return s;
 }
 

@@ -280,7 +280,11 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     const refusal = page.locator('[data-testid="msg-pulse"]');
     await refusal.waitFor();
     await expect(refusal.textContent()).resolves.toContain('incidence.polarization');
-    await expect.poll(state).toBe('done');
+    // The batch run ends saying the engine declined the stack, not that it finished.
+    await expect.poll(state).toBe('declined');
+    await expect(page.locator('[data-testid="run-status"]').textContent()).resolves.not.toMatch(/finished/);
+    // The empty echoes view says why it is empty.
+    await expect.poll(() => page.locator('[data-testid="trace-view"]').getAttribute('data-empty')).toMatch(/did not run.*incidence\.polarization/);
     // The refusal is not repeated among the warnings, and no FDTD row or echo is claimed.
     await expect(page.locator('[data-testid="msg-warnings"]').textContent()).resolves.not.toContain('FDTD skipped');
     const agreement = await page.locator('[data-testid="agreement"]').textContent();

@@ -188,6 +188,11 @@ export class Chart {
     this.drawn = null;
     const spec = this.spec;
     if (spec !== null) this.paint(spec, w, this.heightPx);
+    // What the picture says, for assistive technology (and the tests): its title, or why it is empty.
+    const empty = this.drawn === null ? spec?.empty ?? 'no data yet' : null;
+    if (empty !== null) this.host.dataset.empty = empty; else delete this.host.dataset.empty;
+    this.canvas.setAttribute('role', 'img');
+    this.canvas.setAttribute('aria-label', `${spec?.title ?? 'chart'}${empty !== null ? `: ${empty}` : ''}`);
     if (footer.length > 0) this.paintFooter(footer, w, this.heightPx);
     this.resetButton.hidden = !this.zoomed;
     this.paintOverlay();
@@ -214,7 +219,8 @@ export class Chart {
       ctx.fillStyle = THEME.inkSoft;
       ctx.font = `12px ${THEME.font}`;
       ctx.textAlign = 'center';
-      ctx.fillText(spec.empty ?? 'no data yet', w / 2, h / 2);
+      const lines = wrapText(ctx, spec.empty ?? 'no data yet', w - 48, 4);
+      lines.forEach((l, i) => ctx.fillText(l, w / 2, h / 2 + 16 * (i - (lines.length - 1) / 2)));
       return;
     }
     const axis: Axis = { scale, lo: xr[0], hi: xr[1], left: PAD.left, width: w - PAD.right - PAD.left };
@@ -350,6 +356,20 @@ export class Chart {
     });
     return { x: at, groups, dots };
   }
+}
+
+/** Words of `text` in lines that fit `maxWidth` in the current font, at most `maxLines` (the last cut). */
+function wrapText(ctx: CanvasRenderingContext2D, text: string, maxWidth: number, maxLines: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    const next = line === '' ? word : `${line} ${word}`;
+    if (ctx.measureText(next).width <= maxWidth || line === '') line = next;
+    else { lines.push(line); line = word; }
+  }
+  if (line !== '') lines.push(line);
+  if (lines.length <= maxLines) return lines;
+  return [...lines.slice(0, maxLines - 1), fitText(ctx, lines.slice(maxLines - 1).join(' '), maxWidth)];
 }
 
 function autoX(panels: ChartPanel[], scale: Scale): [number, number] | null {
