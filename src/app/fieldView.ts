@@ -14,7 +14,8 @@ import type { StackSketch } from './sketch.ts';
 import { fmt } from './sketch.ts';
 import { centreSpan, clampSpan, defaultSpan, isZoomed, panSpan, sameSpan, spanWidth, zoomSpan, type FramingFacts, type Span } from './field/framing.ts';
 import { headerLayout, type Box } from './field/header.ts';
-import { paintAbsorbers, paintHalfSpaces, paintProbes, paintStack, TAG_ROW, type PlotBox, type Scene } from './field/paint.ts';
+import { paintAbsorbers, paintHalfSpaces, paintProbes, paintStack, TAG_ROW, TAG_W, type PlotBox, type Scene } from './field/paint.ts';
+import type { LabelPlan } from './field/marks.ts';
 import { paintStripBack, paintStripWindow, stripPosition } from './field/overview.ts';
 import { attachGestures, type Region } from './field/gestures.ts';
 import { TextPool } from './field/textPool.ts';
@@ -36,6 +37,9 @@ export interface FieldViewOptions {
 /** Where the header's parts are, in CSS pixels of the canvas (for the layout test). */
 export interface FieldBoxes { title: Box; legend: Box; clock: Box }
 
+/** Where the layer tags and sheet caps went at the last redraw (for the tests), with the width of one. */
+export interface FieldMarks { plan: LabelPlan; tagWidth: number }
+
 const C0 = 299_792_458;
 const HEIGHT = 392;
 const M = { left: 54, right: 14, top: 68 };
@@ -43,8 +47,8 @@ const M = { left: 54, right: 14, top: 68 };
 const BELOW = 56;
 const STRIP_H = 28;
 const ZOOM_STEP = 1.5;
-/** Widest time readout, for the header layout. */
-const CLOCK_SAMPLE = 't = 00.000 ns · step 000000 · finished';
+/** Room kept for the time readout to grow (more digits, "finished") before the header is laid out again. */
+const CLOCK_SLACK = 48;
 
 export class FieldView {
   readonly app = new Application();
@@ -79,6 +83,9 @@ export class FieldView {
   private plot: PlotBox = { left: M.left, top: M.top, w: 100, h: 100 };
   private strip: PlotBox | null = null;
   private boxes: FieldBoxes = { title: { x: 0, y: 0, w: 0, h: 0 }, legend: { x: 0, y: 0, w: 0, h: 0 }, clock: { x: 0, y: 0, w: 0, h: 0 } };
+  private marks: LabelPlan = { bands: [], sheets: [], key: [] };
+  /** Width the header keeps for the time readout. */
+  private clockRoom = 0;
   /** Called when the framing changes (zoom, pan, reset, a new grid). */
   onFraming: (() => void) | null = null;
 
@@ -137,6 +144,8 @@ export class FieldView {
 
   /** Where the title, legend and time readout are drawn (CSS pixels within the canvas). */
   get layoutBoxes(): FieldBoxes { return structuredClone(this.boxes); }
+
+  get layoutMarks(): FieldMarks { return { plan: structuredClone(this.marks), tagWidth: TAG_W }; }
 
   setOptions(options: FieldViewOptions): void {
     this.options = options;
@@ -202,6 +211,8 @@ export class FieldView {
 
   get zoomed(): boolean { return isZoomed(this.span(), this.full()); }
 
+  get hasGrid(): boolean { return this.geometry !== null; }
+
   /** Zoom by `factor` (< 1 zooms in) about `anchor_m` (the middle of the view by default). */
   zoom(factor: number, anchor_m?: number): void {
     const s = this.span();
@@ -256,6 +267,8 @@ export class FieldView {
   render(): void {
     if (this.dirty) this.drawStatic();
     this.drawTraces();
+    // The time readout outgrew the room the header kept for it: lay the header out again.
+    if (this.clock.width > this.clockRoom) this.drawStatic();
     this.app.renderer.render(this.app.stage);
   }
 
@@ -278,13 +291,13 @@ export class FieldView {
     this.layout(isZoomed(s, full));
     const box = this.plot;
     g.rect(box.left, box.top, box.w, box.h).fill({ color: hexNumber(THEME.panel) });
-    let key: string[] = [];
+    this.marks = { bands: [], sheets: [], key: [] };
     const sk = this.sketch;
     if (sk !== null) {
       const scene: Scene = { g, texts: this.texts, box, xOf: (x) => this.xOf(x, s), sketch: sk, geometry: this.geometry };
       paintHalfSpaces(scene);
       paintAbsorbers(scene);
-      key = paintStack(scene);
+      this.marks = paintStack(scene);
       paintProbes(scene);
       if (this.strip !== null) {
         paintStripBack(g, this.strip, full, sk, this.geometry);
@@ -294,7 +307,7 @@ export class FieldView {
     // Zero line and frame.
     g.moveTo(box.left, this.py(0)).lineTo(box.left + box.w, this.py(0)).stroke({ width: 1, color: hexNumber(THEME.grid) });
     g.rect(box.left + 0.5, box.top + 0.5, box.w - 1, box.h - 1).stroke({ width: 1, color: hexNumber(THEME.axis) });
-    this.drawAxes(s, key);
+    this.drawAxes(s, this.marks.key);
     this.drawHeader();
     // x of every grid node in plot units.
     const gx = this.geometry?.x_m;
@@ -355,7 +368,8 @@ export class FieldView {
     const legendW = items.reduce((w, it) => w + SWATCH + it.text.width, 0) + SEP * Math.max(0, items.length - 1);
     const fullTitle = this.sketch?.title ?? '';
     this.title.text = fullTitle;
-    const lay = headerLayout({ left: M.left, right, titleW: this.title.width, legendW, clockW: this.measure(CLOCK_SAMPLE, 13, THEME.mono), gap: 24 });
+    this.clockRoom = this.clock.width + CLOCK_SLACK;
+    const lay = headerLayout({ left: M.left, right, titleW: this.title.width, legendW, clockW: this.clockRoom, gap: 24 });
     if (this.title.width > lay.titleMaxW) this.title.text = fitWords(fullTitle, lay.titleMaxW, (t) => { this.title.text = t; return this.title.width; });
     const y = lay.legendRow === 0 ? 12 : 32;
     let x = lay.legendX;

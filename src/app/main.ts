@@ -7,7 +7,7 @@ import type { StackFile } from '../stack/file.ts';
 import type { Stack } from '../stack/types.ts';
 import { Controls, type ControlHost, type SettingsTopic } from './controls.ts';
 import { Engine, type Solved } from './engine.ts';
-import { FieldView, type FieldViewOptions } from './fieldView.ts';
+import { FieldView, type FieldBoxes, type FieldMarks, type FieldViewOptions } from './fieldView.ts';
 import { exportZip } from './exporter.ts';
 import { loadStoredOrigin, loadStoredSettings, loadStoredStack, originLabel, storeOrigin, storeSettings, storeStack, type Origin } from './persist.ts';
 import { describe as describeValue } from '../stack/problems.ts';
@@ -40,12 +40,21 @@ export interface WorkbenchStats {
   recording: boolean;
   /** The latest clip: format, encoder, frames, playing time and the run's time it covers. */
   lastClip: { name: string; description: string; frames: number; fps: number; duration_s: number; bytes: number; start_ns: number; end_ns: number; arrival_ns: number; stepsPerFrame: number } | null;
-  /** The field view's framing: the part of the grid shown, the default one, the stack, mm. */
-  field: { window_mm: [number, number]; default_mm: [number, number]; stack_mm: number; zoomed: boolean };
+  /** The field view's framing: the part of the grid shown, the default one, the stack, mm; grid: framed on the current stack's grid. */
+  field: { window_mm: [number, number]; default_mm: [number, number]; stack_mm: number; zoomed: boolean; grid: boolean };
 }
 
+/** Geometry the browser tests read: where a chart draws a value, what it shows, the field view's header boxes. */
+export interface WorkbenchProbe {
+  chartPoint(view: ChartViewId, x: number, panel?: number): { x: number; y: number } | null;
+  chartRange(view: ChartViewId): [number, number] | null;
+  fieldBoxes(): FieldBoxes;
+  fieldMarks(): FieldMarks;
+}
+type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view';
+
 declare global {
-  interface Window { slabecho?: { stats: WorkbenchStats } }
+  interface Window { slabecho?: { stats: WorkbenchStats; probe: WorkbenchProbe } }
 }
 
 const $ = <T extends HTMLElement>(testid: string): T => {
@@ -82,6 +91,8 @@ class Workbench implements ControlHost {
   private reportVersion = -1;
   private reportRequestVersion = -1;
   private geometry: PulseGeometry | null = null;
+  /** The stack version the animated run was started for. */
+  private pulseVersion = -1;
   private frame: FieldFrame | null = null;
   private pendingFrame: FieldFrame | null = null;
   private playing = false;
@@ -97,7 +108,7 @@ class Workbench implements ControlHost {
   readonly stats: WorkbenchStats = {
     fieldRenders: 0, renderer: '', lastEditToUpdate_ms: null, lastSolve_ms: null, version: 0,
     solvedVersion: -1, reportVersion: -1, step: 0, playing: false, recording: false,
-    field: { window_mm: [0, 0], default_mm: [0, 0], stack_mm: 0, zoomed: false }, lastClip: null,
+    field: { window_mm: [0, 0], default_mm: [0, 0], stack_mm: 0, zoomed: false, grid: false }, lastClip: null,
   };
 
   constructor(initial: { file: StackFile; stack: Stack; warnings: string[]; origin: Origin }, settings: Settings) {
@@ -135,7 +146,16 @@ class Workbench implements ControlHost {
     this.solveNow();
     this.restartPulse(0);
     requestAnimationFrame(() => this.loop());
-    window.slabecho = { stats: this.stats };
+    const charts = { 'spectrum-view': this.spectrum.chart, 'profile-view': this.profile.chart, 'trace-view': this.trace.chart };
+    window.slabecho = {
+      stats: this.stats,
+      probe: {
+        chartPoint: (view, x, panel = 0) => charts[view].clientPoint(x, panel),
+        chartRange: (view) => charts[view].visibleX(),
+        fieldBoxes: () => this.field.layoutBoxes,
+        fieldMarks: () => this.field.layoutMarks,
+      },
+    };
   }
 
   private noteFraming(): void {
@@ -143,6 +163,7 @@ class Workbench implements ControlHost {
     this.stats.field = {
       window_mm: [w.x0_m * 1e3, w.x1_m * 1e3], default_mm: [d.x0_m * 1e3, d.x1_m * 1e3],
       stack_mm: this.sketch.thickness_m * 1e3, zoomed: this.field.zoomed,
+      grid: this.field.hasGrid && this.pulseVersion === this.version,
     };
   }
 
@@ -273,7 +294,7 @@ class Workbench implements ControlHost {
     const rep = this.reportCurrent();
     const pending = this.engine.reporting ? 'FDTD: pulse run in progress'
       : rep === null ? 'FDTD: no finished pulse run for this stack'
-        : rep.skipped !== undefined ? 'FDTD: not run for this stack (see the messages above)' : '';
+        : rep.skipped !== undefined ? 'the pulse engine did not run for this stack (see the messages above)' : '';
     const s = this.solved;
     const look = { mode: this.settings.spectrumMode, freqScale: this.settings.freqScale, magnitude: this.settings.magnitude };
     this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], look, pending);
@@ -309,6 +330,7 @@ class Workbench implements ControlHost {
       this.pulseRefusal = [];
       this.field.setGeometry(null);
       this.field.render();
+      this.pulseVersion = this.version;
       this.engine.pulse(this.file, settings);
       if (this.reportWanted) this.startReport();
     }, delay_ms);
@@ -369,7 +391,7 @@ class Workbench implements ControlHost {
     this.pulseRefusal = m;
     this.messages.show('pulse', 'warn', 'No pulse animation for this stack:', m);
     this.setPlaying(false);
-    this.field.setGeometry(null, 'no pulse animation: the pulse engine declined this stack (see the message above)');
+    this.field.setGeometry(null, 'no pulse animation for this stack (see the messages)');
     this.field.render();
     this.showWarnings();
   }

@@ -36,10 +36,15 @@ describe('default framing', () => {
     }
   });
 
-  it('stays inside the grid and keeps the stack in place when the grid is short', () => {
-    const s = defaultSpan(facts(0.1, 0.2, { x0_m: -0.05, x1_m: 0.2 }));
-    expect(s.x0_m).toBe(-0.05);
-    expect(s.x1_m).toBeLessThanOrEqual(0.2);
+  it('stays inside the grid, moving the excess of one side to the other while there is room', () => {
+    // Behind the stack the grid ends 1 cm after it: the view keeps its width, shifted forward.
+    const d = 0.3, L = 0.1;
+    const s = defaultSpan(facts(d, L, { x0_m: -1, x1_m: d + 0.01 }));
+    expect(s.x1_m).toBeCloseTo(d + 0.01, 12);
+    expect(d / spanWidth(s)).toBeCloseTo(STACK_SHARE, 12);
+    // Short on both sides: the whole grid.
+    const t = defaultSpan(facts(0.1, 0.2, { x0_m: -0.05, x1_m: 0.2 }));
+    expect(t).toEqual({ x0_m: -0.05, x1_m: 0.2 });
   });
 
   it('frames a stack of sheets only (zero thickness) around the pulse', () => {

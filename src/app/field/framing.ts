@@ -29,7 +29,7 @@ export const spanWidth = (s: Span): number => s.x1_m - s.x0_m;
  * The default framing: the stack fills half the width when the incident pulse fits in the front
  * medium beside it; for a pulse longer than that, the front medium grows and the stack's share falls,
  * down to STACK_SHARE_MIN (a thin stack is never lost beside a long pulse; the overview strip then shows
- * the pulse whole). A tenth of the width stays behind the stack. Clipped to what the grid holds.
+ * the pulse whole). A tenth of the width stays behind the stack, less when the grid ends sooner.
  */
 export function defaultSpan(f: FramingFacts, minWidth_m = 0): Span {
   const d = Math.max(0, f.thickness_m);
@@ -50,9 +50,14 @@ export function defaultSpan(f: FramingFacts, minWidth_m = 0): Span {
   return clipTo({ x0_m: x1 - width, x1_m: x1 }, f.full);
 }
 
-/** `s` cut to `full` on each side (not shifted: the stack keeps its place). */
+/**
+ * `s` inside `full`: a side that runs past the grid gives its excess to the other side while there is
+ * room there (the width, and so the stack's share, is kept), and is cut only when there is none.
+ */
 function clipTo(s: Span, full: Span): Span {
-  const x0 = Math.max(full.x0_m, s.x0_m), x1 = Math.min(full.x1_m, s.x1_m);
+  let x0 = s.x0_m, x1 = s.x1_m;
+  if (x1 > full.x1_m) { x0 -= x1 - full.x1_m; x1 = full.x1_m; }
+  if (x0 < full.x0_m) { x1 = Math.min(full.x1_m, x1 + (full.x0_m - x0)); x0 = full.x0_m; }
   return x1 > x0 ? { x0_m: x0, x1_m: x1 } : { ...full };
 }
 

@@ -23,7 +23,7 @@ export interface Scene {
 
 /** Height of the row of tags and sheet caps above the plot. */
 export const TAG_ROW = 16;
-const TAG_W = 15;
+export const TAG_W = 15;
 
 const clampTo = (b: PlotBox, x: number): number => Math.min(b.left + b.w, Math.max(b.left, x));
 
@@ -63,8 +63,8 @@ export function paintAbsorbers(s: Scene): void {
   }
 }
 
-/** Layer bands, the conductor, sheets and every label; returns the key for labels that did not fit. */
-export function paintStack(s: Scene): string[] {
+/** Layer bands, the conductor, sheets and every label; returns where the labels went (the key: those that did not fit). */
+export function paintStack(s: Scene): LabelPlan {
   const { g, box, sketch: sk } = s;
   const top = box.top, h = box.h;
   for (const l of sk.layers) {
@@ -95,7 +95,7 @@ export function paintStack(s: Scene): string[] {
   if (xFront >= box.left && xFront <= box.left + box.w) {
     g.moveTo(xFront, top).lineTo(xFront, top + h).stroke({ width: 1, color: hexNumber(THEME.ink), alpha: 0.5 });
   }
-  return plan.key;
+  return plan;
 }
 
 function measure(s: Scene, text: string, size: number): number {
