@@ -19,7 +19,7 @@ const MODEL_KEYS: Record<ModelName, { required: readonly string[]; optional: rea
   sheet: { required: ['ohm_per_sq'], optional: [] },
 };
 const COMMON_KEYS = ['model', 'valid_GHz', 'note'] as const;
-/** Keys every bulk model takes besides its own. */
+/** Keys every bulk model takes besides its own (a sheet is told why it cannot). */
 const BULK_KEYS = ['magnetic'] as const;
 
 /** Keys of each permeability model in a `magnetic` block. */
@@ -55,9 +55,8 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
   }
   const model = modelValue as ModelName;
   const keys = MODEL_KEYS[model];
-  const bulkKeys = model === 'sheet' ? [] : BULK_KEYS;
-  refuseUnknownKeys(p, def, path, [...COMMON_KEYS, ...bulkKeys, ...keys.required, ...keys.optional]);
-  if (model === 'sheet' && has(def, 'magnetic')) {
+  refuseUnknownKeys(p, def, path, [...COMMON_KEYS, ...BULK_KEYS, ...keys.required, ...keys.optional]);
+  if (model === 'sheet' && has(def, 'magnetic')) { // (listed above so it gets this message, not "unknown key")
     p.error(joinKey(path, 'magnetic'), 'a sheet has no thickness and so no permeability; give the magnetic block to a bulk material');
   }
   for (const k of keys.required) if (!has(def, k)) p.error(joinKey(path, k), `required for the ${model} model`);
