@@ -144,6 +144,7 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
 export function parseMagneticBlock(p: Problems, def: unknown, path: string,
   band_GHz: [number, number] | undefined): MagneticModel | undefined {
   const names = MAGNETIC_MODEL_NAMES.join(', ');
+  const before = p.count;
   if (!isRecord(def)) {
     p.error(path, `must be an object such as {"model": "fixed", "mu_r": 2, "mu_loss": 0.5} (got ${describe(def)})`);
     return undefined;
@@ -159,7 +160,6 @@ export function parseMagneticBlock(p: Problems, def: unknown, path: string,
   const keys = MAGNETIC_KEYS[model];
   refuseUnknownKeys(p, def, path, ['model', ...keys.required, ...keys.optional]);
   for (const k of keys.required) if (!has(def, k)) p.error(joinKey(path, k), `required for the ${model} permeability model`);
-  const before = p.count;
   const num = (key: string, need: string, ok: (x: number) => boolean, fallback?: number): number | undefined =>
     has(def, key) ? readNumber(p, def[key], joinKey(path, key), need, ok) : fallback;
   let out: MagneticModel | undefined;
