@@ -5,7 +5,8 @@ import type { Stack } from '../stack/types.ts';
 import { interfacePositions_m } from '../stack/types.ts';
 import { pulseForBand } from '../fdtd/pulse.ts';
 import { permittivity } from '../materials/permittivity.ts';
-import { sqrt } from '../complex.ts';
+import { permeability } from '../materials/permeability.ts';
+import { mul, sqrt } from '../complex.ts';
 import { C0_m_per_s } from '../units.ts';
 
 export interface SketchLayer {
@@ -61,11 +62,11 @@ export function sketchStack(stack: Stack): StackSketch {
 /**
  * The engine's pulse (fdtd/pulse.ts) has the envelope exp(−(t/τ)²), above 10 % for |t| < τ √ln 10;
  * along x it moves at c / (n cos θ) in the front medium (the depth component of the wave vector
- * is k0 n cos θ), n = Re √ε_r at the band centre.
+ * is k0 n cos θ), n = Re √(ε_r μ_r) at the band centre.
  */
 function pulseLength_m(stack: Stack): number {
   const p = pulseForBand(stack.band_Hz);
-  const n = sqrt(permittivity(stack.front.spec, p.f0_Hz)).re;
+  const n = sqrt(mul(permittivity(stack.front.spec, p.f0_Hz), permeability(stack.front.spec, p.f0_Hz))).re;
   const v = C0_m_per_s / (Math.max(1e-6, n) * Math.max(1e-6, Math.cos(stack.incidence.angle_rad)));
   return 2 * p.tau_s * Math.sqrt(Math.LN10) * v;
 }

@@ -17,7 +17,7 @@ import {
   describe, FORBIDDEN_KEYS, has, isRecord, joinIndex, joinKey, own, Problems, readNumber,
   refuseForbiddenKeys, refuseUnknownKeys, suggest,
 } from './problems.ts';
-import { fmtGHz, obliqueProfileWarning, stackWarnings } from './warnings.ts';
+import { fmtGHz, stackWarnings } from './warnings.ts';
 
 export type ParseResult =
   | { ok: true; stack: Stack; file: StackFile; warnings: string[] }
@@ -83,12 +83,9 @@ export function parseStackObject(obj: unknown): ParseResult {
     points,
   };
 
-  // Warnings: unused definitions, a profile that will not be drawn, then the stack's own warnings.
+  // Warnings: unused definitions, a profile outside the band, then the stack's own warnings.
   const used = new Set<string>([file.front, file.back, ...file.layers.map((l) => l.material)]);
   for (const name of user.defs.keys()) if (!used.has(name)) p.warn(joinKey('materials', name), 'defined but not used');
-  if (incidence.angle_deg > 0 && has(obj, 'profile_GHz')) {
-    p.warnings.push(obliqueProfileWarning(incidence.angle_deg));
-  }
   if (file.profile_GHz < band[0] || file.profile_GHz > band[1]) {
     p.warn('profile_GHz', `${fmtGHz(file.profile_GHz)} GHz lies outside the band ${fmtGHz(band[0])}–${fmtGHz(band[1])} GHz`);
   }

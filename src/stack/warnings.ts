@@ -4,6 +4,7 @@
 import { catalogRanges, pickRange } from '../materials/catalog.ts';
 import type { Material } from '../materials/types.ts';
 import { isSheet } from '../materials/types.ts';
+import { permeability } from '../materials/permeability.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import { ghzFromHz } from '../units.ts';
 import type { Stack } from './types.ts';
@@ -57,15 +58,11 @@ export function stackWarnings(stack: Stack): string[] {
   }
   const front = stack.front;
   if (!isSheet(front.spec)) {
-    const e = permittivity(front.spec, (stack.band_Hz[0] + stack.band_Hz[1]) / 2);
-    if (e.im < 0) {
+    const fc = (stack.band_Hz[0] + stack.band_Hz[1]) / 2;
+    if (permittivity(front.spec, fc).im < 0 || permeability(front.spec, fc).im < 0) {
       out.push(`front: "${front.name}" is lossy; R and T are referred to the plane x = 0 and the incident wave ` +
         'is taken with amplitude 1 there');
     }
   }
   return out;
 }
-
-/** The profile is computed at normal incidence only. */
-export const obliqueProfileWarning = (angle_deg: number): string =>
-  `profile_GHz: the standing-wave profile is computed at normal incidence only; at incidence.angle_deg = ${angle_deg} it is left out`;

@@ -578,13 +578,15 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     // The empty echoes view says why it is empty.
     await expect.poll(() => page.locator('[data-testid="trace-view"]').getAttribute('data-empty')).toMatch(/did not run.*incidence\.polarization/);
     // The refusal is not repeated among the warnings, and no FDTD row or echo is claimed.
-    await expect(page.locator('[data-testid="msg-warnings"]').textContent()).resolves.not.toContain('FDTD skipped');
+    // (With no other warning for this stack there may be no warnings box at all.)
+    expect(await page.locator('[data-testid="msg-warnings"]', { hasText: 'FDTD skipped' }).count()).toBe(0);
     const agreement = await page.locator('[data-testid="agreement"]').textContent();
     expect(agreement).toMatch(/FEM vs exact/);
     expect(agreement).not.toMatch(/FDTD/);
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-oblique-TM.png') });
     await page.locator('[data-testid="trace-view"]').screenshot({ path: join(ARTIFACTS, 'trace-view-oblique-TM.png') });
+    await page.locator('[data-testid="profile-view"]').screenshot({ path: join(ARTIFACTS, 'profile-view-oblique-TM.png') });
   });
 
   it('at 1024 px keeps the field view\'s title clear of its legend and shows the whole panel', async () => {

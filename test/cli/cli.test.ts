@@ -223,17 +223,25 @@ describe('solve', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/exists and is not a directory/);
   });
-  it('oblique incidence: no profile.csv (a stale one is removed), a warning', async () => {
+  it('oblique incidence: profile.csv along the normal line, with the tangential H in TM, and no profile warning', async () => {
     const out = join(tmp.dir, 'out-oblique');
     mkdirSync(out);
     writeFileSync(join(out, 'profile.csv'), 'stale');
     const r = await cli('solve', file({ ...wall, incidence: { angle_deg: 30, polarization: 'TM' } }), '--out', out);
     expect(r.code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['spectrum.csv', 'summary.json']);
-    expect(r.stderr).toMatch(/warning: profile_GHz: .*normal incidence only/);
+    expect(readdirSync(out).sort()).toEqual(['profile.csv', 'spectrum.csv', 'summary.json']);
+    const pr = readCsv(readFileSync(join(out, 'profile.csv'), 'utf8'));
+    expect(pr.header).toEqual(['x_mm', 'E_tmm_re', 'E_tmm_im', 'H_tmm_re', 'H_tmm_im', 'E_fem_re', 'E_fem_im', 'H_fem_re', 'H_fem_im']);
+    // At x = 0: E_t = 1 + R and H_t = 1 − R over their incident values (superposition of the incident and
+    // reflected waves, common practice); R at the profile frequency 3.5 GHz is row 10 of the spectrum.
+    const sp = readCsv(readFileSync(join(out, 'spectrum.csv'), 'utf8'));
+    const R = sp.rows[10], at0 = pr.rows.find((row) => row[0] === 0)!;
+    expect(R[0]).toBe(3.5);
+    expect(Math.hypot(at0[1] - (1 + R[1]), at0[2] - R[2])).toBeLessThan(1e-9);
+    expect(Math.hypot(at0[3] - (1 - R[1]), at0[4] + R[2])).toBeLessThan(1e-9);
+    expect(r.stderr).not.toMatch(/profile_GHz/);
     const s = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
-    expect(s.profile_GHz).toBeNull();
-    expect(s.warnings.filter((w: string) => w.startsWith('profile_GHz: '))).toHaveLength(1);
+    expect(s.profile_GHz).toBe(3.5);
   });
   it('leaves no temporary files and replaces earlier results', async () => {
     const out = join(tmp.dir, 'out-twice');
