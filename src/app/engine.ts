@@ -63,6 +63,8 @@ export class Engine {
   pulse(file: unknown, settings: RunSettings): number {
     const id = this.nextId++;
     this.pulseId = id;
+    this.clipWaiter?.reject(new Error('the stack was changed while the clip was prepared'));
+    this.clipWaiter = null;
     this.post(this.live, { kind: 'pulse', id, file, settings });
     return id;
   }

@@ -7,7 +7,8 @@ import type { StackFile } from '../stack/file.ts';
 import type { Stack } from '../stack/types.ts';
 import { Controls, type ControlHost, type SettingsTopic } from './controls.ts';
 import { Engine, type Solved } from './engine.ts';
-import { FieldView, type FieldBoxes, type FieldMarks, type FieldViewOptions } from './fieldView.ts';
+import { FieldView, type FieldViewOptions } from './fieldView.ts';
+import type { WorkbenchStats } from './stats.ts';
 import { exportZip } from './exporter.ts';
 import { loadStoredOrigin, loadStoredSettings, loadStoredStack, originLabel, storeOrigin, storeSettings, storeStack, type Origin } from './persist.ts';
 import { describe as describeValue } from '../stack/problems.ts';
@@ -24,38 +25,6 @@ import { ProfileView } from './views/profileView.ts';
 import { TraceView } from './views/traceView.ts';
 import { AgreementView } from './views/agreementView.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
-
-/** Figures the browser tests and the benchmark read. */
-export interface WorkbenchStats {
-  fieldRenders: number;
-  renderer: string;
-  /** Edit → exact/FEM views redrawn, ms, for the latest edit. */
-  lastEditToUpdate_ms: number | null;
-  lastSolve_ms: number | null;
-  version: number;
-  solvedVersion: number;
-  reportVersion: number;
-  step: number;
-  playing: boolean;
-  recording: boolean;
-  /** The latest clip: format, encoder, frames, playing time and the run's time it covers. */
-  lastClip: { name: string; description: string; frames: number; fps: number; duration_s: number; bytes: number; start_ns: number; end_ns: number; arrival_ns: number; stepsPerFrame: number } | null;
-  /** The field view's framing: the part of the grid shown, the default one, the stack, mm; grid: framed on the current stack's grid. */
-  field: { window_mm: [number, number]; default_mm: [number, number]; stack_mm: number; zoomed: boolean; grid: boolean };
-}
-
-/** Geometry the browser tests read: where a chart draws a value, what it shows, the field view's header boxes. */
-export interface WorkbenchProbe {
-  chartPoint(view: ChartViewId, x: number, panel?: number): { x: number; y: number } | null;
-  chartRange(view: ChartViewId): [number, number] | null;
-  fieldBoxes(): FieldBoxes;
-  fieldMarks(): FieldMarks;
-}
-type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view';
-
-declare global {
-  interface Window { slabecho?: { stats: WorkbenchStats; probe: WorkbenchProbe } }
-}
 
 const $ = <T extends HTMLElement>(testid: string): T => {
   const el = document.querySelector<T>(`[data-testid="${testid}"]`);
@@ -232,6 +201,9 @@ class Workbench implements ControlHost {
   }
 
   private apply(file: StackFile, stack: Stack, warnings: string[]): void {
+    // A clip in the making shows the old stack: it stops (its frames would never come).
+    this.frameWaiter?.fail(new Error('the stack was changed while the clip was made'));
+    this.frameWaiter = null;
     this.file = file;
     this.stack = stack;
     this.inputWarnings = warnings;

@@ -20,7 +20,7 @@ import { formatEchoesCsv } from '../../src/report/echo-table.ts';
 import { findColumn, formatCsv } from '../../src/report/table.ts';
 import { solveTmm } from '../../src/tmm/solve.ts';
 import { stackThickness_m } from '../../src/stack/types.ts';
-import type { WorkbenchProbe, WorkbenchStats } from '../../src/app/main.ts';
+import type { WorkbenchProbe, WorkbenchStats } from '../../src/app/stats.ts';
 
 const ARTIFACTS = join(ROOT, 'test-artifacts');
 const VIEWS = ['field-view', 'trace-view', 'spectrum-view', 'profile-view'] as const;
