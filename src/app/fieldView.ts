@@ -147,6 +147,12 @@ export class FieldView {
 
   get layoutMarks(): FieldMarks { return { plan: structuredClone(this.marks), tagWidth: TAG_W }; }
 
+  /** The static labels drawn now, with where they are (for the tests). */
+  get labelTexts(): Array<{ text: string; x: number; y: number; w: number }> {
+    return this.labels.children.filter((c): c is Text => c instanceof Text && c.visible)
+      .map((t) => ({ text: t.text, x: t.x, y: t.y, w: t.width }));
+  }
+
   setOptions(options: FieldViewOptions): void {
     this.options = options;
     this.dirty = true;

@@ -123,6 +123,7 @@ class Workbench implements ControlHost {
         chartRange: (view) => charts[view].visibleX(),
         fieldBoxes: () => this.field.layoutBoxes,
         fieldMarks: () => this.field.layoutMarks,
+        fieldLabels: () => this.field.labelTexts,
       },
     };
   }

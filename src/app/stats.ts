@@ -28,6 +28,7 @@ export interface WorkbenchProbe {
   chartRange(view: ChartViewId): [number, number] | null;
   fieldBoxes(): FieldBoxes;
   fieldMarks(): FieldMarks;
+  fieldLabels(): Array<{ text: string; x: number; y: number; w: number }>;
 }
 type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view';
 

@@ -34,8 +34,9 @@ export class TextPool {
     this.used.clear();
   }
 
-  /** End a redraw: texts not used this time are destroyed. */
+  /** End a redraw: texts in use go to whole pixels (a text between pixels is drawn blurred), those not used are destroyed. */
   sweep(): void {
+    for (const list of this.used.values()) for (const t of list) t.position.set(Math.round(t.x), Math.round(t.y));
     for (const list of this.free.values()) for (const t of list) { t.removeFromParent(); t.destroy(); }
     this.free.clear();
   }
