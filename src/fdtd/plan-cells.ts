@@ -94,9 +94,15 @@ export function chooseCells(c: CellInputs): CellChoice {
     return { dx: thickness / stackCells, stackCells };
   };
   const stackCellsOf = (dx: number): number => (lumped || thickness <= 0 ? 0 : Math.round(thickness / dx));
+  const seen = new Map<number, number>();
   const predict = (dx: number): number => {
-    const e = gridError(eff, c.freqs, { dx_m: dx, dt_s: (c.courant * dx) / C0_m_per_s, courant: c.courant }, stackCellsOf(dx));
-    return Math.max(e.R, e.T);
+    let p = seen.get(dx);
+    if (p === undefined) {
+      const e = gridError(eff, c.freqs, { dx_m: dx, dt_s: (c.courant * dx) / C0_m_per_s, courant: c.courant }, stackCellsOf(dx));
+      p = Math.max(e.R, e.T);
+      seen.set(dx, p);
+    }
+    return p;
   };
   const done = (N: number, overLimit: boolean): CellChoice => {
     const { dx, stackCells } = cellsFor(N);
