@@ -9,7 +9,6 @@ import { describe, expect, it } from 'vitest';
 import { fitWarnings, resolveStack } from '../../src/fdtd/effective.ts';
 import { fitPowerLaw, type PowerLawFit } from '../../src/fdtd/fit-power-law.ts';
 import { stepModelPermittivity, type StepModel } from '../../src/fdtd/media.ts';
-import { nnls } from '../../src/fdtd/nnls.ts';
 import { solveEffective } from '../../src/fdtd/stepped-exact.ts';
 import { permittivity } from '../../src/materials/permittivity.ts';
 import type { PowerLawModel } from '../../src/materials/types.ts';
@@ -40,19 +39,6 @@ function kramersKronig(m: StepModel, f: number): number {
   }
   return ((2 / Math.PI) * sum * (b - a)) / (N + 1);
 }
-
-describe('NNLS (Lawson & Hanson active set)', () => {
-  it('recovers a non-negative solution and clamps a would-be negative coefficient to zero', () => {
-    // A = I₃ with b = (1, −2, 3): min‖x − b‖, x ≥ 0 → (1, 0, 3).
-    const A = Float64Array.from([1, 0, 0, 0, 1, 0, 0, 0, 1]);
-    const x = nnls(A, 3, 3, Float64Array.from([1, -2, 3]));
-    expect(Array.from(x)).toEqual([1, 0, 3]);
-    const B = Float64Array.from([1, 1, 1, 2, 1, 3, 1, 4]);
-    const y = nnls(B, 4, 2, Float64Array.from([3, 5, 7, 9]));
-    expect(y[0]).toBeCloseTo(1, 10);
-    expect(y[1]).toBeCloseTo(2, 10);
-  });
-});
 
 describe('power-law fit (linear program over passive second-order terms and σ)', () => {
   for (const [name, pl] of Object.entries(itu)) {
