@@ -36,15 +36,14 @@ export const FIT_WARN_IM = 0.03;
 export function fitWarnings(fits: readonly PowerLawFit[]): string[] {
   const out: string[] = [];
   for (const f of fits) {
-    const parts: string[] = [];
-    if (f.maxRelErr_re > FIT_WARN_RE) parts.push(`${(100 * f.maxRelErr_re).toFixed(2)} % in ε'`);
-    if (f.maxRelErr_im > FIT_WARN_IM) parts.push(`${(100 * f.maxRelErr_im).toFixed(2)} % in ε''`);
-    if (f.minEpsRe_wide < 1) parts.push(`ε' down to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top`);
-    if (parts.length === 0) continue;
+    const high = f.maxRelErr_re > FIT_WARN_RE || f.maxRelErr_im > FIT_WARN_IM;
+    const negative = f.minEpsRe_wide < 1;
+    if (!high && !negative) continue;
+    const below = negative ? `; ε' falls to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top` : '';
     out.push(
       `material "${f.material}": stepped by the pulse engine as a fitted causal model (a power law is not causal); ` +
-      `its worst error over the band is ${parts.join(' and ')} (${(100 * f.maxRelErr_re).toFixed(2)} % / ${(100 * f.maxRelErr_im).toFixed(2)} % in ε' / ε''), ` +
-      `weighted toward what reaches the probes. The agreement row "stepped media-tmm" shows what this does to R and T.`,
+      `its worst error over the band is ${(100 * f.maxRelErr_re).toFixed(2)} % in ε' and ${(100 * f.maxRelErr_im).toFixed(2)} % in ε''${below} ` +
+      '(the fit favours the frequencies whose waves reach the probes). The agreement row "stepped media-tmm" shows what this does to R and T.',
     );
   }
   return out;
