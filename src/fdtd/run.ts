@@ -2,6 +2,8 @@
 // DFT for the profile, convergence watch (running probe spectra, stored energy with pole states; blow-up
 // detection). See types.ts for the contract.
 //
+// The steps themselves are an engine's (engine.ts: the TypeScript kernel or the WebAssembly one), a batch of at
+// most BATCH_STEPS at a time; the run copies each batch's probe table into its records.
 // One step n → n+1 (all allocation-free):
 //   1. TF/SF: the H node just in front of the TF/SF plane is corrected by −S·E_inc(tfsf)ⁿ
 //      (taken from the auxiliary grid before its own E update); both grids' H are advanced.
@@ -19,13 +21,14 @@ import type { Stack } from '../stack/types.ts';
 import { buildGrids } from './build.ts';
 import { SETTLED_FRACTION, SpectraWatch } from './convergence.ts';
 import { FdtdInstabilityError } from './errors.ts';
-import { type DispersiveSpan, type KernelState, updateE, updateH } from './kernel.ts';
+import { BATCH_STEPS, type EngineKind, type EngineSetup, type StepEngine } from './engine.ts';
+import { chooseEngine } from './engine-choice.ts';
 import { planGrid } from './plan.ts';
 import { type PulseShape, pulseSpectrumRelative, pulseValue } from './pulse.ts';
 import type { DoneReason, EnergyReading, GridPlan, PulseOptions, PulseRun, PulseRunRecords } from './types.ts';
 
 /** The stored energy is summed every this many steps (blow-up watch; convergence checks fall on these steps). */
-const ENERGY_EVERY = 32;
+const ENERGY_EVERY = BATCH_STEPS;
 /** Energy above this multiple of the peak seen while the source was on means a blow-up. */
 const BLOWUP_FACTOR = 100;
 /** The profile's DFT ignores field content below this fraction of the pulse's spectral peak. */
@@ -39,32 +42,7 @@ export function profileStride(pulse: PulseShape, profile_Hz: number, dt_s: numbe
   return Math.max(1, Math.floor(1 / (dt_s * (fMax + profile_Hz))));
 }
 
-/**
- * Energy held by the poles (normalized like the field energy): P̃²/Δε for a Debye pole, (P̃'² + ω0²P̃²)/c for a
- * second-order one (their stored energies, dropping ε0/2 as the field energy does). `e` is the E of the same
- * step, which completes the state (kernel.ts).
- */
-export function poleEnergy(d: DispersiveSpan | null, e: Float64Array, dt: number): number {
-  if (d === null) return 0;
-  let W = 0;
-  for (const g of d.groups) {
-    for (let k = 0; k < g.hi - g.lo; k++) {
-      const f = g.fill[k], E = e[g.lo + k];
-      if (!(f > 0)) continue;
-      for (let q = 0; q < g.nd; q++) {
-        const P = g.dState[k * g.nd + q] + g.db[q] * f * E;
-        W += (P * P) / (f * g.dEps[q]);
-      }
-      for (let q = 0; q < g.no; q++) {
-        const j = 2 * (k * g.no + q);
-        const P = g.oState[j] + g.oz[q] * f * E, Pold = g.oState[j + 1];
-        const rate = (P - Pold) / dt, mean = (P + Pold) / 2;
-        W += (rate * rate + g.ow0sq[q] * mean * mean) / (f * g.oc[q]);
-      }
-    }
-  }
-  return W;
-}
+export { poleEnergy } from './engine-js.ts';
 
 /** A probe's time record; room is made before a batch of steps, so stepping itself allocates nothing. */
 class Recorder {
@@ -79,12 +57,27 @@ class Recorder {
   }
 }
 
+/** The source, sampled: the value driven into the auxiliary grid's node 0 after step n (zero once it is over). */
+export function sourceSamples(pulse: PulseShape, dt_s: number): Float64Array {
+  const count = Math.floor(pulse.end_s / dt_s) + 2;
+  const out = new Float64Array(count);
+  for (let n = 0; n < count; n++) { const t = n * dt_s; out[n] = t <= pulse.end_s ? pulseValue(pulse, t) : 0; }
+  return out;
+}
+
+/** How a run is made besides its plan (internal: the benchmark steps a run past its convergence). */
+export interface RunMaking {
+  engine?: EngineKind;
+  /** Never end on convergence (the checks still run): a benchmark steps the production step for as long as it likes. */
+  endless?: boolean;
+}
+
 class Run implements PulseRun {
   readonly plan: GridPlan;
   readonly warnings: string[];
-  private readonly main: KernelState;
-  private readonly aux: KernelState;
-  private readonly epsInf: Float64Array;
+  readonly engine: EngineKind;
+  readonly engineFallback: string | null;
+  private readonly kernel: StepEngine;
   private n = 0;
   private finished: DoneReason | null = null;
   private readonly recInc: Recorder;
@@ -93,26 +86,20 @@ class Run implements PulseRun {
   private readonly recSf: Recorder;
   private count = 1;
   private readonly dftLo: number;
-  private readonly dftRe: Float64Array;
-  private readonly dftIm: Float64Array;
-  private incRe = 0;
-  private incIm = 0;
   private readonly omegaDt: number;
   private readonly stride: number;
   private readonly watch: SpectraWatch;
   /** Steps between convergence checks (a multiple of ENERGY_EVERY). */
   private readonly checkEvery: number;
+  private readonly endless: boolean;
   private energyNow = 0;
   private energyPeak = 0;
   private sourcePeak = 0;
 
-  constructor(stack: Stack, plan: GridPlan) {
+  constructor(stack: Stack, plan: GridPlan, making: RunMaking = {}) {
     this.plan = plan;
     this.warnings = [...plan.warnings];
-    const built = buildGrids(plan, stack.band_Hz);
-    this.main = built.main;
-    this.aux = built.aux;
-    this.epsInf = built.epsInf;
+    this.endless = making.endless === true;
     const cap = Math.min(plan.expectedSteps + 1, plan.stepsLimit + 1);
     this.recInc = new Recorder(cap);
     this.recRef = new Recorder(cap);
@@ -121,14 +108,20 @@ class Run implements PulseRun {
     const nodes = plan.nodes;
     this.dftLo = nodes.tfsf;
     const dftHi = plan.effective.back === 'pec' ? nodes.back + 1 : nodes.pmlBackStart;
-    this.dftRe = new Float64Array(dftHi - this.dftLo);
-    this.dftIm = new Float64Array(dftHi - this.dftLo);
     this.omegaDt = 2 * Math.PI * plan.profile_Hz * plan.dt_s;
     this.stride = profileStride(plan.pulse, plan.profile_Hz, plan.dt_s);
     this.watch = new SpectraWatch(stack.band_Hz, plan.dt_s, SETTLED_FRACTION * plan.accuracyTarget);
     this.checkEvery = ENERGY_EVERY * Math.max(1, Math.round(this.watch.every / ENERGY_EVERY));
-    this.main.injH = nodes.tfsf - 1;
-    this.main.injE = nodes.tfsf;
+    const setup: EngineSetup = {
+      tfsf: nodes.tfsf, auxOffset: nodes.auxOffset,
+      front: nodes.front, back: plan.effective.back === 'pec' ? -1 : nodes.back, sfProbe: nodes.sfProbe,
+      source: sourceSamples(plan.pulse, plan.dt_s),
+      dftLo: this.dftLo, dftLength: dftHi - this.dftLo, stride: this.stride, dt_s: plan.dt_s,
+    };
+    const chosen = chooseEngine({ grids: buildGrids(plan, stack.band_Hz), setup }, making.engine);
+    this.kernel = chosen.engine;
+    this.engine = chosen.engine.kind;
+    this.engineFallback = chosen.fallback;
   }
 
   get stepIndex(): number { return this.n; }
@@ -140,60 +133,48 @@ class Run implements PulseRun {
 
   step(count: number): number {
     let taken = 0;
-    const main = this.main, aux = this.aux, nodes = this.plan.nodes;
-    const off = nodes.auxOffset, a = nodes.tfsf;
-    const dt = this.plan.dt_s, pulse = this.plan.pulse, limit = this.plan.stepsLimit;
+    const limit = this.plan.stepsLimit;
     const last = count > 0 ? Math.min(this.n + Math.ceil(count), limit) : this.n; // NaN/Infinity: limit or none
     for (const r of [this.recInc, this.recRef, this.recTra, this.recSf]) r.reserve(last);
     while (taken < count && this.finished === null) {
       if (this.n >= limit) { this.finish('step-limit'); break; }
-      // H half step (TF/SF: the scattered H in front of the plane must not see the incident E).
-      main.injHValue = -aux.e[a - off];
-      updateH(aux);
-      updateH(main);
-      // E step (TF/SF: the first total E node needs the incident H of the node in front).
-      main.injEValue = -aux.h[a - 1 - off];
-      updateE(main);
-      updateE(aux);
-      this.n++;
-      const t = this.n * dt;
-      aux.e[0] = t <= pulse.end_s ? pulseValue(pulse, t) : 0;
-      this.sample();
-      taken++;
-      if (this.n % ENERGY_EVERY === 0) this.watchEnergy(t);
+      // A batch ends at the next energy step, the step limit or the count asked for.
+      const k = Math.min(Math.ceil(count - taken), limit - this.n, ENERGY_EVERY - (this.n % ENERGY_EVERY));
+      this.fillPhasors(k);
+      this.kernel.advance(this.n, k);
+      this.record(k);
+      this.n += k;
+      taken += k;
+      if (this.n % ENERGY_EVERY === 0) this.watchEnergy(this.n * this.plan.dt_s);
     }
     return taken;
   }
 
-  private sample(): void {
-    const nodes = this.plan.nodes, e = this.main.e, k = this.n;
-    const inc = this.aux.e[nodes.front - nodes.auxOffset];
-    const tot = e[nodes.front];
-    this.recInc.data[k] = inc;
-    this.recRef.data[k] = tot - inc;
-    this.recTra.data[k] = this.plan.effective.back === 'pec' ? 0 : e[nodes.back];
-    this.recSf.data[k] = e[nodes.sfProbe];
-    this.count = k + 1;
-    if (k % this.stride !== 0) return;
-    // Running DFT, e^{−jωt} kernel (e^{+jωt} phasors), one term every `stride` steps.
-    const ph = this.omegaDt * k, c = Math.cos(ph), s = Math.sin(ph);
-    const re = this.dftRe, im = this.dftIm, lo = this.dftLo, len = re.length;
-    for (let i = 0; i < len; i++) { const v = e[lo + i]; re[i] += v * c; im[i] -= v * s; }
-    this.incRe += inc * c;
-    this.incIm -= inc * s;
+  /** cos, sin of the DFT phase (e^{−jωt} kernel, e^{+jωt} phasors) for the DFT steps of the next k. */
+  private fillPhasors(k: number): void {
+    const ph = this.kernel.phasors;
+    for (let j = 0; j < k; j++) {
+      const t = this.n + j + 1;
+      if (t % this.stride !== 0) continue;
+      const a = this.omegaDt * t;
+      ph[2 * j] = Math.cos(a);
+      ph[2 * j + 1] = Math.sin(a);
+    }
   }
 
-  /** Stored energy now: fields and pole states (normalized units, see EnergyReading). */
-  private storedEnergy(): number {
-    const e = this.main.e, h = this.main.h, w = this.epsInf;
-    let W = 0;
-    for (let i = 0; i < e.length; i++) W += w[i] * e[i] * e[i];
-    for (let i = 0; i < h.length; i++) W += h[i] * h[i];
-    return W + poleEnergy(this.main.disp, e, this.plan.dt_s);
+  /** The probe table of the last k steps into the records. */
+  private record(k: number): void {
+    const p = this.kernel.probes;
+    const inc = this.recInc.data, ref = this.recRef.data, tra = this.recTra.data, sf = this.recSf.data;
+    for (let j = 0; j < k; j++) {
+      const t = this.n + j + 1;
+      inc[t] = p[4 * j]; ref[t] = p[4 * j + 1]; tra[t] = p[4 * j + 2]; sf[t] = p[4 * j + 3];
+    }
+    this.count = this.n + k + 1;
   }
 
   private watchEnergy(t: number): void {
-    const W = this.storedEnergy();
+    const W = this.kernel.energy();
     this.energyNow = W;
     if (!Number.isFinite(W)) this.blowUp('a field became NaN or infinite');
     if (W > this.energyPeak) this.energyPeak = W;
@@ -203,11 +184,11 @@ class Run implements PulseRun {
     if (this.n % this.checkEvery !== 0) return;
     this.watch.feed(this.recInc.data, this.recRef.data, this.recTra.data, this.n + 1);
     const settled = this.watch.check();
-    if (!sourceOn && settled && W <= this.energyPeak * Math.pow(10, -this.plan.decay_dB / 10)) this.finish('converged');
+    if (!sourceOn && settled && !this.endless && W <= this.energyPeak * Math.pow(10, -this.plan.decay_dB / 10)) this.finish('converged');
   }
 
   private blowUp(what: string): never {
-    const e = this.main.e;
+    const e = this.kernel.mainE;
     let node = 0, worst = -1;
     for (let i = 0; i < e.length; i++) {
       const v = Math.abs(e[i]);
@@ -240,10 +221,10 @@ class Run implements PulseRun {
     return out;
   }
 
-  totalField(): Float64Array { return this.main.e; }
+  totalField(): Float64Array { return this.kernel.mainE; }
 
   incidentField(out: Float64Array): Float64Array {
-    const off = this.plan.nodes.auxOffset, ae = this.aux.e;
+    const off = this.plan.nodes.auxOffset, ae = this.kernel.auxE;
     for (let i = 0; i < out.length; i++) {
       const j = i - off;
       out[i] = j >= 0 && j < ae.length ? ae[j] : 0;
@@ -263,14 +244,15 @@ class Run implements PulseRun {
   }
 
   profile(): Profile {
-    const len = this.dftRe.length, dx = this.plan.dx_m, i0 = this.plan.nodes.front;
+    const re = this.kernel.dftRe, im = this.kernel.dftIm, [incRe, incIm] = this.kernel.incidentDft();
+    const len = re.length, dx = this.plan.dx_m, i0 = this.plan.nodes.front;
     const x_m = new Float64Array(len), E_re = new Float64Array(len), E_im = new Float64Array(len);
-    const d = this.incRe * this.incRe + this.incIm * this.incIm;
+    const d = incRe * incRe + incIm * incIm;
     for (let i = 0; i < len; i++) {
       x_m[i] = (this.dftLo + i - i0) * dx;
-      const a = this.dftRe[i], b = this.dftIm[i];
-      E_re[i] = d > 0 ? (a * this.incRe + b * this.incIm) / d : 0;
-      E_im[i] = d > 0 ? (b * this.incRe - a * this.incIm) / d : 0;
+      const a = re[i], b = im[i];
+      E_re[i] = d > 0 ? (a * incRe + b * incIm) / d : 0;
+      E_im[i] = d > 0 ? (b * incRe - a * incIm) / d : 0;
     }
     return { f_Hz: this.plan.profile_Hz, x_m, E_re, E_im };
   }
@@ -283,7 +265,12 @@ class Run implements PulseRun {
 
 /** Plan and allocate a pulse run (throws PlanError before allocating when the run is refused). */
 export function createPulseRun(stack: Stack, options: PulseOptions = {}): PulseRun {
-  return new Run(stack, planGrid(stack, options));
+  return new Run(stack, planGrid(stack, options), { engine: options.engine });
+}
+
+/** A run of a given plan (the benchmark's uniform grids; `endless` keeps it stepping past convergence). */
+export function createRunOfPlan(stack: Stack, plan: GridPlan, making: RunMaking = {}): PulseRun {
+  return new Run(stack, plan, making);
 }
 
 export interface RunToEndOptions {

@@ -10,6 +10,7 @@ import type { Profile } from '../results.ts';
 import type { PulseShape } from './pulse.ts';
 import type { StepModel } from './media.ts';
 import type { PowerLawFit } from './fit-power-law.ts';
+import type { EngineKind } from './engine.ts';
 
 /** Knobs of a pulse run; every one optional. */
 export interface PulseOptions {
@@ -33,6 +34,11 @@ export interface PulseOptions {
   maxCells?: number;
   /** Refuse runs needing more cell-updates than this (default 3e10, a few minutes of work). */
   maxWork?: number;
+  /**
+   * What steps the run: 'wasm-simd' (the WebAssembly SIMD kernel; an Error when the host has provided none or it
+   * cannot run), 'js' (the TypeScript reference kernel). Default: WebAssembly when provided, else TypeScript.
+   */
+  engine?: EngineKind;
 }
 
 /** One bulk layer's figures on the chosen grid. */
@@ -160,6 +166,10 @@ export interface EnergyReading {
 
 export interface PulseRun {
   readonly plan: GridPlan;
+  /** The kernel stepping this run (both give the same fields to the last bit, test/fdtd/engines.test.ts). */
+  readonly engine: EngineKind;
+  /** Why WebAssembly was not used though not refused (the host provided no module, it failed to compile…), or null. */
+  readonly engineFallback: string | null;
   /** Advance up to n steps; returns the steps taken (fewer when the run finishes). */
   step(n: number): number;
   readonly stepIndex: number;

@@ -1,0 +1,103 @@
+// The TypeScript engine: the reference kernel (kernel.ts) stepped in the order engine.ts describes. The
+// WebAssembly engine is tested against it, and it runs wherever WebAssembly SIMD is missing.
+
+import { batchTable, type EngineInput, type StepEngine } from './engine.ts';
+import { type DispersiveSpan, type KernelState, updateE, updateH } from './kernel.ts';
+
+/**
+ * Energy held by the poles (normalized like the field energy): P̃²/Δε for a Debye pole, (P̃'² + ω0²P̃²)/c for a
+ * second-order one (their stored energies, dropping ε0/2 as the field energy does). `e` is the E of the same
+ * step, which completes the state (kernel.ts).
+ */
+export function poleEnergy(d: DispersiveSpan | null, e: Float64Array, dt: number): number {
+  if (d === null) return 0;
+  let W = 0;
+  for (const g of d.groups) {
+    for (let k = 0; k < g.hi - g.lo; k++) {
+      const f = g.fill[k], E = e[g.lo + k];
+      if (!(f > 0)) continue;
+      for (let q = 0; q < g.nd; q++) {
+        const P = g.dState[k * g.nd + q] + g.db[q] * f * E;
+        W += (P * P) / (f * g.dEps[q]);
+      }
+      for (let q = 0; q < g.no; q++) {
+        const j = 2 * (k * g.no + q);
+        const P = g.oState[j] + g.oz[q] * f * E, Pold = g.oState[j + 1];
+        const rate = (P - Pold) / dt, mean = (P + Pold) / 2;
+        W += (rate * rate + g.ow0sq[q] * mean * mean) / (f * g.oc[q]);
+      }
+    }
+  }
+  return W;
+}
+
+export class JsEngine implements StepEngine {
+  readonly kind = 'js' as const;
+  readonly mainE: Float64Array;
+  readonly auxE: Float64Array;
+  readonly mainH: Float64Array;
+  readonly dftRe: Float64Array;
+  readonly dftIm: Float64Array;
+  readonly phasors = batchTable(2);
+  readonly probes = batchTable(4);
+  private readonly main: KernelState;
+  private readonly aux: KernelState;
+  private readonly epsInf: Float64Array;
+  private incRe = 0;
+  private incIm = 0;
+
+  constructor(private readonly input: EngineInput) {
+    const { grids, setup } = input;
+    this.main = grids.main;
+    this.aux = grids.aux;
+    this.epsInf = grids.epsInf;
+    this.mainE = grids.main.e;
+    this.auxE = grids.aux.e;
+    this.mainH = grids.main.h;
+    this.dftRe = new Float64Array(setup.dftLength);
+    this.dftIm = new Float64Array(setup.dftLength);
+    this.main.injH = setup.tfsf - 1;
+    this.main.injE = setup.tfsf;
+  }
+
+  advance(n: number, k: number): void {
+    const main = this.main, aux = this.aux, s = this.input.setup;
+    const a = s.tfsf, off = s.auxOffset, src = s.source;
+    for (let j = 0; j < k; j++) {
+      main.injHValue = -aux.e[a - off];
+      updateH(aux);
+      updateH(main);
+      main.injEValue = -aux.h[a - 1 - off];
+      updateE(main);
+      updateE(aux);
+      const t = n + j + 1;
+      aux.e[0] = t < src.length ? src[t] : 0;
+      this.sample(t, j);
+    }
+  }
+
+  private sample(t: number, j: number): void {
+    const s = this.input.setup, e = this.main.e, p = this.probes;
+    const inc = this.aux.e[s.front - s.auxOffset], tot = e[s.front];
+    p[4 * j] = inc;
+    p[4 * j + 1] = tot - inc;
+    p[4 * j + 2] = s.back < 0 ? 0 : e[s.back];
+    p[4 * j + 3] = e[s.sfProbe];
+    if (t % s.stride !== 0) return;
+    const c = this.phasors[2 * j], sn = this.phasors[2 * j + 1];
+    const re = this.dftRe, im = this.dftIm, lo = s.dftLo, len = re.length;
+    for (let i = 0; i < len; i++) { const v = e[lo + i]; re[i] += v * c; im[i] -= v * sn; }
+    this.incRe += inc * c;
+    this.incIm -= inc * sn;
+  }
+
+  incidentDft(): [number, number] { return [this.incRe, this.incIm]; }
+
+  energy(): number {
+    const e = this.main.e, h = this.main.h, w = this.epsInf;
+    let W = 0;
+    for (let i = 0; i < e.length; i++) W += w[i] * e[i] * e[i];
+    for (let i = 0; i < h.length; i++) W += h[i] * h[i];
+    return W + poleEnergy(this.main.disp, e, this.input.setup.dt_s);
+  }
+}
