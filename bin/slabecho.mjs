@@ -1,6 +1,7 @@
 #!/usr/bin/env node
 // Entry point for `npx slabecho`: the compiled CLI (build/cli.mjs, made by `npm ci` through the `prepare`
-// script) when it is newer than every source file; otherwise the TypeScript sources through tsx (development).
+// script) when it is newer than every source file; otherwise the TypeScript sources through tsx (development),
+// after rebuilding the WebAssembly step if its sources changed.
 import { readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -25,6 +26,8 @@ function bundleIsCurrent() {
 let main;
 if (bundleIsCurrent()) ({ main } = await import(bundle));
 else {
+  const { buildWasm } = await import('./build-wasm.mjs');
+  await buildWasm(); // only when its sources changed
   const { register } = await import('tsx/esm/api');
   register();
   ({ main } = await import('../src/cli/main.ts'));

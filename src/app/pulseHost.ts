@@ -21,7 +21,8 @@ export const pulseOptions = (settings: RunSettings): PulseOptions =>
 
 /** A fresh animated run, advanced through the quiet lead-in so play shows the pulse at once. */
 function create(stack: Stack, settings: RunSettings): PulseRun {
-  const r = createPulseRun(stack, pulseOptions(settings));
+  // The field view shows the reflected pulse beside the stack and the incident wave across the whole grid.
+  const r = createPulseRun(stack, { ...pulseOptions(settings), forView: true });
   r.step(leadInSteps(r.plan.pulse, r.plan.dt_s));
   return r;
 }

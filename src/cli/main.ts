@@ -10,6 +10,7 @@ import { solve } from './commands/solve.ts';
 import { converge } from './commands/converge.ts';
 import { run } from './commands/run.ts';
 import { bench } from './commands/bench.ts';
+import { provideCliStepModule } from './step-module.ts';
 
 export const COMMANDS: readonly Command[] = [
   check,
@@ -57,6 +58,7 @@ export async function main(argv: string[], io: Io = processIo()): Promise<number
 
 /** Run one command, turning anything it throws into one line on stderr and an exit code. */
 export async function runCommand(cmd: Command, args: string[], io: Io): Promise<number> {
+  provideCliStepModule();
   try {
     return await cmd.run(args, io);
   } catch (e) {

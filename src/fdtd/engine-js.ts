@@ -14,15 +14,15 @@ export function poleEnergy(d: DispersiveSpan | null, e: Float64Array, dt: number
   let W = 0;
   for (const g of d.groups) {
     for (let k = 0; k < g.hi - g.lo; k++) {
-      const f = g.fill[k], E = e[g.lo + k];
+      const f = g.fill[k], E = e[g.lo + k], fE = f * E;
       if (!(f > 0)) continue;
       for (let q = 0; q < g.nd; q++) {
-        const P = g.dState[k * g.nd + q] + g.db[q] * f * E;
+        const P = g.dState[k * g.nd + q] + g.db[q] * fE;
         W += (P * P) / (f * g.dEps[q]);
       }
       for (let q = 0; q < g.no; q++) {
         const j = 2 * (k * g.no + q);
-        const P = g.oState[j] + g.oz[q] * f * E, Pold = g.oState[j + 1];
+        const P = g.oState[j] + g.oz[q] * fE, Pold = g.oState[j + 1];
         const rate = (P - Pold) / dt, mean = (P + Pold) / 2;
         W += (rate * rate + g.ow0sq[q] * mean * mean) / (f * g.oc[q]);
       }

@@ -136,18 +136,18 @@ function dispersivePre(d: DispersiveSpan, e: Float64Array): void {
     const no = G.no, oa = G.oa, ox = G.ox, oz = G.oz, st = G.oState;
     for (let k = 0; k < n; k++) {
       const E = e[G.lo + k], f = fill[k];
+      // The node's share of Eⁿ and of Eⁿ⁺¹'s partner 2Eⁿ + Eⁿ⁻¹, formed once for all its poles.
+      const fE = f * E, fE2 = f * (2 * E + eOld[off + k]);
       let sum = 0;
       for (let q = 0, j = k * nd; q < nd; q++, j++) {
-        const bE = db[q] * f * E;
+        const bE = db[q] * fE;
         const P = v[j] + bE; // P̃ⁿ
         sum += (1 - da[q]) * P;
         v[j] = da[q] * P + bE;
       }
-      const E2 = 2 * E + eOld[off + k];
       for (let q = 0, j = 2 * k * no; q < no; q++, j += 2) {
-        const z = oz[q] * f;
-        const P = st[j] + z * E; // P̃ⁿ
-        const partial = oa[q] * P + ox[q] * st[j + 1] + z * E2;
+        const P = st[j] + oz[q] * fE; // P̃ⁿ
+        const partial = oa[q] * P + ox[q] * st[j + 1] + oz[q] * fE2;
         sum -= partial - P;
         st[j] = partial;
         st[j + 1] = P;

@@ -38,6 +38,10 @@ export const GRID_SHARE = 0.2;
 const FRONT_GAP_WAVELENGTHS = 6;
 /** Cells between the front PML and the TF/SF plane (the scattered-field probe sits in the middle). */
 const SF_CELLS = 4;
+/** The auxiliary grid's CPML begins this many cells behind the front face (unless it must span the grid). */
+const AUX_TAIL = 10;
+/** Cells of uniform medium between the TF/SF plane and the front face, and behind the back face, at least. */
+const MIN_GAP = 10;
 /** Prediction frequencies: at least this many, and this many per resonance of the stack's longest round trip. */
 const MIN_BUDGET_FREQUENCIES = 33;
 const MAX_BUDGET_FREQUENCIES = 257;
@@ -124,7 +128,7 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   });
   const { dx_m: dx, stackCells } = cells;
   const dt = (courant * dx) / C0_m_per_s;
-  const nodes = layout(stack, effective, dx, stackCells, o.pmlCells);
+  const nodes = layout(stack, effective, dx, stackCells, o.pmlCells, options.forView === true);
   if (cells.overLimit || nodes.total > o.maxCells) {
     const need = cells.overLimit ? Math.max(nodes.total, stackCells) : nodes.total;
     throw new PlanError(
@@ -190,20 +194,42 @@ const innerSheetWarning = (eff: EffectiveStack, mis: number): boolean =>
   eff.sheets.some((s) => s.x_m > 0 && s.x_m < eff.thickness_m) && mis > 0.05 && mis > SHEET_ALIGN_TOL;
 
 /** [wall | CPML | SF cells (probe) | TF/SF plane | front gap | stack | back gap | CPML | wall]. */
-function layout(stack: Stack, eff: EffectiveStack, dx: number, stackCells: number, P: number): GridNodes {
+function layout(stack: Stack, eff: EffectiveStack, dx: number, stackCells: number, P: number, forView: boolean): GridNodes {
   const lambdaAt = (m: StepModel, f: number): number => C0_m_per_s / (f * Math.max(refractiveIndex(stepModelPermittivity(m, f)), 1e-6));
-  // In front: 1.5 wavelengths at the profile frequency, or the stack's thickness (the field view shows the
-  // reflected pulse beside the stack) up to FRONT_GAP_WAVELENGTHS of them; a thick wall's air costs steps.
+  // In front, for the field view: 1.5 wavelengths at the profile frequency, or the stack's thickness (the view
+  // shows the reflected pulse beside the stack) up to FRONT_GAP_WAVELENGTHS of them. The answers need none of
+  // it (the probe sits on the front face; in front of it the medium is uniform), so a run for them has
+  // MIN_GAP cells there.
   const lambdaFront = lambdaAt(eff.front, stack.profile_Hz);
-  const gapFront = Math.max(10, Math.ceil(Math.max(1.5 * lambdaFront, Math.min(eff.thickness_m, FRONT_GAP_WAVELENGTHS * lambdaFront)) / dx) + 2);
-  const gapBack = eff.back === 'pec' ? 0 : Math.max(10, Math.ceil((0.5 * lambdaAt(eff.back, stack.profile_Hz)) / dx) + 2);
+  const gapFront = !forView ? MIN_GAP : Math.max(MIN_GAP, Math.ceil(Math.max(1.5 * lambdaFront, Math.min(eff.thickness_m, FRONT_GAP_WAVELENGTHS * lambdaFront)) / dx) + 2);
+  const gapBack = eff.back === 'pec' ? 0 : Math.max(MIN_GAP, Math.ceil((0.5 * lambdaAt(eff.back, stack.profile_Hz)) / dx) + 2);
+  return layoutNodes({ P, gapFront, stackCells, gapBack, pec: eff.back === 'pec', fullIncident: forView });
+}
+
+export interface LayoutCells {
+  /** CPML cells at each open end; front gap, stack and back gap in cells (gapBack 0 before a conductor). */
+  P: number; gapFront: number; stackCells: number; gapBack: number;
+  pec: boolean;
+  /** Step the incident wave across the whole grid (the field view draws it), not only up to the front face. */
+  fullIncident: boolean;
+}
+
+/**
+ * Node indices of a layout. The auxiliary grid carries the incident wave from its source to the TF/SF plane
+ * and the front probe; unless the whole incident field is asked for, it ends AUX_TAIL cells behind the front
+ * face in its CPML, so it costs a few dozen cells whatever the stack (its CPML's echo is as weak as that of
+ * a longer one: it only arrives earlier).
+ */
+export function layoutNodes(c: LayoutCells): GridNodes {
+  const { P, gapFront, stackCells, gapBack, pec } = c;
   const tfsf = P + SF_CELLS;
   const front = tfsf + gapFront;
   const back = front + stackCells;
-  const pmlBackStart = eff.back === 'pec' ? back + 1 : back + gapBack;
-  const total = eff.back === 'pec' ? back + 1 : pmlBackStart + P + 1;
+  const pmlBackStart = pec ? back + 1 : back + gapBack;
+  const total = pec ? back + 1 : pmlBackStart + P + 1;
   const auxOffset = tfsf - 2;
-  const auxEnd = (eff.back === 'pec' ? back + 10 : pmlBackStart) - auxOffset; // aux PML face
+  const auxFace = !c.fullIncident ? front + AUX_TAIL : pec ? back + 10 : pmlBackStart;
+  const auxEnd = auxFace - auxOffset; // aux PML face
   return { total, pmlFrontEnd: P + 1, sfProbe: P + SF_CELLS / 2, tfsf, front, back, pmlBackStart, auxOffset, auxTotal: auxEnd + P + 1 };
 }
 

@@ -96,7 +96,7 @@ class Run implements PulseRun {
   private energyPeak = 0;
   private sourcePeak = 0;
 
-  constructor(stack: Stack, plan: GridPlan, making: RunMaking = {}) {
+  constructor(band_Hz: [number, number], plan: GridPlan, making: RunMaking = {}) {
     this.plan = plan;
     this.warnings = [...plan.warnings];
     this.endless = making.endless === true;
@@ -110,7 +110,7 @@ class Run implements PulseRun {
     const dftHi = plan.effective.back === 'pec' ? nodes.back + 1 : nodes.pmlBackStart;
     this.omegaDt = 2 * Math.PI * plan.profile_Hz * plan.dt_s;
     this.stride = profileStride(plan.pulse, plan.profile_Hz, plan.dt_s);
-    this.watch = new SpectraWatch(stack.band_Hz, plan.dt_s, SETTLED_FRACTION * plan.accuracyTarget);
+    this.watch = new SpectraWatch(band_Hz, plan.dt_s, SETTLED_FRACTION * plan.accuracyTarget);
     this.checkEvery = ENERGY_EVERY * Math.max(1, Math.round(this.watch.every / ENERGY_EVERY));
     const setup: EngineSetup = {
       tfsf: nodes.tfsf, auxOffset: nodes.auxOffset,
@@ -118,7 +118,7 @@ class Run implements PulseRun {
       source: sourceSamples(plan.pulse, plan.dt_s),
       dftLo: this.dftLo, dftLength: dftHi - this.dftLo, stride: this.stride, dt_s: plan.dt_s,
     };
-    const chosen = chooseEngine({ grids: buildGrids(plan, stack.band_Hz), setup }, making.engine);
+    const chosen = chooseEngine({ grids: buildGrids(plan, band_Hz), setup }, making.engine);
     this.kernel = chosen.engine;
     this.engine = chosen.engine.kind;
     this.engineFallback = chosen.fallback;
@@ -265,12 +265,12 @@ class Run implements PulseRun {
 
 /** Plan and allocate a pulse run (throws PlanError before allocating when the run is refused). */
 export function createPulseRun(stack: Stack, options: PulseOptions = {}): PulseRun {
-  return new Run(stack, planGrid(stack, options), { engine: options.engine });
+  return new Run(stack.band_Hz, planGrid(stack, options), { engine: options.engine });
 }
 
-/** A run of a given plan (the benchmark's uniform grids; `endless` keeps it stepping past convergence). */
-export function createRunOfPlan(stack: Stack, plan: GridPlan, making: RunMaking = {}): PulseRun {
-  return new Run(stack, plan, making);
+/** A run of a given plan for a band (the benchmark's grids; `endless` keeps it stepping past convergence). */
+export function createRunOfPlan(band_Hz: [number, number], plan: GridPlan, making: RunMaking = {}): PulseRun {
+  return new Run(band_Hz, plan, making);
 }
 
 export interface RunToEndOptions {

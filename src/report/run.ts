@@ -137,6 +137,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     residual_energy_dB: Number.isFinite(energy.level_dB) ? r3(energy.level_dB) : null,
     decay_target_dB: -run.plan.decay_dB,
     truncated: run.doneReason !== 'converged',
+    engine: run.engine,
+    ...(run.engineFallback !== null ? { engine_note: run.engineFallback } : {}),
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
   };
   summary.power_law_fits = run.plan.fits.map((f) => ({

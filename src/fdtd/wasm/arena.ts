@@ -60,8 +60,26 @@ function interleave(state: Float64Array, nodes: number, per: number, width: numb
   return out;
 }
 
-function groupDesc(a: ArenaPlan, d: number, g: PoleGroup): void {
+/**
+ * Pairs [lo, hi) of group g (pair p: its nodes 2p, 2p + 1) whose nodes are `alone` (in this group only, in no
+ * CPML, not injected, not a wall): the longest such run.
+ */
+function fusedPairs(g: PoleGroup, alone: (node: number) => boolean): [number, number] {
+  let best: [number, number] = [0, 0], start = -1;
+  const pairs = (g.hi - g.lo) >> 1;
+  for (let p = 0; p <= pairs; p++) {
+    const ok = p < pairs && alone(g.lo + 2 * p) && alone(g.lo + 2 * p + 1);
+    if (ok && start < 0) start = p;
+    if (!ok && start >= 0) { if (p - start > best[1] - best[0]) best = [start, p]; start = -1; }
+  }
+  return best;
+}
+
+function groupDesc(a: ArenaPlan, d: number, g: PoleGroup, alone: (node: number) => boolean): void {
   const len = g.hi - g.lo;
+  const [fa, fb] = fusedPairs(g, alone);
+  a.word(d, S.Q_FUSED_LO, fa);
+  a.word(d, S.Q_FUSED_HI, fb);
   const fill = new Float64Array(len + (len & 1));
   fill.set(g.fill);
   a.word(d, S.Q_LO, g.lo);
@@ -82,7 +100,18 @@ function groupDesc(a: ArenaPlan, d: number, g: PoleGroup): void {
   a.word(d, S.Q_O_W0SQ, a.array(g.ow0sq));
 }
 
-function dispDesc(a: ArenaPlan, span: DispersiveSpan): number {
+/** Whether a node of grid s has only its bulk E update and one group's poles to do (see fusedPairs). */
+function aloneTest(s: KernelState, span: DispersiveSpan, inj: number): (node: number) => boolean {
+  const groups = new Int32Array(s.n), special = new Uint8Array(s.n);
+  for (const g of span.groups) for (let i = g.lo; i < g.hi; i++) groups[i]++;
+  for (const p of s.pml) for (let i = p.eLo; i < p.eHi; i++) special[i] = 1;
+  special[0] = 1;
+  special[s.n - 1] = 1;
+  if (inj >= 0) special[inj] = 1;
+  return (i) => groups[i] === 1 && special[i] === 0;
+}
+
+function dispDesc(a: ArenaPlan, s: KernelState, span: DispersiveSpan, inj: number): number {
   const d = a.desc(S.DISP_WORDS);
   a.word(d, S.D_LO, span.lo);
   a.word(d, S.D_HI, span.hi);
@@ -92,7 +121,8 @@ function dispDesc(a: ArenaPlan, span: DispersiveSpan): number {
   a.word(d, S.D_GROUP_COUNT, span.groups.length);
   const groups = a.desc(S.GROUP_WORDS * span.groups.length);
   a.word(d, S.D_GROUPS, groups);
-  span.groups.forEach((g, i) => groupDesc(a, groups + 4 * S.GROUP_WORDS * i, g));
+  const alone = aloneTest(s, span, inj);
+  span.groups.forEach((g, i) => groupDesc(a, groups + 4 * S.GROUP_WORDS * i, g, alone));
   return d;
 }
 
@@ -105,8 +135,8 @@ function pmlDesc(a: ArenaPlan, d: number, p: PmlRegion): void {
 
 const uniform = (x: Float64Array): boolean => x.every((v) => v === x[0]);
 
-/** A grid's descriptor; returns it and the address of its E array. */
-function gridDesc(a: ArenaPlan, s: KernelState): { desc: number; e: number; h: number } {
+/** A grid's descriptor (E injection at node inj, −1 for none); returns it and the addresses of its E and H. */
+function gridDesc(a: ArenaPlan, s: KernelState, inj: number): { desc: number; e: number; h: number } {
   const d = a.desc(S.GRID_WORDS);
   const e = a.array(s.e, 8), h = a.array(s.h);
   a.word(d, S.G_N, s.n);
@@ -121,7 +151,7 @@ function gridDesc(a: ArenaPlan, s: KernelState): { desc: number; e: number; h: n
   const pml = a.desc(S.PML_WORDS * Math.max(1, s.pml.length));
   a.word(d, S.G_PML, pml);
   s.pml.forEach((p, i) => pmlDesc(a, pml + 4 * S.PML_WORDS * i, p));
-  a.word(d, S.G_DISP, s.disp === null ? 0 : dispDesc(a, s.disp));
+  a.word(d, S.G_DISP, s.disp === null ? 0 : dispDesc(a, s, s.disp, inj));
   return { desc: d, e, h };
 }
 
@@ -139,7 +169,7 @@ export function layoutArena(input: EngineInput): ArenaLayout {
   const { grids, setup } = input;
   const a = new ArenaPlan();
   const r = a.desc(S.RUN_WORDS);
-  const main = gridDesc(a, grids.main), aux = gridDesc(a, grids.aux);
+  const main = gridDesc(a, grids.main, setup.tfsf), aux = gridDesc(a, grids.aux, -1);
   const dftRe = a.array(setup.dftLength), dftIm = a.array(setup.dftLength);
   const phasors = a.array(2 * BATCH_STEPS), probes = a.array(4 * BATCH_STEPS);
   const w = (slot: number, v: number) => a.word(r, slot, v);

@@ -97,7 +97,13 @@ export const Q_O_STATE = 9;
 /** c and ω0² per second-order pole (energy). */
 export const Q_O_C = 10;
 export const Q_O_W0SQ = 11;
-export const GROUP_WORDS = 12;
+/**
+ * Pairs [lo, hi) whose nodes belong to this group alone, to no CPML and no injection: their pole pass, Yee update
+ * and polarization terms are done in one pass (the other nodes go through the span's accumulator).
+ */
+export const Q_FUSED_LO = 12;
+export const Q_FUSED_HI = 13;
+export const GROUP_WORDS = 16;
 
 /** Steps per call of the WebAssembly step at most (the phasor and probe tables hold this many). */
 export const BATCH_STEPS = 32;
