@@ -7,7 +7,7 @@ import { echoTable, type EchoTable } from '../echoes/table.ts';
 import { PlanError } from '../fdtd/errors.ts';
 import { createPulseRun, runToEnd } from '../fdtd/run.ts';
 import { solveEffective } from '../fdtd/stepped-exact.ts';
-import type { GridPlan, PulseOptions, PulseRun } from '../fdtd/types.ts';
+import type { GridPlan, PulseOptions, PulseRun, PulseRunRecords } from '../fdtd/types.ts';
 import type { Profile, Spectrum } from '../results.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
 import { stackThickness_m, type Stack } from '../stack/types.ts';
@@ -23,6 +23,16 @@ export interface RunOptions extends SolveOptions {
   pulse?: PulseOptions;
   /** Polled between chunks of steps; true stops the run (the report is then marked stopped). */
   shouldStop?: () => boolean;
+  /** Where the parts that do not need the pulse run in this thread may run instead (the CLI's worker threads). */
+  parallel?: RunParallel;
+}
+
+/** The independent parts of a run report, done elsewhere; each must give what the in-thread call gives. */
+export interface RunParallel {
+  /** solveReport(stack, options) (its progress is not reported). */
+  solve(stack: Stack, options: Omit<SolveOptions, 'onProgress'>): Promise<Report>;
+  /** echoTable(stack, records). */
+  echoes(stack: Stack, records: PulseRunRecords): Promise<EchoTable>;
 }
 
 export interface RunReport extends Report {
@@ -47,17 +57,20 @@ const r6 = (x: number): number => Number(x.toPrecision(6));
  */
 export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
   const progress = options.onProgress ?? (() => {});
-  const base = solveReport(stack, { ...options, onProgress: (f) => progress(0.1 * f) });
+  // The exact and FEM solves need nothing of the pulse run: elsewhere, they run beside it.
+  const solving = options.parallel?.solve(stack, { inputWarnings: options.inputWarnings, fem: options.fem, media: options.media });
+  solving?.catch(() => {}); // awaited below; a failure must not go unhandled while the pulse runs
+  const solved = solving ?? Promise.resolve(solveReport(stack, { ...options, onProgress: (f) => progress(0.1 * f) }));
   const stepped = (options.media ?? 'tables') === 'stepped';
-  const warnings = [...base.warnings];
-  const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
-  const summary: Record<string, unknown> = { ...base.summary };
-  const methods = [...((summary.methods as unknown[]) ?? [])];
   let run: PulseRun;
   try {
     run = createPulseRun(stack, options.pulse);
   } catch (e) {
     if (e instanceof PlanError && e.code === 'unsupported') {
+      const base = await solved;
+      const warnings = [...base.warnings];
+      const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
+      const summary: Record<string, unknown> = { ...base.summary };
       const why = `FDTD skipped: ${e.message}`;
       warn(why);
       summary.fdtd = { skipped: e.message };
@@ -71,18 +84,27 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   await runToEnd(run, { onProgress: (f) => progress(0.1 + 0.85 * f), shouldStop: options.shouldStop });
   const run_ms = now() - t0;
   const stopped = run.doneReason === 'stopped';
+  const rec = run.records();
+  // The echo analysis needs only the records: elsewhere, it runs beside the spectra.
+  let t1 = now();
+  const analysing = options.parallel?.echoes(stack, rec);
+  analysing?.catch(() => {});
+  const base = await solved;
+  const warnings = [...base.warnings];
+  const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
+  const summary: Record<string, unknown> = { ...base.summary };
+  const methods = [...((summary.methods as unknown[]) ?? [])];
   for (const w of run.warnings) warn(w);
   if (stopped) warn('the pulse run was stopped before the field had decayed: R, T and the echoes come from truncated records');
 
   // Spectra at the exact solution's frequencies.
-  let t1 = now();
+  const tSpectra = now();
   const fCol = findColumn(base.spectrum, 'f_GHz');
   if (!fCol) throw new Error('runReport: the solve report has no f_GHz column');
   const f_Hz = Float64Array.from(fCol.data, (f) => f * 1e9);
-  const rec = run.records();
   const fdtd = spectrumFromRecords(rec, f_Hz);
   for (const w of fdtd.warnings) warn(w);
-  const spectrum_ms = now() - t1;
+  const spectrum_ms = now() - tSpectra;
   const spectrum = [...base.spectrum, ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im)];
 
   // Profile: the FDTD phasor interpolated onto the report's x grid.
@@ -94,9 +116,9 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     profile = [...base.profile, ...complexColumns('E_fdtd', p.re, p.im)];
   }
 
-  // Echoes.
-  t1 = now();
-  const echoes: EchoTable = echoTable(stack, rec);
+  // Echoes (from t1 on: beside the rest when elsewhere).
+  if (!analysing) t1 = now();
+  const echoes: EchoTable = analysing ? await analysing : echoTable(stack, rec);
   const echoes_ms = now() - t1;
 
   const trace: Column[] = [

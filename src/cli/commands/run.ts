@@ -14,6 +14,8 @@ import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { loadOrExplain, MEDIA_ARG_OPTIONS, MEDIA_ARG_USAGE, mediaFromArgs, writeReport } from './solve.ts';
+import { TaskPool } from '../pool.ts';
+import type { RunParallel } from '../../report/run.ts';
 
 /** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
 export const EXIT_INTERRUPTED = 130;
@@ -108,13 +110,19 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     const media = mediaFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
+    // A worker thread for the exact and FEM solves (beside the pulse run) and the echo analysis (beside the spectra).
+    const pool = new TaskPool();
+    const parallel: RunParallel = {
+      solve: (s, options) => pool.run('solve', { stack: s, options }),
+      echoes: (s, records) => pool.run('echoes', { stack: s, records }),
+    };
 
     let interrupted = false;
     const onSigint = () => { interrupted = true; };
     process.once('SIGINT', onSigint);
     let report: RunReport;
     try {
-      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, onProgress: progressPrinter(io), shouldStop: () => interrupted });
+      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, parallel, onProgress: progressPrinter(io), shouldStop: () => interrupted });
     } catch (e) {
       // The message says what is too big, by how much and what to change; the figures stay in the error.
       if (e instanceof PlanError) throw new CliError(`${e.message}; nothing was written`, 2);
@@ -122,6 +130,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       throw e;
     } finally {
       process.removeListener('SIGINT', onSigint);
+      void pool.close();
     }
     if (interrupted || report.stopped) {
       io.err('slabecho run: stopped (Ctrl-C); nothing was written');
