@@ -75,7 +75,7 @@ class Workbench implements ControlHost {
   /** False once the user cancelled the full run for this stack. */
   private reportWanted = true;
   readonly stats: WorkbenchStats = {
-    fieldRenders: 0, renderer: '', lastEditToUpdate_ms: null, lastSolve_ms: null, version: 0,
+    fieldRenders: 0, renderer: '', engine: '', lastEditToUpdate_ms: null, lastSolve_ms: null, version: 0,
     solvedVersion: -1, reportVersion: -1, step: 0, playing: false, recording: false,
     field: { window_mm: [0, 0], default_mm: [0, 0], stack_mm: 0, zoomed: false, grid: false }, lastClip: null,
   };
@@ -329,6 +329,7 @@ class Workbench implements ControlHost {
 
   private onPulseReady(g: PulseGeometry): void {
     this.geometry = g;
+    this.stats.engine = g.engine;
     if (this.settings.autoSpeed) {
       this.settings.speed = autoStepsPerFrame(g.cells, g.courant);
       this.controls.showSpeed(this.settings.speed);

@@ -24,6 +24,8 @@ export interface RunSettings {
 export interface PulseGeometry {
   cells: number;
   courant: number;
+  /** What steps the run: the WebAssembly SIMD kernel or the TypeScript one (where WebAssembly SIMD is missing). */
+  engine: 'wasm-simd' | 'js';
   /** Position of every E node. */
   x_m: Float64Array;
   /** Absorbing regions at the open ends, [from, to]. */

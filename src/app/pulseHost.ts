@@ -47,7 +47,7 @@ function geometryOf(r: PulseRun, stack: Stack): PulseGeometry {
     { label: 'R probe', x_m: at(n.front), kind: 'probe' },
   ];
   if (stack.back !== 'pec') probes.push({ label: 'T probe', x_m: at(n.back), kind: 'probe' });
-  return { cells: n.total, courant: p.courant, x_m: x, absorbers, probes };
+  return { cells: n.total, courant: p.courant, engine: r.engine, x_m: x, absorbers, probes };
 }
 
 function buffers(recycle: FieldFrame | null, n: number): FieldFrame {

@@ -7,6 +7,8 @@ import type { FieldBoxes, FieldMarks } from './fieldView.ts';
 export interface WorkbenchStats {
   fieldRenders: number;
   renderer: string;
+  /** What steps the animated pulse run ('' before the first). */
+  engine: string;
   /** Edit → exact/FEM views redrawn, ms, for the latest edit. */
   lastEditToUpdate_ms: number | null;
   lastSolve_ms: number | null;

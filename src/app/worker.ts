@@ -9,6 +9,8 @@ import type { FromWorker, ToWorker } from './protocol.ts';
 import { transferablesOf } from './protocol.ts';
 import { copyTable } from './tables.ts';
 import { advancePulse, clipTiming, rewindPulse, seekPulse, startPulse, fullReport } from './pulseHost.ts';
+import { provideStepModule } from '../fdtd/wasm/module.ts';
+import stepWasmUrl from '../../build/fdtd-step.wasm?url';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
@@ -79,8 +81,22 @@ function handle(m: ToWorker): void | Promise<void> {
   }
 }
 
+/**
+ * The WebAssembly time step (built by bin/build-wasm.mjs, emitted by vite as an asset): fetched and compiled
+ * before the first message is handled. Where it cannot be had (no WebAssembly SIMD, a policy that forbids
+ * compiling it), pulse runs step with the TypeScript kernel and say so (PulseGeometry.engine).
+ */
+async function loadStepModule(): Promise<void> {
+  try {
+    const bytes = await (await fetch(stepWasmUrl)).arrayBuffer();
+    provideStepModule(await WebAssembly.compile(bytes));
+  } catch {
+    // The TypeScript kernel steps every run.
+  }
+}
+
 // Messages are handled strictly in order (a report awaits between chunks, so keep a queue).
-let queue: Promise<void> = Promise.resolve();
+let queue: Promise<void> = loadStepModule();
 scope.onmessage = (e: MessageEvent<ToWorker>) => {
   queue = queue.then(() => handle(e.data)).catch(() => {});
 };

@@ -11,7 +11,7 @@ import { buildApp, launch, removeDir, serveStatic } from './harness.ts';
 
 interface Stats {
   fieldRenders: number; step: number; playing: boolean; version: number; solvedVersion: number;
-  lastEditToUpdate_ms: number | null; lastSolve_ms: number | null; renderer: string;
+  lastEditToUpdate_ms: number | null; lastSolve_ms: number | null; renderer: string; engine: string;
 }
 const stats = (page: Page): Promise<Stats> =>
   page.evaluate(() => (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats);
@@ -19,7 +19,7 @@ const stats = (page: Page): Promise<Stats> =>
 const median = (xs: number[]): number => { const s = [...xs].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]; };
 const r1 = (x: number): number => Math.round(x * 10) / 10;
 
-async function measureFps(page: Page, seconds: number): Promise<{ fps: number; rafHz: number; stepsPerFrame: number; renderer: string }> {
+async function measureFps(page: Page, seconds: number): Promise<{ fps: number; rafHz: number; stepsPerFrame: number; renderer: string; engine: string }> {
   await page.waitForFunction(() => (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats.step >= 0);
   await page.click('[data-testid="reset"]');
   await page.click('[data-testid="play"]');
@@ -37,7 +37,7 @@ async function measureFps(page: Page, seconds: number): Promise<{ fps: number; r
   const dt = (Date.now() - t0) / 1000;
   await page.click('[data-testid="play"]');
   const steps = b.step - a.step, frames = b.fieldRenders - a.fieldRenders;
-  return { fps: frames / dt, rafHz: await rafHz, stepsPerFrame: frames > 0 ? steps / frames : 0, renderer: b.renderer };
+  return { fps: frames / dt, rafHz: await rafHz, stepsPerFrame: frames > 0 ? steps / frames : 0, renderer: b.renderer, engine: b.engine };
 }
 
 async function editTimes(page: Page, preset: string, edits: number): Promise<{ preset: string; edit: string; times_ms: number[]; solve_ms: number[] }> {
@@ -87,14 +87,14 @@ async function main(): Promise<void> {
     const edits = [];
     for (const p of presets) edits.push(await editTimes(page, p, 5));
     const result = {
-      field_view: { preset: 'default', fps: r1(fps.fps), fps_zoomed: r1(fpsZoomed.fps), raf_hz: r1(fps.rafHz), steps_per_frame: r1(fps.stepsPerFrame), renderer: fps.renderer, target_fps: 55 },
+      field_view: { preset: 'default', fps: r1(fps.fps), fps_zoomed: r1(fpsZoomed.fps), raf_hz: r1(fps.rafHz), steps_per_frame: r1(fps.stepsPerFrame), renderer: fps.renderer, engine: fps.engine, target_fps: 55 },
       edit_to_update: edits.map((e) => ({
         preset: e.preset, edit: e.edit, median_ms: r1(median(e.times_ms)), max_ms: r1(Math.max(...e.times_ms)),
         solve_median_ms: r1(median(e.solve_ms)), target_ms: 100,
       })),
     };
     if (json) { console.log(JSON.stringify(result, null, 2)); return; }
-    console.log(`field view (default preset, ${result.field_view.renderer} renderer): ${result.field_view.fps} fps, zoomed in ${result.field_view.fps_zoomed} fps ` +
+    console.log(`field view (default preset, ${result.field_view.renderer} renderer, ${result.field_view.engine} engine): ${result.field_view.fps} fps, zoomed in ${result.field_view.fps_zoomed} fps ` +
       `(display ${result.field_view.raf_hz} Hz, ${result.field_view.steps_per_frame} steps per frame; target ≥ 55)`);
     console.log('edit → exact + FEM views redrawn (target ≤ 100 ms):');
     for (const e of result.edit_to_update) {

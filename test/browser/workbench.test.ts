@@ -143,6 +143,11 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(await page.title()).toContain('slabecho');
     const csp = await page.locator('meta[http-equiv="Content-Security-Policy"]').getAttribute('content');
     expect(csp).toContain("default-src 'self'");
+    // The engine worker fetched the WebAssembly time step from the page's own origin and steps with it.
+    expect(csp).toContain("'wasm-unsafe-eval'");
+    await page.waitForFunction(() => (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats.engine !== '');
+    expect((await stats()).engine).toBe('wasm-simd');
+    expect(site.log.some((r) => r.path.endsWith('.wasm') && r.status === 200)).toBe(true);
     // One picture canvas per view (the charts' cursor overlay is a second, empty canvas).
     for (const id of VIEWS) await expect(page.locator(`[data-testid="${id}"] canvas:not(.chart-overlay)`).count()).resolves.toBe(1);
     expect(site.log.filter((r) => r.status >= 400)).toEqual([]);

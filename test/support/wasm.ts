@@ -1,7 +1,6 @@
 // The WebAssembly step for tests: built from its sources when stale (bin/build-wasm.mjs) and provided to the core.
 import { readFileSync } from 'node:fs';
 import { provideStepModule } from '../../src/fdtd/wasm/module.ts';
-// @ts-expect-error: a plain ES module without type declarations
 import { buildWasm } from '../../bin/build-wasm.mjs';
 
 /** Build (if needed) and provide the step module; returns its bytes. */
