@@ -1,109 +1,159 @@
-// The lattice of predicted echoes: every bounce path a pulse can take through the layers and back
-// out of the front face, up to a number of layer traversals, with its delay (sum of the layer group
-// delays it crosses) and its amplitude (product of the interface reflection/transmission
-// coefficients and the one-way attenuation of each layer crossed, all at one frequency).
-// Paths that cross each layer the same number of times arrive together and are merged (summed).
+// Stage 4a: the lattice of bounce paths, over a set of frequencies at once. A wave entering the front
+// face splits at every interface it meets into a reflected and a transmitted wave, with the exact
+// interface coefficients (region admittances Y from tmm/media.ts, sheets included, a conductor reflects
+// −1), and crossing layer i multiplies it by the layer's exact propagator e^{−j k_x,i d_i}. Waves that
+// have crossed every layer the same number of times share their delay and are merged (summed): a path
+// is a vector of crossing counts. Waves leaving through the front face are reflected paths; through
+// the back face, transmitted paths. Summed over all paths, the amplitudes are the exact R(f) and T(f)
+// (the multiple-reflection series of Born & Wolf §1.6 and Orfanidis ch. 6).
 
-import { type Complex, add, div, mul, scale } from '../complex.ts';
 import { type StackAtFrequency, stackAtFrequency } from '../tmm/media.ts';
 import type { Stack } from '../stack/types.ts';
 import { layerGroupDelays_s } from './delays.ts';
-import { pathName } from './names.ts';
 
-export interface PredictedEchoes {
-  delay_s: Float64Array;
-  amp_re: Float64Array;
-  amp_im: Float64Array;
-  /** Round trips made inside each bulk layer (row per echo). */
-  roundTrips: Int32Array[];
-  name: string[];
+/** Paths leaving through one face, amplitudes at every frequency of the lattice. */
+export interface PathSet {
+  f_Hz: Float64Array;
+  /** Crossings of each bulk layer, one Int32Array per path. */
+  crossings: Int32Array[];
+  /** Amplitude of path p at frequency l: re[p · F + l], im[p · F + l] (F = f_Hz.length). */
+  re: Float64Array;
+  im: Float64Array;
+  /** Σ crossings × layer group delay at the band centre (s): where to look for the path's echo. */
+  delay0_s: Float64Array;
 }
 
 export interface LatticeOptions {
-  /** Most round trips in total (all layers together) a path may make. Default 6. */
-  maxRoundTrips?: number;
-  /** Paths whose amplitude falls below this are dropped. Default 1e-4 (−80 dB). */
-  minAmplitude?: number;
-  /** Most waves in flight kept per traversal (the weakest are dropped beyond). Default 4000. */
+  /** Waves whose largest amplitude over the frequencies falls below this are dropped. */
+  minAmplitude: number;
+  /** Waves whose band-centre delay exceeds this are dropped (the record cannot hold them). */
+  maxDelay_s: number;
+  /** Most waves in flight (the weakest are dropped beyond). Default 3000. */
   maxWaves?: number;
+  /** Most layer crossings in total. Default 400. */
+  maxCrossings?: number;
 }
 
-interface Wave { medium: number; right: boolean; counts: number[]; amp: Complex }
+/** Interface coefficients at every frequency, for each interface and direction. */
+interface Coefficients { r_re: Float64Array; r_im: Float64Array; t_re: Float64Array; t_im: Float64Array }
 
-/** Reflection and transmission at interface k for a wave arriving from the left (fromLeft) or the right. */
-function coefficients(s: StackAtFrequency, k: number, fromLeft: boolean): { r: Complex; t: Complex } {
-  const L = s.layers.length;
-  const left = k === 0 ? s.front : s.layers[k - 1];
-  const right = k === L ? s.back : s.layers[k];
-  if (!right) return fromLeft ? { r: { re: -1, im: 0 }, t: { re: 0, im: 0 } } : { r: { re: 0, im: 0 }, t: { re: 0, im: 0 } };
-  const [ya, yb] = fromLeft ? [left.Y, right.Y] : [right.Y, left.Y];
-  const G = s.sheetG[k];
-  const den = { re: ya.re + yb.re + G, im: ya.im + yb.im };
-  const r = div({ re: ya.re - yb.re - G, im: ya.im - yb.im }, den);
-  return { r, t: add({ re: 1, im: 0 }, r) };
-}
-
-/** The `keep` strongest waves of a level. */
-function strongest(level: Map<string, Wave>, keep: number): Map<string, Wave> {
-  const sorted = [...level.entries()].sort((a, b) => Math.hypot(b[1].amp.re, b[1].amp.im) - Math.hypot(a[1].amp.re, a[1].amp.im));
-  return new Map(sorted.slice(0, keep));
-}
-
-/** All echoes arriving back at the front face, in order of delay, at frequency f_Hz. */
-export function predictEchoes(stack: Stack, f_Hz: number, options: LatticeOptions = {}): PredictedEchoes {
-  const maxTrav = 2 * (options.maxRoundTrips ?? 6);
-  const minAmp = options.minAmplitude ?? 1e-4;
-  const maxWaves = options.maxWaves ?? 4000;
-  const s = stackAtFrequency(stack, f_Hz);
-  const L = s.layers.length;
-  const tau = layerGroupDelays_s(stack, f_Hz);
-  const att = s.layers.map((l) => Math.exp(l.kx.im * l.thickness_m)); // |e^{−j k_x d}|, Im k_x ≤ 0
-  const out = new Map<string, { counts: number[]; amp: Complex }>();
-  const collect = (counts: number[], amp: Complex) => {
-    const key = counts.join(',');
-    const prev = out.get(key);
-    out.set(key, { counts, amp: prev ? add(prev.amp, amp) : amp });
-  };
-  // Waves sitting at an interface, about to cross the medium they are in.
-  const merge = (into: Map<string, Wave>, w: Wave) => {
-    if (Math.hypot(w.amp.re, w.amp.im) < minAmp) return;
-    const key = `${w.medium}${w.right ? '>' : '<'}${w.counts.join(',')}`;
-    const prev = into.get(key);
-    if (prev) prev.amp = add(prev.amp, w.amp); else into.set(key, w);
-  };
-  /** A wave arriving at interface k splits into a reflected and a transmitted wave. */
-  const split = (into: Map<string, Wave>, k: number, fromLeft: boolean, counts: number[], amp: Complex) => {
-    const { r, t } = coefficients(s, k, fromLeft);
-    if (fromLeft) {
-      if (k === 0) collect(counts, mul(amp, r)); else merge(into, { medium: k, right: false, counts, amp: mul(amp, r) });
-      if (k < L) merge(into, { medium: k + 1, right: true, counts, amp: mul(amp, t) });
-    } else {
-      merge(into, { medium: k + 1, right: true, counts, amp: mul(amp, r) });
-      if (k === 0) collect(counts, mul(amp, t)); else merge(into, { medium: k, right: false, counts, amp: mul(amp, t) });
-    }
-  };
-  let level = new Map<string, Wave>();
-  split(level, 0, true, new Array(L).fill(0), { re: 1, im: 0 });
-  for (let trav = 1; trav <= maxTrav && level.size > 0; trav++) {
-    const next = new Map<string, Wave>();
-    for (const w of level.values()) {
-      const counts = w.counts.slice();
-      counts[w.medium - 1] += 1;
-      const amp = scale(w.amp, att[w.medium - 1]);
-      // crossing medium j rightwards reaches interface j from the left; leftwards, interface j − 1 from the right
-      if (w.right) split(next, w.medium, true, counts, amp); else split(next, w.medium - 1, false, counts, amp);
-    }
-    level = next.size > maxWaves ? strongest(next, maxWaves) : next;
+function interfaceCoefficients(s: StackAtFrequency[], k: number, fromLeft: boolean): Coefficients {
+  const F = s.length;
+  const c: Coefficients = { r_re: new Float64Array(F), r_im: new Float64Array(F), t_re: new Float64Array(F), t_im: new Float64Array(F) };
+  for (let l = 0; l < F; l++) {
+    const sl = s[l], L = sl.layers.length;
+    const left = k === 0 ? sl.front : sl.layers[k - 1];
+    const right = k === L ? sl.back : sl.layers[k];
+    if (!right) { if (fromLeft) c.r_re[l] = -1; continue; } // a conductor: r = −1 from the left, nothing from behind
+    const [ya, yb] = fromLeft ? [left.Y, right.Y] : [right.Y, left.Y];
+    const G = sl.sheetG[k];
+    // r = (Ya − Yb − G)/(Ya + Yb + G), t = 1 + r (tangential E continuous across a sheet)
+    const nr = ya.re - yb.re - G, ni = ya.im - yb.im, dr = ya.re + yb.re + G, di = ya.im + yb.im;
+    const q = dr * dr + di * di;
+    c.r_re[l] = (nr * dr + ni * di) / q;
+    c.r_im[l] = (ni * dr - nr * di) / q;
+    c.t_re[l] = 1 + c.r_re[l];
+    c.t_im[l] = c.r_im[l];
   }
-  const rows = [...out.values()]
-    .filter((e) => Math.hypot(e.amp.re, e.amp.im) >= minAmp || e.counts.every((c) => c === 0))
-    .map((e) => ({ ...e, delay: e.counts.reduce((sum, c, i) => sum + c * tau[i], 0) }))
-    .sort((a, b) => a.delay - b.delay);
-  return {
-    delay_s: Float64Array.from(rows, (e) => e.delay),
-    amp_re: Float64Array.from(rows, (e) => e.amp.re),
-    amp_im: Float64Array.from(rows, (e) => e.amp.im),
-    roundTrips: rows.map((e) => Int32Array.from(e.counts, (c) => c / 2)),
-    name: rows.map((e) => pathName(stack, e.counts.map((c) => c / 2))),
+  return c;
+}
+
+interface Wave { medium: number; right: boolean; crossings: Int32Array; delay: number; re: Float64Array; im: Float64Array }
+
+const key = (medium: number, right: boolean, crossings: Int32Array): string => `${medium}${right ? '>' : '<'}${crossings.join(',')}`;
+
+/** Accumulates waves (or paths) by key, summing amplitudes of equal keys. */
+class Pool {
+  readonly map = new Map<string, Wave>();
+  constructor(private readonly F: number, private readonly minAmp: number) {}
+  /** Adds amp·coef of wave w under a new identity (medium, right). */
+  add(w: Wave, medium: number, right: boolean, cr: Float64Array, ci: Float64Array, keyed: string): void {
+    const F = this.F;
+    let peak = 0;
+    for (let l = 0; l < F; l++) {
+      const a = w.re[l] * cr[l] - w.im[l] * ci[l], b = w.re[l] * ci[l] + w.im[l] * cr[l];
+      peak = Math.max(peak, a * a + b * b);
+    }
+    if (peak < this.minAmp * this.minAmp) return;
+    let into = this.map.get(keyed);
+    if (!into) {
+      into = { medium, right, crossings: w.crossings, delay: w.delay, re: new Float64Array(F), im: new Float64Array(F) };
+      this.map.set(keyed, into);
+    }
+    for (let l = 0; l < F; l++) {
+      into.re[l] += w.re[l] * cr[l] - w.im[l] * ci[l];
+      into.im[l] += w.re[l] * ci[l] + w.im[l] * cr[l];
+    }
+  }
+}
+
+function strongest(waves: Wave[], keep: number): Wave[] {
+  const peak = (w: Wave) => { let m = 0; for (let l = 0; l < w.re.length; l++) m = Math.max(m, w.re[l] ** 2 + w.im[l] ** 2); return m; };
+  return waves.map((w) => ({ w, p: peak(w) })).sort((a, b) => b.p - a.p).slice(0, keep).map((x) => x.w);
+}
+
+function pathSet(f_Hz: Float64Array, paths: Map<string, Wave>): PathSet {
+  const list = [...paths.values()].sort((a, b) => a.delay - b.delay);
+  const F = f_Hz.length, re = new Float64Array(list.length * F), im = new Float64Array(list.length * F);
+  list.forEach((w, p) => { re.set(w.re, p * F); im.set(w.im, p * F); });
+  return { f_Hz, crossings: list.map((w) => w.crossings), re, im, delay0_s: Float64Array.from(list, (w) => w.delay) };
+}
+
+/** Reflected and transmitted bounce paths of the stack at the frequencies f_Hz (group delays at centre_Hz). */
+export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number, o: LatticeOptions): { reflected: PathSet; transmitted: PathSet } {
+  const F = f_Hz.length;
+  const s = Array.from(f_Hz, (f) => stackAtFrequency(stack, f));
+  const L = s[0].layers.length;
+  const tau = layerGroupDelays_s(stack, centre_Hz);
+  const fromLeft = Array.from({ length: L + 1 }, (_, k) => interfaceCoefficients(s, k, true));
+  const fromRight = Array.from({ length: L + 1 }, (_, k) => interfaceCoefficients(s, k, false));
+  // e^{−j k_x d} of each layer at each frequency
+  const prop = Array.from({ length: L }, (_, i) => {
+    const re = new Float64Array(F), im = new Float64Array(F);
+    for (let l = 0; l < F; l++) {
+      const r = s[l].layers[i], a = Math.exp(r.kx.im * r.thickness_m), ph = r.kx.re * r.thickness_m;
+      re[l] = a * Math.cos(ph); im[l] = -a * Math.sin(ph);
+    }
+    return { re, im };
+  });
+  const reflected = new Pool(F, o.minAmplitude), transmitted = new Pool(F, o.minAmplitude);
+  const maxWaves = o.maxWaves ?? 3000, maxCrossings = o.maxCrossings ?? 400;
+  /** Wave w arrives at interface k, travelling right (fromLeft) or left; splits into the pools. */
+  const split = (next: Pool, w: Wave, k: number, towardsBack: boolean) => {
+    const c = towardsBack ? fromLeft[k] : fromRight[k];
+    if (towardsBack) {
+      if (k === 0) reflected.add(w, 0, false, c.r_re, c.r_im, w.crossings.join(','));
+      else next.add(w, k, false, c.r_re, c.r_im, key(k, false, w.crossings));
+      if (k < L) next.add(w, k + 1, true, c.t_re, c.t_im, key(k + 1, true, w.crossings));
+      else if (s[0].back) transmitted.add(w, L + 1, true, c.t_re, c.t_im, w.crossings.join(','));
+    } else {
+      next.add(w, k + 1, true, c.r_re, c.r_im, key(k + 1, true, w.crossings));
+      if (k === 0) reflected.add(w, 0, false, c.t_re, c.t_im, w.crossings.join(','));
+      else next.add(w, k, false, c.t_re, c.t_im, key(k, false, w.crossings));
+    }
   };
+  let level = new Pool(F, o.minAmplitude);
+  const unit = { re: new Float64Array(F).fill(1), im: new Float64Array(F) };
+  split(level, { medium: 0, right: true, crossings: new Int32Array(L), delay: 0, ...unit }, 0, true);
+  for (let n = 1; n <= maxCrossings && level.map.size > 0; n++) {
+    const next = new Pool(F, o.minAmplitude);
+    const waves = level.map.size > maxWaves ? strongest([...level.map.values()], maxWaves) : level.map.values();
+    for (const w of waves) {
+      const i = w.medium - 1;
+      const delay = w.delay + tau[i];
+      if (delay > o.maxDelay_s) continue;
+      const crossings = w.crossings.slice();
+      crossings[i] += 1;
+      const moved: Wave = { medium: w.medium, right: w.right, crossings, delay, re: new Float64Array(F), im: new Float64Array(F) };
+      const p = prop[i];
+      for (let l = 0; l < F; l++) {
+        moved.re[l] = w.re[l] * p.re[l] - w.im[l] * p.im[l];
+        moved.im[l] = w.re[l] * p.im[l] + w.im[l] * p.re[l];
+      }
+      // crossing medium m rightwards reaches interface m from the left; leftwards, interface m − 1 from the right
+      if (w.right) split(next, moved, w.medium, true); else split(next, moved, w.medium - 1, false);
+    }
+    level = next;
+  }
+  return { reflected: pathSet(f_Hz, reflected.map), transmitted: pathSet(f_Hz, transmitted.map) };
 }
