@@ -6,9 +6,10 @@ import type { Stack } from '../stack/types.ts';
 import type { PulseOptions, PulseRun } from '../fdtd/types.ts';
 import { leadInSteps } from '../fdtd/pulse.ts';
 import { createPulseRun } from '../fdtd/run.ts';
+import type { EchoColumns } from '../report/echo-table.ts';
 import { runReport } from '../report/run.ts';
 import { copyTable } from './tables.ts';
-import type { FieldFrame, PulseGeometry, RunSettings, WireReport } from './protocol.ts';
+import type { FieldFrame, PulseGeometry, RunSettings, WireColumn, WireReport } from './protocol.ts';
 
 let run: PulseRun | null = null;
 let runStack: Stack | null = null;
@@ -91,6 +92,12 @@ export function rewindPulse(): FieldFrame {
   return frameOf(run, null);
 }
 
+/** An echo table on the wire: its numeric columns, then its text columns. */
+const echoWire = (e: EchoColumns): WireColumn[] => [
+  ...copyTable(e.columns),
+  { name: 'path', data: [...e.path] }, { name: 'nearest_path', data: [...e.nearest_path] }, { name: 'resolved', data: [...e.resolved] },
+];
+
 /** The full pulse-run report (the one `slabecho run` writes), as wire tables. */
 export async function fullReport(
   stack: Stack, inputWarnings: string[], settings: RunSettings, progress: (fraction: number, note: string) => void,
@@ -109,7 +116,9 @@ export async function fullReport(
   return {
     spectrum: copyTable(rep.spectrum),
     profile: copyTable(rep.profile),
-    echoes: [...copyTable(rep.echoes.columns), { name: 'path', data: [...rep.echoes.path] }],
+    echoes: echoWire(rep.echoes),
+    echoesT: echoWire(rep.echoesT),
+    envelope: copyTable(rep.envelope),
     trace: copyTable(rep.trace),
     summary: rep.summary,
     warnings: [...rep.warnings],

@@ -3,7 +3,7 @@
 // methods in the summary. DOM-free; the caller writes the files.
 
 import { type Complex, exp, mul, add } from '../complex.ts';
-import { echoTable, type EchoTable } from '../echoes/table.ts';
+import { analyseEchoes, type EchoAnalysis, type EchoEnvelopes } from '../echoes/table.ts';
 import { PlanError } from '../fdtd/errors.ts';
 import { createPulseRun, runToEnd } from '../fdtd/run.ts';
 import { solveEffective } from '../fdtd/stepped-exact.ts';
@@ -14,7 +14,7 @@ import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
 import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
-import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
+import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns } from './echo-table.ts';
 import { fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
@@ -26,7 +26,11 @@ export interface RunOptions extends SolveOptions {
 }
 
 export interface RunReport extends Report {
+  /** Echoes of the reflected record (echoes.csv) and of the transmitted one (echoes_T.csv; no rows behind a conductor). */
   echoes: EchoColumns;
+  echoesT: EchoColumns;
+  /** t_ns, incident_dB, reflected_dB, transmitted_dB: the band-limited envelopes the echoes are read from, for display. */
+  envelope: Column[];
   /** t_ns, E_incident, E_reflected, E_transmitted at the reference planes, every time step. */
   trace: Column[];
   /** True when shouldStop ended the run early: every table is complete but the run is cut short. */
@@ -62,7 +66,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
       summary.fdtd = { skipped: e.message };
       summary.warnings = warnings;
       progress(1);
-      return { ...base, summary, warnings, echoes: { columns: emptyEchoColumns(), path: [] }, trace: emptyTrace(), stopped: false, skipped: e.message };
+      return { ...base, summary, warnings, echoes: emptyEchoColumns(), echoesT: emptyEchoColumns(), envelope: envelopeColumns(null), trace: emptyTrace(), stopped: false, skipped: e.message };
     }
     throw e;
   }
@@ -95,7 +99,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
 
   // Echoes.
   t1 = now();
-  const echoes: EchoTable = echoTable(stack, rec);
+  const echoes: EchoAnalysis = analyseEchoes(stack, rec);
   const echoes_ms = now() - t1;
 
   const trace: Column[] = [
@@ -148,31 +152,47 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     f0_GHz: r6(run.plan.pulse.f0_Hz / 1e9),
     tau_ps: r6(run.plan.pulse.tau_s * 1e12),
     band_edge_dB: run.plan.pulse.edge_dB,
-    envelope_fwhm_ns: r6(echoes.pulseWidth_s * 1e9),
+    envelope_fwhm_ns: r6(2 * Math.sqrt(Math.LN2) * run.plan.pulse.tau_s * 1e9),
   };
-  summary.echoes = {
-    count: echoes.t_s.length,
-    group_delays_at_GHz: r6(echoes.centre_Hz / 1e9),
-    t_ns: nsList(echoes.t_s),
-    level_dB: Array.from(echoes.level_dB, (x) => Number(x.toFixed(2))),
-    predicted_t_ns: nsList(echoes.predicted_t_s),
-    path: echoes.path,
-  };
+  summary.echoes = { ...echoAnalysisSummary(echoes), ...echoSummary(echoes.reflected) };
+  summary.transmitted = echoes.transmitted ? echoSummary(echoes.transmitted) : null;
   summary.timings_ms = { fdtd: Math.round(run_ms), spectra: Math.round(spectrum_ms), echoes: Math.round(echoes_ms) };
   summary.warnings = warnings;
 
   assertTable(spectrum);
   if (profile.length > 0) assertTable(profile);
   assertTable(trace);
-  const ech = echoColumns(echoes);
-  if (ech.path.length > 0) assertTable(ech.columns);
+  const ech = echoColumns(echoes.reflected), echT = echoes.transmitted ? echoColumns(echoes.transmitted) : emptyEchoColumns();
+  for (const t of [ech, echT]) if (t.path.length > 0) assertTable(t.columns);
+  const envelope = envelopeColumns(echoes.envelopes);
+  assertTable(envelope);
   assertFiniteValues(summary);
   progress(1);
-  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: allAgreement, stopped };
+  return { spectrum, profile, summary, warnings, echoes: ech, echoesT: echT, envelope, trace, agreement: allAgreement, stopped };
 }
 
-function emptyEchoColumns(): Column[] {
-  return ['t_ns', 'level_dB', 'amplitude', 'predicted_t_ns'].map((name) => ({ name, data: new Float64Array(0) }));
+/** How the echoes were read, for summary.json. */
+function echoAnalysisSummary(e: EchoAnalysis): Record<string, unknown> {
+  return {
+    window: 'Kaiser, β = 12, over the band',
+    pulse_width_ns: r6(e.pulse.width_s * 1e9),
+    floor_dB: e.floor_dB,
+    delay_zero_ns: r6(e.incidentAt_s * 1e9),
+  };
+}
+
+/** Lowest level written for an envelope (dB): the nulls between sidelobes would be −∞. */
+const ENVELOPE_FLOOR_dB = -200;
+const dB = (x: Float64Array): Float64Array => x.map((v) => (v > 0 ? Math.max(ENVELOPE_FLOOR_dB, 20 * Math.log10(v)) : ENVELOPE_FLOOR_dB));
+
+function envelopeColumns(e: EchoEnvelopes | null): Column[] {
+  const none = new Float64Array(0);
+  return [
+    scaledColumn('t_ns', e?.t_s ?? none, 1e9),
+    { name: 'incident_dB', data: e ? dB(e.incident) : none },
+    { name: 'reflected_dB', data: e ? dB(e.reflected) : none },
+    { name: 'transmitted_dB', data: e?.transmitted ? dB(e.transmitted) : e ? new Float64Array(e.t_s.length).fill(ENVELOPE_FLOOR_dB) : none },
+  ];
 }
 function emptyTrace(): Column[] {
   return ['t_ns', 'E_incident', 'E_reflected', 'E_transmitted'].map((name) => ({ name, data: new Float64Array(0) }));

@@ -23,9 +23,16 @@ describe('slabecho run', () => {
     expect(sp.rows.flat().every(Number.isFinite)).toBe(true);
     expect(readFileSync(join(out, 'profile.csv'), 'utf8').split('\n')[0]).toMatch(/E_fdtd_re,E_fdtd_im$/);
     const echoes = readFileSync(join(out, 'echoes.csv'), 'utf8').trimEnd().split('\n');
-    expect(echoes[0]).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path');
-    expect(echoes[1]).toMatch(/,front face$/);
-    expect(echoes[2]).toMatch(/,back face$/);
+    expect(echoes[0]).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path,nearest_path,resolved');
+    expect(echoes[1]).toMatch(/,front face,,yes$/);
+    expect(echoes[2]).toMatch(/,back face,,yes$/);
+    const echoesT = readFileSync(join(out, 'echoes_T.csv'), 'utf8').trimEnd().split('\n');
+    expect(echoesT[0]).toBe(echoes[0]);
+    expect(echoesT[1]).toMatch(/,direct,,yes$/);
+    // the printed table: one line per echo with delay, level, prediction and path
+    expect(r.stdout).toMatch(/reflected echoes \(floor -40 dB, pulse width 0\.53\d* ns\):/);
+    expect(r.stdout).toMatch(/^\s+0\.66\d\s+-10\.\d\s+0\.66\d\s+back face$/m);
+    expect(r.stdout).toMatch(/transmitted echoes:\n.*\n\s+0\.33\d\s+-1\.\d\s+0\.33\d\s+direct$/m);
     expect(readFileSync(join(out, 'trace.csv'), 'utf8').split('\n')[0]).toBe('t_ns,E_incident,E_reflected,E_transmitted');
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
     expect(summary.grid.cell_mm).toBeGreaterThan(0);
@@ -33,7 +40,7 @@ describe('slabecho run', () => {
     expect(r.stdout).toMatch(/fdtd vs tmm/);
   });
 
-  it('TM at an angle: the exact and FEM results, echoes.csv and trace.csv with their headers only, no profile.csv', async () => {
+  it('TM at an angle: the exact and FEM results, the echo files and trace.csv with their headers only, no profile.csv', async () => {
     const tm = join(tmp.dir, 'tm.stack.json');
     writeFileSync(tm, JSON.stringify({ ...JSON.parse(readFileSync(slab, 'utf8')), incidence: { angle_deg: 30, polarization: 'TM' } }));
     const out = join(tmp.dir, 'out-tm');
@@ -41,8 +48,8 @@ describe('slabecho run', () => {
     writeFileSync(join(out, 'profile.csv'), 'stale');
     const r = await cli('run', tm, '--out', out);
     expect(r.code, r.stderr).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['echoes.csv', 'spectrum.csv', 'summary.json', 'trace.csv']);
-    expect(readFileSync(join(out, 'echoes.csv'), 'utf8')).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path\n');
+    expect(readdirSync(out).sort()).toEqual(['echoes.csv', 'echoes_T.csv', 'spectrum.csv', 'summary.json', 'trace.csv']);
+    for (const f of ['echoes.csv', 'echoes_T.csv']) expect(readFileSync(join(out, f), 'utf8')).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path,nearest_path,resolved\n');
     expect(readFileSync(join(out, 'trace.csv'), 'utf8')).toBe('t_ns,E_incident,E_reflected,E_transmitted\n');
     expect(readCsv(readFileSync(join(out, 'spectrum.csv'), 'utf8')).header).toContain('R_fem_re');
     expect(r.stderr).toMatch(/warning: FDTD skipped: .*TE only/);

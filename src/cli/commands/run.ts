@@ -6,7 +6,7 @@
 
 import { FdtdInstabilityError, PlanError } from '../../fdtd/errors.ts';
 import type { PulseOptions } from '../../fdtd/types.ts';
-import { formatEchoesCsv } from '../../report/echo-table.ts';
+import { formatEchoesCsv, formatEchoText } from '../../report/echo-table.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
 import { runReport, type RunReport } from '../../report/run.ts';
 import { formatCsv } from '../../report/table.ts';
@@ -34,6 +34,7 @@ export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions
 export function writeRunReport(dir: string, report: RunReport): string[] {
   return writeReport(dir, report, [
     { name: 'echoes.csv', text: formatEchoesCsv(report.echoes) },
+    { name: 'echoes_T.csv', text: formatEchoesCsv(report.echoesT) },
     { name: 'trace.csv', text: formatCsv(report.trace) }, // header only when the pulse engine was skipped
   ]);
 }
@@ -70,13 +71,15 @@ Send a broadband pulse at the stack in FILE (leapfrog FDTD), and solve it exactl
 same frequencies. Writes into DIR (created if needed), all files at once:
   spectrum.csv   f_GHz, the exact and FEM columns, then R_fdtd_re,R_fdtd_im,T_fdtd_re,T_fdtd_im
   profile.csv    x_mm, E_tmm_re,E_tmm_im, FEM columns, E_fdtd_re,E_fdtd_im at profile_GHz
-  echoes.csv     t_ns,level_dB,amplitude,predicted_t_ns,path: one row per echo; t_ns after the
-                 front-face echo (at 0), level relative to the incident pulse, path in plain words
+  echoes.csv     t_ns,level_dB,amplitude,predicted_t_ns,path,nearest_path,resolved: one row per
+                 reflected echo; t_ns after the front-face echo (at 0), level relative to the incident
+                 pulse, path in plain words ("unexplained" with its nearest path), resolved yes or no
+  echoes_T.csv   the same for the transmitted record, t_ns after the incident pulse passes x = 0
   trace.csv      t_ns,E_incident,E_reflected,E_transmitted: the time records at x = 0 and the back face
-  summary.json   as for solve, plus grid, run, pulse, echoes, power-law fits, agreement and timings
+  summary.json   as for solve, plus grid, run, pulse, echoes, transmitted, power-law fits, agreement and timings
 The engine is one-dimensional. At an angle in TE it steps the equivalent normal-incidence problem (each
 medium's ε_r lowered by ε_front sin²θ; needs a lossless, non-dispersive front medium such as air). TM at an
-angle is not stepped: a warning, solve's results, and echoes.csv and trace.csv with only their headers.
+angle is not stepped: a warning, solve's results, and the echo files and trace.csv with only their headers.
 There is no profile.csv at oblique incidence.
 
 Options:
@@ -134,9 +137,10 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       const r = report.summary.run as { steps: number; end: string; residual_energy_dB: number | null };
       io.out(`FDTD: ${g.cells} cells of ${g.cell_mm} mm, ${r.steps} steps of ${g.time_step_ps} ps, ended ${r.end}` +
         (r.residual_energy_dB !== null ? ` at ${r.residual_energy_dB} dB` : ''));
-      const e = report.echoes;
-      const t = e.columns[0].data, lv = e.columns[1].data;
-      io.out(`echoes: ${e.path.length}${e.path.length ? ': ' : ''}${e.path.slice(0, 4).map((p, i) => `${t[i].toFixed(3)} ns ${lv[i].toFixed(1)} dB ${p}`).join('; ')}${e.path.length > 4 ? '; …' : ''}`);
+      const ec = report.summary.echoes as { floor_dB: number; pulse_width_ns: number };
+      const how = `floor ${ec.floor_dB} dB, pulse width ${ec.pulse_width_ns} ns`;
+      for (const line of formatEchoText(`reflected echoes (${how})`, report.echoes)) io.out(line);
+      if (report.summary.transmitted) for (const line of formatEchoText('transmitted echoes', report.echoesT)) io.out(line);
     }
     const table = formatAgreement(report.agreement);
     if (table) io.out(table);
