@@ -229,9 +229,8 @@ class Workbench implements ControlHost {
     const pending = this.engine.reporting ? 'FDTD: pulse run in progress' : rep === null ? 'FDTD: no finished pulse run for this stack' : '';
     const s = this.solved;
     this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], this.settings.spectrumMode, pending);
-    const oblique = this.file.incidence.angle_deg !== 0;
     this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending,
-      oblique ? 'the standing-wave profile is computed at normal incidence only' : s === null ? 'solving…' : 'no profile');
+      s === null ? 'solving…' : 'no profile', this.file.incidence);
     // The full run's rows include the exact/FEM row; until it is there, show the solve's own.
     const fromRun = (rep?.summary as { agreement?: AgreementRow[] } | undefined)?.agreement;
     this.agreement.show(fromRun ?? s?.agreement ?? [], pending);

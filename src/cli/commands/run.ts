@@ -70,7 +70,7 @@ export const run: Command = {
 Send a broadband pulse at the stack in FILE (leapfrog FDTD), and solve it exactly (and by FEM) at the
 same frequencies. Writes into DIR (created if needed), all files at once:
   spectrum.csv   f_GHz, the exact and FEM columns, then R_fdtd_re,R_fdtd_im,T_fdtd_re,T_fdtd_im
-  profile.csv    x_mm, E_tmm_re,E_tmm_im, FEM columns, E_fdtd_re,E_fdtd_im at profile_GHz
+  profile.csv    x_mm, the exact and FEM columns as for solve, then E_fdtd_re,E_fdtd_im at profile_GHz
   echoes.csv     t_ns,level_dB,amplitude,predicted_t_ns,path,nearest_path,resolved: one row per
                  reflected echo; t_ns after the front-face echo (at 0), level relative to the incident
                  pulse, path in plain words ("unexplained" with its nearest path), resolved yes or no
@@ -79,8 +79,8 @@ same frequencies. Writes into DIR (created if needed), all files at once:
   summary.json   as for solve, plus grid, run, pulse, echoes, transmitted, power-law fits, agreement and timings
 The engine is one-dimensional. At an angle in TE it steps the equivalent normal-incidence problem (each
 medium's ε_r lowered by ε_front sin²θ; needs a lossless, non-dispersive front medium such as air). TM at an
-angle is not stepped: a warning, solve's results, and the echo files and trace.csv with only their headers.
-There is no profile.csv at oblique incidence.
+angle, and a magnetic material (μ_r ≠ 1), are not stepped yet: a warning, solve's results, and the echo
+files and trace.csv with only their headers.
 
 Options:
   --out DIR                   output directory (required)
