@@ -17,7 +17,7 @@
 import { leakBeyond } from './band-pulse.ts';
 import { envelopeAt } from './envelope.ts';
 import type { DetectedEcho } from './detect.ts';
-import { type PredictedPaths, allPaths, groupPeak, nearestPeak, pathAt } from './paths.ts';
+import { type PredictedPaths, groupPeak, groupSpectrum, nearestPeak, pathAt } from './paths.ts';
 
 export interface AttributedEcho {
   echo: DetectedEcho;
@@ -43,6 +43,8 @@ export interface AttributeOptions {
   envelope: (t_s: number) => number;
 }
 
+/** Paths farther than this many pulse widths from a time contribute nothing there. */
+const NEAR_WIDTHS = 3;
 /** Fraction of an echo's envelope a path must hold at its time to be said to make it. */
 const HOLDS = 0.5;
 /** An echo more than this factor (6 dB) above the lattice's whole envelope at its time is unexplained. */
@@ -81,9 +83,14 @@ function audibleGroups(P: PredictedPaths, o: AttributeOptions): { paths: number[
   }
   return groups.map((paths) => {
     if (paths.length === 1) return { paths, t_s: P.t_s[paths[0]], level: P.level[paths[0]] };
-    const pk = groupPeak(P, paths, P.t_s[paths[0]], o.width_s / 4, o.width_s);
+    // their summed echo, read at the strength-weighted mean delay (the envelope is flat that close to its peak)
+    let w = 0, t = 0;
+    for (const p of paths) { w += P.level[p]; t += P.level[p] * P.t_s[p]; }
+    t /= w;
+    let re = 0, im = 0;
+    for (const p of paths) { const z = pathAt(P, p, t); re += z.re; im += z.im; }
     const loud = paths.filter((p) => P.level[p] >= o.floor);
-    return { paths: loud.length ? loud : paths, t_s: pk.t, level: pk.value };
+    return { paths: loud.length ? loud : paths, t_s: t, level: Math.hypot(re, im) };
   }).filter((g) => g.level >= o.floor);
 }
 
@@ -119,11 +126,25 @@ function assignPaths(echoes: readonly DetectedEcho[], P: PredictedPaths, o: Attr
   return { owner, unseen };
 }
 
+/**
+ * Paths whose own echoes lie within NEAR_WIDTHS pulse widths of t: the only ones that can reach t (the
+ * band pulse is below −90 dB beyond 1.5 widths), and the only ones whose band responses, sampled at the
+ * lattice's few frequencies and so periodic in time, are read without their periodic images.
+ */
+function pathsNear(P: PredictedPaths, t: number, width_s: number): number[] {
+  const out: number[] = [];
+  for (let p = 0; p < P.t_s.length; p++) if (Math.abs(P.t_s[p] - t) <= NEAR_WIDTHS * width_s) out.push(p);
+  return out;
+}
+
+/** Every path near t together: the lattice's own envelope there (an empty group gives zero). */
+const lattice = (P: PredictedPaths, t: number, width_s: number) => groupSpectrum(P, pathsNear(P, t, width_s));
+
 /** Contributions |z_p(t)| of every path at time t, strongest first, with the summed response. */
-function contributions(P: PredictedPaths, t: number): { order: number[]; c: Float64Array; total: number } {
+function contributions(P: PredictedPaths, t: number, width_s: number): { order: number[]; c: Float64Array; total: number } {
   const n = P.t_s.length, c = new Float64Array(n);
   let re = 0, im = 0;
-  for (let p = 0; p < n; p++) { const z = pathAt(P, p, t); c[p] = Math.hypot(z.re, z.im); re += z.re; im += z.im; }
+  for (const p of pathsNear(P, t, width_s)) { const z = pathAt(P, p, t); c[p] = Math.hypot(z.re, z.im); re += z.re; im += z.im; }
   const order = Array.from({ length: n }, (_, p) => p).sort((a, b) => c[b] - c[a]);
   return { order, c, total: Math.hypot(re, im) };
 }
@@ -145,7 +166,7 @@ export function attributeEchoes(echoes: readonly DetectedEcho[], P: PredictedPat
   const unclaimed = rows.map((_, j) => j).filter((j) => rows[j].paths.length === 0).sort((a, b) => rows[b].echo.level - rows[a].echo.level);
   for (const j of unclaimed) {
     const row = rows[j], t = row.echo.t_s, env = row.echo.level;
-    const { order, c, total } = contributions(P, t);
+    const { order, c, total } = contributions(P, t, o.width_s);
     const top = order[0];
     if (top === undefined || !(Math.max(c[top], total) >= HOLDS * env)) { row.nearest = nearestPath(P, t); continue; }
     const host = owner[top];
@@ -156,11 +177,10 @@ export function attributeEchoes(echoes: readonly DetectedEcho[], P: PredictedPat
     row.paths = free;
   }
   const kept = rows.filter((_, j) => !dropped.has(j));
-  const all = allPaths(P);
   for (const row of kept) {
     row.paths.sort((a, b) => P.t_s[a] - P.t_s[b]);
     // An echo holding far more than every path together predicts there is not those paths' echo.
-    if (row.paths.length > 0 && row.echo.level > OVERSHOOT * envelopeAt(all, row.echo.t_s)) {
+    if (row.paths.length > 0 && row.echo.level > OVERSHOOT * envelopeAt(lattice(P, row.echo.t_s, o.width_s), row.echo.t_s)) {
       row.nearest = row.paths.reduce((a, b) => (P.level[b] > P.level[a] ? b : a));
       unseen.push(...row.paths);
       row.paths = [];
@@ -168,7 +188,7 @@ export function attributeEchoes(echoes: readonly DetectedEcho[], P: PredictedPat
     if (row.paths.length === 0) { row.predicted_t_s = row.nearest >= 0 ? P.t_s[row.nearest] : row.echo.t_s; continue; }
     // where the lattice puts the envelope peak: these paths' own peak, then all paths' summed response there
     const own = row.paths.length === 1 ? P.t_s[row.paths[0]] : groupPeak(P, row.paths, row.echo.t_s, o.width_s, o.width_s).t;
-    row.predicted_t_s = nearestPeak(all, own, o.width_s / 2, o.width_s)?.t ?? own;
+    row.predicted_t_s = nearestPeak(lattice(P, own, o.width_s), own, o.width_s / 2, o.width_s)?.t ?? own;
   }
   return { rows: kept, unseen };
 }

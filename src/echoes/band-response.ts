@@ -4,13 +4,13 @@
 // result is the response to a clean pulse of known shape, confined to the stack's band (the material
 // tables hold only there). Delay 0 is the incident pulse's arrival at x = 0.
 //
-// Only the FFT bins inside the band are kept; everything later works on these few hundred bins.
+// Only the bins inside the band are kept; everything later works on these few dozen to few hundred bins.
 
-import { nextPow2, realFft } from '../spectra/fft.ts';
+import { dtft } from '../spectra/dtft.ts';
 import { bandPulse, bandWindow } from './band-pulse.ts';
 import type { UniformSpectrum } from './envelope.ts';
 
-/** W(f)·H(f) at the FFT bins inside the band: the analytic signal's whole spectrum. */
+/** W(f)·H(f) at the bins inside the band (f = k·df): the analytic signal's whole spectrum. */
 export interface BandSpectrum extends UniformSpectrum {
   /** Σ W over the same bins: the envelope peak of the incident band pulse itself (levels are relative to it). */
   peak: number;
@@ -41,11 +41,12 @@ export function bandSpectrumOf(band_Hz: readonly [number, number], df_Hz: number
 }
 
 /**
- * FFT size for records of `count` samples: room for the band pulse's tails on both sides of the
- * record (four pulse widths), so the circular time axis does not fold one end onto the other.
+ * Bin spacing for records of `count` samples: the time axis of the band response repeats every
+ * 1/df, which must hold the record and the band pulse's tails on both sides (four pulse widths), so
+ * one end does not fold onto the other.
  */
-export function fftSizeFor(count: number, dt_s: number, band_Hz: readonly [number, number]): number {
-  return nextPow2(count + Math.ceil((4 * bandPulse(band_Hz).width_s) / dt_s));
+export function binSpacing(count: number, dt_s: number, band_Hz: readonly [number, number]): number {
+  return 1 / (count * dt_s + 4 * bandPulse(band_Hz).width_s);
 }
 
 /** Incident bins weaker than this fraction of the strongest in-band bin give H = 0 (never a blown-up ratio). */
@@ -61,25 +62,27 @@ export interface BandRecords {
 
 /**
  * The band spectra of one or more records against the same incident record (all sampled every dt_s
- * from t = 0). A record that is all zero (behind a conductor) gives an all-zero spectrum.
+ * from t = 0). The records' transforms are needed at the few bins inside the band only, so they are
+ * taken there directly (spectra/dtft.ts, exactly the values a zero-padded FFT would give at those
+ * bins). A record that is all zero (behind a conductor) gives an all-zero spectrum.
  */
 export function bandRecords(incident: Float64Array, records: readonly Float64Array[], dt_s: number, band_Hz: readonly [number, number]): BandRecords {
   const n = Math.max(incident.length, ...records.map((r) => r.length));
-  const nfft = fftSizeFor(n, dt_s, band_Hz);
-  const df = 1 / (nfft * dt_s);
-  const I = realFft(incident, nfft);
+  const df = binSpacing(n, dt_s, band_Hz);
   const { first, count } = bandBins(band_Hz, df);
+  const f_Hz = Float64Array.from({ length: count }, (_, i) => (first + i) * df);
+  const I = dtft(incident, dt_s, f_Hz);
   let strongest = 0;
-  for (let i = 0; i < count; i++) strongest = Math.max(strongest, Math.hypot(I.re[first + i], I.im[first + i]));
+  for (let i = 0; i < count; i++) strongest = Math.max(strongest, Math.hypot(I.re[i], I.im[i]));
   const responses = records.map((rec) => {
-    const X = realFft(rec, nfft);
+    const X = dtft(rec, dt_s, f_Hz);
     return bandSpectrumOf(band_Hz, df, (k, out) => {
-      const c = I.re[k], d = I.im[k], q = c * c + d * d;
+      const i = k - first, c = I.re[i], d = I.im[i], q = c * c + d * d;
       if (!(Math.sqrt(q) > WEAK_INCIDENT * strongest)) { out[0] = 0; out[1] = 0; return; }
-      out[0] = (X.re[k] * c + X.im[k] * d) / q;
-      out[1] = (X.im[k] * c - X.re[k] * d) / q;
+      out[0] = (X.re[i] * c + X.im[i] * d) / q;
+      out[1] = (X.im[i] * c - X.re[i] * d) / q;
     });
   });
-  const own = bandSpectrumOf(band_Hz, df, (k, out) => { out[0] = I.re[k]; out[1] = I.im[k]; });
+  const own = bandSpectrumOf(band_Hz, df, (k, out) => { out[0] = I.re[k - first]; out[1] = I.im[k - first]; });
   return { incident: own, responses };
 }

@@ -25,7 +25,7 @@ export interface AnalyticSamples extends ComplexColumns {
 }
 
 /** Samples of z(t) at least `perWidth` per pulse width (`width_s`) over one period. */
-export function analyticSamples(S: UniformSpectrum, width_s: number, perWidth = 32): AnalyticSamples {
+export function analyticSamples(S: UniformSpectrum, width_s: number, perWidth = 16): AnalyticSamples {
   const period = 1 / S.df_Hz, K = S.re.length;
   const M = nextPow2(Math.max(2 * K, Math.ceil((perWidth * period) / width_s)));
   const X = { re: new Float64Array(M), im: new Float64Array(M) };

@@ -58,31 +58,32 @@ function interfaceCoefficients(s: StackAtFrequency[], k: number, fromLeft: boole
   return c;
 }
 
-interface Wave { medium: number; right: boolean; crossings: Int32Array; delay: number; re: Float64Array; im: Float64Array }
+interface Wave { medium: number; right: boolean; crossings: Int32Array; key: string; delay: number; re: Float64Array; im: Float64Array }
 
-const key = (medium: number, right: boolean, crossings: Int32Array): string => `${medium}${right ? '>' : '<'}${crossings.join(',')}`;
-
-/** Accumulates waves (or paths) by key, summing amplitudes of equal keys. */
+/** Accumulates waves (or paths) by identity, summing amplitudes of equal identities. */
 class Pool {
   readonly map = new Map<string, Wave>();
-  constructor(private readonly F: number, private readonly minAmp: number) {}
-  /** Adds amp·coef of wave w under a new identity (medium, right). */
-  add(w: Wave, medium: number, right: boolean, cr: Float64Array, ci: Float64Array, keyed: string): void {
-    const F = this.F;
+  private readonly tre: Float64Array;
+  private readonly tim: Float64Array;
+  constructor(private readonly F: number, private readonly minAmp: number) {
+    this.tre = new Float64Array(F); this.tim = new Float64Array(F);
+  }
+  /** Adds amplitude × coefficient of wave w as a wave in `medium` going right or left (identity `id`). */
+  add(w: Wave, medium: number, right: boolean, cr: Float64Array, ci: Float64Array, id: string): void {
+    const F = this.F, tre = this.tre, tim = this.tim;
     let peak = 0;
     for (let l = 0; l < F; l++) {
       const a = w.re[l] * cr[l] - w.im[l] * ci[l], b = w.re[l] * ci[l] + w.im[l] * cr[l];
-      peak = Math.max(peak, a * a + b * b);
+      tre[l] = a; tim[l] = b;
+      const m = a * a + b * b;
+      if (m > peak) peak = m;
     }
     if (peak < this.minAmp * this.minAmp) return;
-    let into = this.map.get(keyed);
-    if (!into) {
-      into = { medium, right, crossings: w.crossings, delay: w.delay, re: new Float64Array(F), im: new Float64Array(F) };
-      this.map.set(keyed, into);
-    }
-    for (let l = 0; l < F; l++) {
-      into.re[l] += w.re[l] * cr[l] - w.im[l] * ci[l];
-      into.im[l] += w.re[l] * ci[l] + w.im[l] * cr[l];
+    const into = this.map.get(id);
+    if (into) {
+      for (let l = 0; l < F; l++) { into.re[l] += tre[l]; into.im[l] += tim[l]; }
+    } else {
+      this.map.set(id, { medium, right, crossings: w.crossings, key: w.key, delay: w.delay, re: tre.slice(), im: tim.slice() });
     }
   }
 }
@@ -118,23 +119,24 @@ export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number
   });
   const reflected = new Pool(F, o.minAmplitude), transmitted = new Pool(F, o.minAmplitude);
   const maxWaves = o.maxWaves ?? 3000, maxCrossings = o.maxCrossings ?? 400;
-  /** Wave w arrives at interface k, travelling right (fromLeft) or left; splits into the pools. */
+  /** Wave w arrives at interface k, travelling towards the back or the front; splits into the pools. */
   const split = (next: Pool, w: Wave, k: number, towardsBack: boolean) => {
     const c = towardsBack ? fromLeft[k] : fromRight[k];
     if (towardsBack) {
-      if (k === 0) reflected.add(w, 0, false, c.r_re, c.r_im, w.crossings.join(','));
-      else next.add(w, k, false, c.r_re, c.r_im, key(k, false, w.crossings));
-      if (k < L) next.add(w, k + 1, true, c.t_re, c.t_im, key(k + 1, true, w.crossings));
-      else if (s[0].back) transmitted.add(w, L + 1, true, c.t_re, c.t_im, w.crossings.join(','));
+      if (k === 0) reflected.add(w, 0, false, c.r_re, c.r_im, w.key);
+      else next.add(w, k, false, c.r_re, c.r_im, `${k}<${w.key}`);
+      if (k < L) next.add(w, k + 1, true, c.t_re, c.t_im, `${k + 1}>${w.key}`);
+      else if (s[0].back) transmitted.add(w, L + 1, true, c.t_re, c.t_im, w.key);
     } else {
-      next.add(w, k + 1, true, c.r_re, c.r_im, key(k + 1, true, w.crossings));
-      if (k === 0) reflected.add(w, 0, false, c.t_re, c.t_im, w.crossings.join(','));
-      else next.add(w, k, false, c.t_re, c.t_im, key(k, false, w.crossings));
+      next.add(w, k + 1, true, c.r_re, c.r_im, `${k + 1}>${w.key}`);
+      if (k === 0) reflected.add(w, 0, false, c.t_re, c.t_im, w.key);
+      else next.add(w, k, false, c.t_re, c.t_im, `${k}<${w.key}`);
     }
   };
   let level = new Pool(F, o.minAmplitude);
-  const unit = { re: new Float64Array(F).fill(1), im: new Float64Array(F) };
-  split(level, { medium: 0, right: true, crossings: new Int32Array(L), delay: 0, ...unit }, 0, true);
+  const start = new Int32Array(L);
+  split(level, { medium: 0, right: true, crossings: start, key: start.join(','), delay: 0, re: new Float64Array(F).fill(1), im: new Float64Array(F) }, 0, true);
+  const moved: Wave = { medium: 0, right: true, crossings: start, key: '', delay: 0, re: new Float64Array(F), im: new Float64Array(F) };
   for (let n = 1; n <= maxCrossings && level.map.size > 0; n++) {
     const next = new Pool(F, o.minAmplitude);
     const waves = level.map.size > maxWaves ? strongest([...level.map.values()], maxWaves) : level.map.values();
@@ -144,7 +146,7 @@ export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number
       if (delay > o.maxDelay_s) continue;
       const crossings = w.crossings.slice();
       crossings[i] += 1;
-      const moved: Wave = { medium: w.medium, right: w.right, crossings, delay, re: new Float64Array(F), im: new Float64Array(F) };
+      moved.medium = w.medium; moved.right = w.right; moved.crossings = crossings; moved.key = crossings.join(','); moved.delay = delay;
       const p = prop[i];
       for (let l = 0; l < F; l++) {
         moved.re[l] = w.re[l] * p.re[l] - w.im[l] * p.im[l];

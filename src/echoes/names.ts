@@ -18,7 +18,18 @@ interface Faces {
   sheet: boolean[];
 }
 
+/** Faces of each stack named so far (a table names many paths of one stack). */
+const facesCache = new WeakMap<Stack, Faces>();
+
 function facesOf(stack: Stack): Faces {
+  const known = facesCache.get(stack);
+  if (known) return known;
+  const faces = namedFaces(stack);
+  facesCache.set(stack, faces);
+  return faces;
+}
+
+function namedFaces(stack: Stack): Faces {
   const layers: Faces['layers'] = [];
   const sheets: string[][] = [[]];
   stack.layers.forEach((l, i) => {

@@ -39,14 +39,11 @@ export const pathAt = (P: Weighted, p: number, t_s: number): { re: number; im: n
 
 /** The band spectrum of a group of paths (their sum). */
 export function groupSpectrum(P: Weighted, group: readonly number[]): UniformSpectrum {
-  const first = pathSpectrum(P, group[0]), F = first.re.length;
+  const first = pathSpectrum(P, 0), F = first.re.length;
   const re = new Float64Array(F), im = new Float64Array(F);
   for (const p of group) { const s = pathSpectrum(P, p); for (let l = 0; l < F; l++) { re[l] += s.re[l]; im[l] += s.im[l]; } }
   return { f_first_Hz: first.f_first_Hz, df_Hz: first.df_Hz, re, im };
 }
-
-/** Every path together: the lattice's whole band response. */
-export const allPaths = (P: Weighted): UniformSpectrum => groupSpectrum(P, Array.from(P.set.delay0_s.keys()));
 
 /** The highest envelope peak of a spectrum within ±span of t_s: sampled every quarter pulse width, then refined. */
 export function peakNear(S: UniformSpectrum, t_s: number, span_s: number, width_s: number): { t: number; value: number } {
@@ -81,8 +78,11 @@ export function nearestPeak(S: UniformSpectrum, t_s: number, within_s: number, w
 export const groupPeak = (P: Weighted, group: readonly number[], t_s: number, span_s: number, width_s: number): { t: number; value: number } =>
   peakNear(groupSpectrum(P, group), t_s, span_s, width_s);
 
+/** Half-width (in pulse widths) of the bracket searched for a path's own peak around its band-centre delay. */
+const MAIN_LOBE = 0.75;
+
 /**
- * Every path's own echo: its envelope peak within 1.5 pulse widths of its band-centre delay. A path
+ * Every path's own echo: its envelope peak near its band-centre delay. A path
  * that cannot reach `relevant` (Σ_l W_l |A_p(f_l)|, an upper bound of its envelope, stays below) keeps
  * its band-centre delay and its envelope there, without the search.
  */
@@ -97,7 +97,9 @@ export function predictPaths(set: PathSet, band_Hz: readonly [number, number], w
     const S = pathSpectrum(out, p);
     let bound = 0;
     for (let l = 0; l < F; l++) bound += Math.hypot(S.re[l], S.im[l]);
-    const t = bound >= relevant ? peakNear(S, set.delay0_s[p], 1.5 * width_s, width_s).t : set.delay0_s[p];
+    // the main lobe is unimodal out to its first null (1.48 widths): Newton from the band-centre delay
+    const d0 = set.delay0_s[p];
+    const t = bound >= relevant ? envelopePeak(S, d0 - MAIN_LOBE * width_s, d0 + MAIN_LOBE * width_s, 1e-7 * width_s).t : d0;
     const z = analyticAt(S, t);
     out.t_s[p] = t; out.level[p] = Math.hypot(z.re, z.im); out.re[p] = z.re; out.im[p] = z.im;
   }

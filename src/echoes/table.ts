@@ -67,13 +67,13 @@ export interface EchoAnalysis {
 export interface EchoOptions {
   /** Floor for echoes, dB relative to the incident band pulse's envelope peak. Default −40. */
   floor_dB?: number;
-  /** Lattice frequencies over the band. Default 64. */
+  /** Lattice frequencies over the band (their spacing B/24 makes each path's response repeat every 9 pulse widths). Default 24. */
   latticeFrequencies?: number;
 }
 
 export const DEFAULT_FLOOR_dB = -40;
-/** Paths this far below the floor are not followed further through the lattice. */
-const LATTICE_BELOW_FLOOR = 0.01;
+/** Waves this far below the floor (30 dB) are not followed further through the lattice. */
+const LATTICE_BELOW_FLOOR = 0.03;
 
 export function emptyEchoTable(): EchoTable {
   const z = () => new Float64Array(0);
@@ -158,7 +158,7 @@ export function analyseEchoes(stack: Stack, records: PulseRecords, options: Echo
   const b = bandRecords(incident, withT ? [reflected, trans] : [reflected], records.dt_s, stack.band_Hz);
   const t_inc = arrival(b.incident, analyticSamples(b.incident, pulse.width_s), pulse.width_s);
   const latest = end_s - t_inc;
-  const F = options.latticeFrequencies ?? 64;
+  const F = options.latticeFrequencies ?? 24;
   const lattice = latticePaths(stack, latticeFrequencies(stack.band_Hz, F), pulse.f0_Hz, {
     minAmplitude: LATTICE_BELOW_FLOOR * floor, maxDelay_s: latest + 2 * pulse.width_s,
   });

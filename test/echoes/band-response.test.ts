@@ -57,7 +57,7 @@ describe('analytic signal of a band response', () => {
       expect(Math.hypot(z.re - c.re, z.im - c.im) / S.peak).toBeLessThan(1e-7);
     }
     const A = analyticSamples(S, W);
-    expect(A.step_s).toBeLessThanOrEqual(W / 32);
+    expect(A.step_s).toBeLessThanOrEqual(W / 16);
     for (const m of [0, 17, 301, A.mag.length - 5]) {
       const t = sampleTime(A, m), c = closed(t);
       expect(Math.hypot(A.re[m] - c.re, A.im[m] - c.im) / S.peak).toBeLessThan(1e-7);

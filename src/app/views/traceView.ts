@@ -55,6 +55,7 @@ export class TraceView {
     const key: string[] = [];
     if (R.key.length) key.push('Reflected echoes (numbered above): delay after the front-face echo, level re the incident pulse, path', ...R.key);
     if (T.key.length) key.push('Transmitted echoes (T): delay after the incident pulse at x = 0, level, path', ...T.key);
+    if (key.length) key.push('Echoes of an ideal plane wave on flat, uniform layers: not a survey of a real structure (see the about panel).');
     const envT = num(input.envelope, 't_ns');
     const dB = asEnvelope && envT !== null && envT.length > 0;
     const yLabel = dB ? 'band envelope (dB re incident peak)' : 'E / E₀';
