@@ -15,7 +15,7 @@ import type { Stack } from '../stack/types.ts';
 import { attributeEchoes, type AttributedEcho } from './attribute.ts';
 import { type BandPulse, bandPulse, envelopeShape } from './band-pulse.ts';
 import { bandRecords, type BandSpectrum } from './band-response.ts';
-import { detectEchoes } from './detect.ts';
+import { detectEchoes, EARLIEST_WIDTHS } from './detect.ts';
 import { type AnalyticSamples, analyticSamples, envelopePeak, sampleIndex } from './envelope.ts';
 import { latticePaths, type PathSet } from './lattice.ts';
 import { MAX_PATH_CHARS, type RowName, reflectedPathName, rowText, transmittedPathName } from './names.ts';
@@ -123,7 +123,7 @@ interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer 
 
 function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, latest_s: number): EchoTable {
   const band = pulse.band_Hz, B = band[1] - band[0];
-  const echoes = detectEchoes(side.S, side.a, band, { floor, earliest_s: -2 * pulse.width_s, latest_s });
+  const echoes = detectEchoes(side.S, side.a, band, { floor, earliest_s: -EARLIEST_WIDTHS * pulse.width_s, latest_s });
   const P = predictPaths(side.set, band, pulse.width_s, 0.5 * floor);
   const a = side.a, peak = side.S.peak;
   const envelope = (t: number) => a.mag[sampleIndex(a, t)] / peak;

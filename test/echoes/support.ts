@@ -116,7 +116,7 @@ export function expectExact(stack: Stack, table: EchoTable, which: 'R' | 'T', so
   const exact = exactEnvelope(stack, which, W / 200, 64e-9, solve);
   const peaks = exactPeaks(exact, FLOOR);
   for (let i = 0; i < table.t_s.length; i++) {
-    expect(table.t_s[i]).toBeGreaterThanOrEqual(-W / 10);
+    expect(table.t_s[i]).toBeGreaterThanOrEqual(-0.1 * W);
     expect(table.level_dB[i]).toBeLessThanOrEqual(20 * Math.log10(envelopeValue(exact, table.t_s[i])) + 3);
   }
   const isolated = peaks.filter((p) => peaks.every((q) => q === p || Math.abs(q.t_s - p.t_s) >= W));

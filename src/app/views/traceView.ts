@@ -58,7 +58,7 @@ export class TraceView {
     if (key.length) key.push('Echoes of an ideal plane wave on flat, uniform layers: not a survey of a real structure (see the about panel).');
     const envT = num(input.envelope, 't_ns');
     const dB = asEnvelope && envT !== null && envT.length > 0;
-    const yLabel = dB ? 'band envelope (dB re incident peak)' : 'E / E₀';
+    const yLabel = dB ? 'band envelope (dB)' : 'E / E₀';
     const series = (name: string, raw: Float64Array | null) => (dB ? num(input.envelope, `${name}_dB`) : raw);
     const x = dB && envT !== null ? envT : t;
     const yi = series('incident', inc), yr = series('reflected', refl), yt = series('transmitted', trans);
