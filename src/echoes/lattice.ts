@@ -58,19 +58,24 @@ function interfaceCoefficients(s: StackAtFrequency[], k: number, fromLeft: boole
   return c;
 }
 
-interface Wave { medium: number; right: boolean; crossings: Int32Array; key: string; delay: number; re: Float64Array; im: Float64Array }
+/** A path's identity: its crossings vector, as one number (mixed radix) when that is exact, else as text. */
+type Key = number | string;
+interface Wave { medium: number; right: boolean; crossings: Int32Array; key: Key; delay: number; re: Float64Array; im: Float64Array }
+
+/** The wave a parent becomes after crossing layer `layer` and meeting an interface there. */
+interface Step { parent: Wave; layer: number; key: Key; delay: number }
 
 /** Accumulates waves (or paths) by identity, summing amplitudes of equal identities. */
 class Pool {
-  readonly map = new Map<string, Wave>();
+  readonly map = new Map<Key, Wave>();
   private readonly tre: Float64Array;
   private readonly tim: Float64Array;
   constructor(private readonly F: number, private readonly minAmp: number) {
     this.tre = new Float64Array(F); this.tim = new Float64Array(F);
   }
-  /** Adds amplitude × coefficient of wave w as a wave in `medium` going right or left (identity `id`). */
-  add(w: Wave, medium: number, right: boolean, cr: Float64Array, ci: Float64Array, id: string): void {
-    const F = this.F, tre = this.tre, tim = this.tim;
+  /** Adds the parent's amplitude × c (a coefficient times the crossed layer's propagator) as the wave `id`. */
+  add(st: Step, medium: number, right: boolean, c: Complexes, id: Key): void {
+    const F = this.F, tre = this.tre, tim = this.tim, w = st.parent, cr = c.re, ci = c.im;
     let peak = 0;
     for (let l = 0; l < F; l++) {
       const a = w.re[l] * cr[l] - w.im[l] * ci[l], b = w.re[l] * ci[l] + w.im[l] * cr[l];
@@ -82,10 +87,21 @@ class Pool {
     const into = this.map.get(id);
     if (into) {
       for (let l = 0; l < F; l++) { into.re[l] += tre[l]; into.im[l] += tim[l]; }
-    } else {
-      this.map.set(id, { medium, right, crossings: w.crossings, key: w.key, delay: w.delay, re: tre.slice(), im: tim.slice() });
+      return;
     }
+    const crossings = w.crossings.slice();
+    if (st.layer >= 0) crossings[st.layer] += 1;
+    this.map.set(id, { medium, right, crossings, key: st.key, delay: st.delay, re: tre.slice(), im: tim.slice() });
   }
+}
+
+interface Complexes { re: Float64Array; im: Float64Array }
+
+/** a·b at every frequency. */
+function times(a: Complexes, b: Complexes): Complexes {
+  const F = a.re.length, re = new Float64Array(F), im = new Float64Array(F);
+  for (let l = 0; l < F; l++) { re[l] = a.re[l] * b.re[l] - a.im[l] * b.im[l]; im[l] = a.re[l] * b.im[l] + a.im[l] * b.re[l]; }
+  return { re, im };
 }
 
 function strongest(waves: Wave[], keep: number): Wave[] {
@@ -93,7 +109,7 @@ function strongest(waves: Wave[], keep: number): Wave[] {
   return waves.map((w) => ({ w, p: peak(w) })).sort((a, b) => b.p - a.p).slice(0, keep).map((x) => x.w);
 }
 
-function pathSet(f_Hz: Float64Array, paths: Map<string, Wave>): PathSet {
+function pathSet(f_Hz: Float64Array, paths: Map<Key, Wave>): PathSet {
   const list = [...paths.values()].sort((a, b) => a.delay - b.delay);
   const F = f_Hz.length, re = new Float64Array(list.length * F), im = new Float64Array(list.length * F);
   list.forEach((w, p) => { re.set(w.re, p * F); im.set(w.im, p * F); });
@@ -119,41 +135,50 @@ export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number
   });
   const reflected = new Pool(F, o.minAmplitude), transmitted = new Pool(F, o.minAmplitude);
   const maxWaves = o.maxWaves ?? 3000, maxCrossings = o.maxCrossings ?? 400;
-  /** Wave w arrives at interface k, travelling towards the back or the front; splits into the pools. */
-  const split = (next: Pool, w: Wave, k: number, towardsBack: boolean) => {
-    const c = towardsBack ? fromLeft[k] : fromRight[k];
-    if (towardsBack) {
-      if (k === 0) reflected.add(w, 0, false, c.r_re, c.r_im, w.key);
-      else next.add(w, k, false, c.r_re, c.r_im, `${k}<${w.key}`);
-      if (k < L) next.add(w, k + 1, true, c.t_re, c.t_im, `${k + 1}>${w.key}`);
-      else if (s[0].back) transmitted.add(w, L + 1, true, c.t_re, c.t_im, w.key);
+  // Keys: Σ crossings_i · radix^i, exact while radix^L stays below 2^52; a wave's identity adds where it is.
+  const radix = maxCrossings + 1, numeric = L * Math.log2(radix) + Math.log2(2 * L + 4) < 52;
+  const place = Array.from({ length: L }, (_, i) => radix ** i);
+  const identity = (medium: number, right: boolean, key: Key): Key =>
+    (typeof key === 'number' ? key * (2 * L + 4) + 2 * medium + (right ? 1 : 0) : `${medium}${right ? '>' : '<'}${key}`);
+  // Crossing layer m (1-based medium) rightwards meets interface m from the left, leftwards interface
+  // m − 1 from the right; its coefficients times the layer's propagator, once per layer and direction.
+  const ahead = (m: number, right: boolean) => {
+    const c = right ? fromLeft[m] : fromRight[m - 1], p = prop[m - 1];
+    return { r: times({ re: c.r_re, im: c.r_im }, p), t: times({ re: c.t_re, im: c.t_im }, p), k: right ? m : m - 1 };
+  };
+  const rightwards = Array.from({ length: L + 1 }, (_, m) => (m === 0 ? null : ahead(m, true)));
+  const leftwards = Array.from({ length: L + 1 }, (_, m) => (m === 0 ? null : ahead(m, false)));
+  /** The parent crosses its layer and splits at the interface beyond into the pools. */
+  const split = (next: Pool, st: Step, right: boolean) => {
+    const m = st.parent.medium, c = (right ? rightwards : leftwards)[m]!, k = c.k;
+    if (right) {
+      next.add(st, k, false, c.r, identity(k, false, st.key));
+      if (k < L) next.add(st, k + 1, true, c.t, identity(k + 1, true, st.key));
+      else if (s[0].back) transmitted.add(st, L + 1, true, c.t, st.key);
     } else {
-      next.add(w, k + 1, true, c.r_re, c.r_im, `${k + 1}>${w.key}`);
-      if (k === 0) reflected.add(w, 0, false, c.t_re, c.t_im, w.key);
-      else next.add(w, k, false, c.t_re, c.t_im, `${k}<${w.key}`);
+      next.add(st, k + 1, true, c.r, identity(k + 1, true, st.key));
+      if (k === 0) reflected.add(st, 0, false, c.t, st.key);
+      else next.add(st, k, false, c.t, identity(k, false, st.key));
     }
   };
+  // The incident wave at the front face: reflected out, or into layer 1.
+  const start = new Int32Array(L), key0 = numeric ? 0 : start.join(',');
+  const incident: Step = { parent: { medium: 0, right: true, crossings: start, key: key0, delay: 0, re: new Float64Array(F).fill(1), im: new Float64Array(F) }, layer: -1, key: key0, delay: 0 };
   let level = new Pool(F, o.minAmplitude);
-  const start = new Int32Array(L);
-  split(level, { medium: 0, right: true, crossings: start, key: start.join(','), delay: 0, re: new Float64Array(F).fill(1), im: new Float64Array(F) }, 0, true);
-  const moved: Wave = { medium: 0, right: true, crossings: start, key: '', delay: 0, re: new Float64Array(F), im: new Float64Array(F) };
+  reflected.add(incident, 0, false, { re: fromLeft[0].r_re, im: fromLeft[0].r_im }, key0);
+  if (L > 0) level.add(incident, 1, true, { re: fromLeft[0].t_re, im: fromLeft[0].t_im }, identity(1, true, key0));
+  else if (s[0].back) transmitted.add(incident, 1, true, { re: fromLeft[0].t_re, im: fromLeft[0].t_im }, key0);
+  const st: Step = { parent: incident.parent, layer: 0, key: key0, delay: 0 };
   for (let n = 1; n <= maxCrossings && level.map.size > 0; n++) {
     const next = new Pool(F, o.minAmplitude);
     const waves = level.map.size > maxWaves ? strongest([...level.map.values()], maxWaves) : level.map.values();
     for (const w of waves) {
       const i = w.medium - 1;
-      const delay = w.delay + tau[i];
-      if (delay > o.maxDelay_s) continue;
-      const crossings = w.crossings.slice();
-      crossings[i] += 1;
-      moved.medium = w.medium; moved.right = w.right; moved.crossings = crossings; moved.key = crossings.join(','); moved.delay = delay;
-      const p = prop[i];
-      for (let l = 0; l < F; l++) {
-        moved.re[l] = w.re[l] * p.re[l] - w.im[l] * p.im[l];
-        moved.im[l] = w.re[l] * p.im[l] + w.im[l] * p.re[l];
-      }
-      // crossing medium m rightwards reaches interface m from the left; leftwards, interface m − 1 from the right
-      if (w.right) split(next, moved, w.medium, true); else split(next, moved, w.medium - 1, false);
+      st.parent = w; st.layer = i; st.delay = w.delay + tau[i];
+      if (st.delay > o.maxDelay_s) continue;
+      if (typeof w.key === 'number') st.key = w.key + place[i];
+      else { const c = w.crossings.slice(); c[i] += 1; st.key = c.join(','); }
+      split(next, st, w.right);
     }
     level = next;
   }

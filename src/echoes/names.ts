@@ -110,21 +110,22 @@ export function rowText(paths: readonly RowName[], limit = Number.POSITIVE_INFIN
   if (paths.length === 0) return '';
   if (paths.length === 1) return cut(paths[0].full.length <= limit ? paths[0].full : paths[0].compact, limit);
   const byLevel = paths.slice().sort((a, b) => b.level - a.level);
-  const text = (shown: RowName[], form: 'full' | 'compact') => {
-    const names = shown.slice().sort((a, b) => a.t_s - b.t_s).map((p) => p[form]);
-    const more = paths.length - shown.length;
-    return `${names.join(' + ')}${more ? ` + ${more} more` : ''} (unresolved)`;
-  };
+  const tail = (more: number) => `${more ? ` + ${more} more` : ''} (unresolved)`;
   for (const form of ['full', 'compact'] as const) {
+    // the strongest names that fit, counted by length as they are added
     const shown: RowName[] = [];
+    let length = 0;
     for (const p of byLevel) {
       if (p.level < NAMED_WITHIN * byLevel[0].level) break;
-      if (shown.length > 0 && text([...shown, p], form).length > limit) break;
+      const grown = length + (shown.length ? 3 : 0) + p[form].length;
+      if (shown.length > 0 && grown + tail(paths.length - shown.length - 1).length > limit) break;
       shown.push(p);
+      length = grown;
     }
-    const s = text(shown, form);
-    if (s.length <= limit) return s;
+    if (length + tail(paths.length - shown.length).length > limit) continue;
+    const names = shown.sort((a, b) => a.t_s - b.t_s).map((p) => p[form]);
+    return `${names.join(' + ')}${tail(paths.length - shown.length)}`;
   }
-  const tail = ` + ${paths.length - 1} more (unresolved)`;
-  return `${cut(byLevel[0].compact, Math.max(8, limit - tail.length))}${tail}`;
+  const more = ` + ${paths.length - 1} more (unresolved)`;
+  return `${cut(byLevel[0].compact, Math.max(8, limit - more.length))}${more}`;
 }

@@ -67,13 +67,13 @@ export interface EchoAnalysis {
 export interface EchoOptions {
   /** Floor for echoes, dB relative to the incident band pulse's envelope peak. Default −40. */
   floor_dB?: number;
-  /** Lattice frequencies over the band (their spacing B/24 makes each path's response repeat every 9 pulse widths). Default 24. */
+  /** Lattice frequencies over the band (their spacing B/16 makes each path's response repeat every 6 pulse widths). Default 16. */
   latticeFrequencies?: number;
 }
 
 export const DEFAULT_FLOOR_dB = -40;
-/** Waves this far below the floor (30 dB) are not followed further through the lattice. */
-const LATTICE_BELOW_FLOOR = 0.03;
+/** Waves this far below the floor (20 dB) are not followed further through the lattice. */
+const LATTICE_BELOW_FLOOR = 0.1;
 
 export function emptyEchoTable(): EchoTable {
   const z = () => new Float64Array(0);
@@ -124,7 +124,7 @@ interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer 
 function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, latest_s: number): EchoTable {
   const band = pulse.band_Hz, B = band[1] - band[0];
   const echoes = detectEchoes(side.S, side.a, band, { floor, earliest_s: -EARLIEST_WIDTHS * pulse.width_s, latest_s });
-  const P = predictPaths(side.set, band, pulse.width_s, 0.5 * floor);
+  const P = predictPaths(side.set, band, pulse.width_s, floor);
   const a = side.a, peak = side.S.peak;
   const envelope = (t: number) => a.mag[sampleIndex(a, t)] / peak;
   const { rows, unseen } = attributeEchoes(echoes, P, { floor, width_s: pulse.width_s, bandWidth_Hz: B, envelope });
@@ -158,7 +158,7 @@ export function analyseEchoes(stack: Stack, records: PulseRecords, options: Echo
   const b = bandRecords(incident, withT ? [reflected, trans] : [reflected], records.dt_s, stack.band_Hz);
   const t_inc = arrival(b.incident, analyticSamples(b.incident, pulse.width_s), pulse.width_s);
   const latest = end_s - t_inc;
-  const F = options.latticeFrequencies ?? 24;
+  const F = options.latticeFrequencies ?? 16;
   const lattice = latticePaths(stack, latticeFrequencies(stack.band_Hz, F), pulse.f0_Hz, {
     minAmplitude: LATTICE_BELOW_FLOOR * floor, maxDelay_s: latest + 2 * pulse.width_s,
   });
