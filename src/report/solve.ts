@@ -19,6 +19,8 @@ import type { FemOptions } from '../fem/types.ts';
 import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
 import { profileColumns, profileHasH } from './profile-columns.ts';
 import { roundedRow, type AgreementRow } from './format-agreement.ts';
+import { quantitiesOf, quantitiesUnavailable, frontIsLossless } from '../studies/quantities.ts';
+import { quantitiesInBrief, quantityColumns } from '../studies/extremes.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -31,6 +33,8 @@ export interface Report {
   warnings: string[];
   /** Method-pair agreement rows (fem-tmm, …), also in summary.agreement. */
   agreement: AgreementRow[];
+  /** The exact spectrum itself (the R_tmm and T_tmm columns at the exact frequencies in Hz). */
+  tmm: Spectrum;
 }
 
 export interface SolveOptions {
@@ -72,6 +76,11 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   const fem = femSpectrumPart(stack, tmm, femOptions, warn);
   const agreement: AgreementRow[] = [];
   if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
+  // Engineering quantities of the exact solution, after every method's columns (runReport keeps them last).
+  const unavailable = quantitiesUnavailable(stack);
+  const quantities = unavailable === null ? quantitiesOf(stack, tmm) : null;
+  if (quantities) spectrum.push(...quantityColumns(quantities));
+  else warn(`${unavailable}; spectrum.csv leaves them out`);
   progress(0.95);
 
   // Standing-wave profile: tangential E along the normal line (and in TM the tangential H), at any incidence.
@@ -112,14 +121,14 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
     back: stack.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(stack.back, stack),
     total_thickness_mm: mmFromM(stackThickness_m(stack)),
     methods,
-    results: resultsInBrief(stack, tmm),
+    results: { ...resultsInBrief(stack, tmm), ...(quantities ? quantitiesInBrief(tmm.f_Hz, quantities) : {}) },
     ...(fem ? { fem: fem.mesh } : {}),
     agreement: agreement.map(roundedRow),
     warnings,
   };
   assertFiniteValues(summary);
   progress(1);
-  return { spectrum, profile, summary, warnings, agreement };
+  return { spectrum, profile, summary, warnings, agreement, tmm };
 }
 
 function solveInChunks(stack: Stack, f_Hz: Float64Array, onDone: (fraction: number) => void): Spectrum {
@@ -166,9 +175,7 @@ function resultsInBrief(stack: Stack, sp: Spectrum): Record<string, unknown> {
     T_dB_min: stack.back === 'pec' ? null : round3(tMin), T_dB_max: stack.back === 'pec' ? null : round3(tMax),
   };
   // Incident and reflected powers separate only in a lossless front medium.
-  const frontLossless = [stack.band_Hz[0], stack.band_Hz[1]].every((f) =>
-    permittivity(stack.front.spec, f).im === 0 && permeability(stack.front.spec, f).im === 0);
-  if (frontLossless) {
+  if (frontIsLossless(stack)) {
     const A = absorption(stack, sp);
     let iMax = 0, aMin = Infinity;
     for (let i = 0; i < n; i++) { if (A[i] > A[iMax]) iMax = i; aMin = Math.min(aMin, A[i]); }
