@@ -131,15 +131,14 @@ function caseRows(plan: SweepPlan, index: number, file: StackFile, exact: ExactW
     ...setAxes(plan).map((a) => valueText(values[plan.axes.indexOf(a)]))].join(',');
   const { spectrum: s, quantities: q } = exact;
   const cols = [s.R_re, s.R_im, s.T_re, s.T_im, ...QUANTITY_NAMES.map((n) => q[n])];
-  let out = '';
-  const row = new Array<string>(cols.length + 2);
-  row[0] = own;
+  const lines = new Array<string>(s.f_Hz.length + 1);
   for (let i = 0; i < s.f_Hz.length; i++) {
-    row[1] = formatNumber(s.f_Hz[i] * 1e-9); // as spectrum.csv writes f_GHz
-    for (let j = 0; j < cols.length; j++) row[j + 2] = formatNumber(cols[j][i]);
-    out += `${row.join(',')}\n`;
+    let line = `${own},${formatNumber(s.f_Hz[i] * 1e-9)}`; // f_GHz as spectrum.csv writes it
+    for (let j = 0; j < cols.length; j++) line += `,${formatNumber(cols[j][i])}`;
+    lines[i] = line;
   }
-  return out;
+  lines[s.f_Hz.length] = '';
+  return lines.join('\n');
 }
 
 const valueText = (v: PathValue): string => (typeof v === 'number' ? formatNumber(v) : csvField(v));

@@ -8,9 +8,17 @@ const definition = (x: number): string => (x === 0 ? '0' : String(Number(x.toPre
 
 describe('formatNumber', () => {
   it('equals its definition for any finite double (fast-check)', () => {
-    fc.assert(fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), (x) => formatNumber(x) === definition(x)), { numRuns: 20000 });
+    fc.assert(fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), (x) => formatNumber(x) === definition(x)), { numRuns: 50000 });
     // and most often where the tables' numbers live
-    fc.assert(fc.property(fc.double({ min: -1e4, max: 1e4, noNaN: true }), (x) => formatNumber(x) === definition(x)), { numRuns: 20000 });
+    fc.assert(fc.property(fc.double({ min: -1e4, max: 1e4, noNaN: true }), (x) => formatNumber(x) === definition(x)), { numRuns: 50000 });
+  });
+
+  it('equals it on 12-digit decimals and on values halfway between two of them, where rounding is closest', () => {
+    const near = fc.tuple(fc.integer({ min: 1e11, max: 1e12 - 1 }), fc.integer({ min: -8, max: 13 }), fc.constantFrom(0, 0.5, 0.4999, 0.5001), fc.boolean());
+    fc.assert(fc.property(near, ([m, e, f, neg]) => {
+      const x = (neg ? -1 : 1) * (m + f) * 10 ** (e - 11);
+      return formatNumber(x) === definition(x);
+    }), { numRuns: 50000 });
   });
 
   it('equals it at the edges of the fixed notation and where rounding carries a digit', () => {

@@ -8,6 +8,7 @@ import {
   drawSamples, parseVary, runToleranceSample, SampleTable, TOLERANCE_QUANTITIES, type TolerancePlan,
 } from '../../src/studies/tolerance.ts';
 import { C0_m_per_s } from '../../src/units.ts';
+import { slabAt } from '../support/half-wave-slab.ts';
 
 // Standard normal quantiles (Abramowitz & Stegun, Handbook of Mathematical Functions, 26.2 table):
 const Z95 = 1.6448536269514722; // Φ⁻¹(0.95)
@@ -39,27 +40,6 @@ function run(p: TolerancePlan, f_Hz: Float64Array): Record<string, Float64Array>
   }
   return Object.fromEntries(table.percentileColumns(f_Hz).map((c) => [c.name, c.data]));
 }
-
-/**
- * The slab's R and its derivative in d (lossless slab between equal media: R = r(1 − u)/(1 − r²u), u = e^{−2jkd};
- * Orfanidis, Electromagnetic Waves and Antennas, ch. 5): dR/dd = r(r² − 1)/(1 − r²u)² · (−2jk u).
- */
-function slabAt(f: number, d: number) {
-  const n = 2, r = (1 - n) / (1 + n), k = (2 * Math.PI * f * n) / C0_m_per_s, k0 = k / n;
-  const u = { re: Math.cos(2 * k * d), im: -Math.sin(2 * k * d) };
-  const den = { re: 1 - r * r * u.re, im: -r * r * u.im }; // 1 − r²u
-  const den2 = { re: den.re * den.re - den.im * den.im, im: 2 * den.re * den.im };
-  const R = cdiv({ re: r * (1 - u.re), im: -r * u.im }, den);
-  const m = { re: 2 * k * u.im, im: -2 * k * u.re }; // −2jk u
-  const dR = cdiv({ re: r * (r * r - 1) * m.re, im: r * (r * r - 1) * m.im }, den2);
-  // IPD = −arg T − k0 d with T = (1 − r²) e^{−jkd}/(1 − r²u): d(IPD)/dd = k + d arg(1 − r²u)/dd − k0
-  const dArg = cdiv({ re: -r * r * m.re, im: -r * r * m.im }, den).im;
-  return { R, dR, dIPD_deg: ((k + dArg - k0) * 180) / Math.PI };
-}
-const cdiv = (a: { re: number; im: number }, b: { re: number; im: number }) => {
-  const q = b.re * b.re + b.im * b.im;
-  return { re: (a.re * b.re + a.im * b.im) / q, im: (a.im * b.re - a.re * b.im) / q };
-};
 
 describe('tolerance draws', () => {
   it('are the generator\'s normals scaled to the SD, the same for a seed, and uniform draws stay within ±HALF', () => {

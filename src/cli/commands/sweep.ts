@@ -60,10 +60,13 @@ function costPerCase(plan: SweepPlan): number {
   return base * (1 + (plan.methods.includes('fem') ? 30 : 0) + (plan.methods.includes('fdtd') ? 3000 : 0));
 }
 
-/** Bytes of sweep.csv, estimated from the row widths (12-digit numbers) before any work. */
+/**
+ * Bytes of sweep.csv, estimated before any work: the case's own columns, then f_GHz and ten numbers of 12
+ * significant digits (about 14 characters with sign, point and comma, measured on typical sweeps).
+ */
 function estimateCsvBytes(plan: SweepPlan, cases: number): number {
-  const own = 8 + 4 + 3 + plan.axes.length * 10;
-  return cases * plan.base.points * (own + 11 * 16);
+  const own = String(cases).length + 1 + 3 + 3 + plan.axes.length * 6;
+  return cases * plan.base.points * (own + 6 + 10 * 14);
 }
 
 const USAGE = `Usage: slabecho sweep FILE --out DIR [--angle A:B:STEP] [--polarization TE,TM] [--set PATH=VALUES]... [options]
