@@ -89,7 +89,8 @@ export interface SweepCaseRecord extends BandExtremes {
 /** Everything one case gives: its rows of sweep.csv (text, line ends included), its record, its files. */
 export interface SweepCaseOutput {
   index: number;
-  rows: string;
+  /** Text, or its UTF-8 bytes when it crossed from a worker thread. */
+  rows: string | Uint8Array;
   record: SweepCaseRecord;
   warnings: string[];
   files: { name: string; text: string }[];

@@ -9,7 +9,8 @@ import { InputError } from '../command.ts';
 import { ensureDir } from '../io.ts';
 
 export interface StreamedFile {
-  write(text: string): void;
+  /** Text, or UTF-8 bytes. */
+  write(text: string | Uint8Array): void;
   /** Bytes written so far. */
   readonly bytes: number;
 }
@@ -38,8 +39,12 @@ export class OutputSet {
     return new InputError(`cannot write into ${this.dir}: ${e instanceof Error ? e.message.split('\n')[0] : String(e)}`);
   }
 
-  private put(p: Pending, text: string): void {
-    try { p.bytes += writeSync(p.fd!, text); } catch (e) { throw this.failure(e); }
+  private put(p: Pending, data: string | Uint8Array): void {
+    try {
+      const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+      for (let at = 0; at < bytes.length;) at += writeSync(p.fd!, bytes, at, bytes.length - at);
+      p.bytes += bytes.length;
+    } catch (e) { throw this.failure(e); }
   }
 
   /** A file written piece by piece (a table as its rows come). */

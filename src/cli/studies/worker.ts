@@ -20,10 +20,18 @@ export async function runStudyTask(job: StudyJob, index: number, shouldStop?: ()
   return { index, sample: runToleranceSample(job.plan, job.values, index) };
 }
 
-/** The buffers a result can hand over without copying. */
-function transfers(r: StudyTaskResult): ArrayBuffer[] {
-  if (!r.sample) return [];
-  return Object.values(r.sample.quantities).map((a) => a.buffer as ArrayBuffer);
+const utf8 = new TextEncoder();
+
+/**
+ * The result ready to post, and the buffers it hands over without copying: a sweep case's rows go as UTF-8 bytes
+ * (copying a long string between threads costs more than encoding it, which the file needs anyway).
+ */
+function forPosting(r: StudyTaskResult): { message: StudyTaskResult; transfer: ArrayBuffer[] } {
+  if (r.sweep && typeof r.sweep.rows === 'string') {
+    const bytes = utf8.encode(r.sweep.rows);
+    return { message: { ...r, sweep: { ...r.sweep, rows: bytes } }, transfer: [bytes.buffer as ArrayBuffer] };
+  }
+  return { message: r, transfer: r.sample ? Object.values(r.sample.quantities).map((a) => a.buffer as ArrayBuffer) : [] };
 }
 
 /** Entry of a study worker thread: answer each `run` message with one `result` message per task. */
@@ -35,8 +43,8 @@ export function studyWorkerMain(): void {
   port.on('message', async (m: { type: 'run'; tasks: number[] }) => {
     try {
       for (const t of m.tasks) {
-        const result = await runStudyTask(job, t);
-        port.postMessage({ type: 'result', result }, transfers(result));
+        const { message, transfer } = forPosting(await runStudyTask(job, t));
+        port.postMessage({ type: 'result', result: message }, transfer);
       }
     } catch (e) {
       port.postMessage({ type: 'error', message: e instanceof Error ? e.message : String(e), stack: e instanceof Error ? e.stack : undefined });
