@@ -123,13 +123,14 @@ describe('Ctrl-C', () => {
     writeFileSync(join(out, 'sweep.csv'), 'earlier results\n');
     const slow = join(tmp.dir, 'slow.stack.json');
     writeFileSync(slow, JSON.stringify({ ...PANEL, band_GHz: [2, 18], points: 201 }));
-    const child = spawn(process.execPath, ['bin/slabecho.mjs', 'sweep', slow, '--out', out, '--angle', '0:40:1', '--methods', 'tmm,fem,fdtd', '--threads', '2'],
-      { stdio: ['ignore', 'pipe', 'pipe'] });
-    let stderr = '';
+    // 3 600 cases with a pulse run each: minutes of work, stopped half a second after it starts.
+    const child = spawn(process.execPath, ['bin/slabecho.mjs', 'sweep', slow, '--out', out, '--angle', '0:89:0.5', '--polarization', 'TE,TM',
+      '--set', 'layers[1].thickness_mm=1:10:1', '--methods', 'tmm,fem,fdtd', '--threads', '2'], { stdio: ['ignore', 'pipe', 'pipe'] });
+    let stderr = '', sent = false;
     const code = await new Promise<number | null>((resolve) => {
       child.stderr.on('data', (d) => {
         stderr += String(d);
-        if (/case \d+ done/.test(stderr) && !child.killed) child.kill('SIGINT');
+        if (/^sweep: \d+ cases/m.test(stderr) && !sent) { sent = true; setTimeout(() => child.kill('SIGINT'), 500); }
       });
       child.on('exit', (c) => resolve(c));
     });
