@@ -104,6 +104,10 @@ Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
       line += `; absorbed up to ${(100 * r.absorbed_fraction_max).toFixed(1)} % (at ${fmtGHz(r.absorbed_fraction_max_at_GHz as number)} GHz)`;
     }
     io.out(line);
+    if (r.T_dB_min !== null && typeof r.IL_dB_min === 'number') {
+      io.out(`insertion loss ${r.IL_dB_min.toFixed(2)} to ${(r.IL_dB_max as number).toFixed(2)} dB; ` +
+        `insertion phase delay ${(r.IPD_deg_min as number).toFixed(1)} to ${(r.IPD_deg_max as number).toFixed(1)}°`);
+    }
     io.out(`wrote ${written.join(', ')} (${s.methods.map((m) => `${m.name} ${m.time_ms.toFixed(1)} ms`).join(', ')})`);
     if (report.agreement.length > 0) io.out(formatAgreement(report.agreement));
     return 0;
