@@ -49,6 +49,7 @@ const r6 = (x: number): number => Number(x.toPrecision(6));
 export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
   const progress = options.onProgress ?? (() => {});
   const base = solveReport(stack, { ...options, onProgress: (f) => progress(0.1 * f) });
+  const stepped = (options.media ?? 'tables') === 'stepped';
   const warnings = [...base.warnings];
   const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
   const summary: Record<string, unknown> = { ...base.summary };
@@ -110,9 +111,9 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     { name: 'E_transmitted', data: rec.transmitted.slice() },
   ];
 
-  // Agreement rows: fdtd against the exact solution, against the FEM when its columns are there, and the
-  // stepped-media split.
-  const agreement = fdtdAgreementRows(run, fdtd, spectrumFromColumns(spectrum, 'tmm', f_Hz), spectrumFromColumns(spectrum, 'fem', f_Hz));
+  // Agreement rows: fdtd against the exact solution, against the FEM when its columns are there and, when the
+  // engine stepped other media than the tables (and the tmm columns are the tables'), the stepped-media split.
+  const agreement = fdtdAgreementRows(run, fdtd, spectrumFromColumns(spectrum, 'tmm', f_Hz), spectrumFromColumns(spectrum, 'fem', f_Hz), !stepped);
   const allAgreement = [...base.agreement, ...agreement];
   summary.agreement = allAgreement.map(roundedRow);
 
@@ -124,9 +125,10 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     steps: run.stepIndex,
     simulated_ns: r6(run.time_s * 1e9),
     end: run.doneReason,
+    end_rule: endRule(run),
     residual_energy_dB: Number.isFinite(energy.level_dB) ? r3(energy.level_dB) : null,
     decay_target_dB: -run.plan.decay_dB,
-    truncated: run.doneReason !== 'decayed',
+    truncated: run.doneReason !== 'converged',
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
   };
   summary.power_law_fits = run.plan.fits.map((f) => ({
@@ -135,6 +137,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     max_rel_error_eps_re: r3(f.maxRelErr_re),
     max_rel_error_eps_im: r3(f.maxRelErr_im),
     max_rel_error_eps: r3(f.maxRelErr_abs),
+    min_eps_re_half_to_twice_band: r3(f.minEpsRe_wide),
+    fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
     model: fittedModel(f.model),
   }));
   summary.pulse = {
@@ -161,7 +165,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   if (ech.path.length > 0) assertTable(ech.columns);
   assertFiniteValues(summary);
   progress(1);
-  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: allAgreement, stopped, tmm: base.tmm };
+  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: allAgreement, stopped };
 }
 
 function emptyEchoColumns(): Column[] {
@@ -179,6 +183,15 @@ function spectrumFromColumns(cols: readonly Column[], tag: string, f_Hz: Float64
   return { f_Hz, R_re, R_im, T_re, T_im };
 }
 
+/** Which rule ended the run, in words. */
+function endRule(run: PulseRun): string {
+  switch (run.doneReason) {
+    case 'converged': return `converged: R and T settled at every check frequency across the band (its bottom included) and the stored energy, pole states included, fell ${run.plan.decay_dB} dB below its peak`;
+    case 'step-limit': return `step limit: ${run.plan.stepsLimit} steps reached before the run converged (see the warnings)`;
+    default: return 'stopped before the run converged';
+  }
+}
+
 function gridSummary(p: GridPlan): Record<string, unknown> {
   return {
     cell_mm: r6(p.dx_m * 1e3),
@@ -188,6 +201,7 @@ function gridSummary(p: GridPlan): Record<string, unknown> {
     cells_per_wavelength: r3(p.cellsPerWavelength),
     pml_cells: p.pmlCells,
     predicted_error: r3(p.predictedError),
+    slowest_relaxation_ns: Number.isFinite(p.slowestRelaxation_s) ? r3(p.slowestRelaxation_s * 1e9) : null,
     accuracy_target: p.accuracyTarget,
     steps_limit: p.stepsLimit,
     memory_MB: r3(p.memory_bytes / 1e6),

@@ -1,20 +1,45 @@
 // slabecho solve FILE --out DIR: exact frequency-domain results (spectrum, profile, summary) into DIR.
 
 import { join } from 'node:path';
-import { solveReport, type Report } from '../../report/solve.ts';
+import { solveReport, type Media, type Report } from '../../report/solve.ts';
+import { PlanError } from '../../fdtd/errors.ts';
 import { formatCsv } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import type { Stack } from '../../stack/types.ts';
 import type { StackFile } from '../../stack/file.ts';
-import type { Command, Io } from '../command.ts';
-import { InputError, readArgs, UsageError } from '../command.ts';
+import type { Command, Io, ParsedArgs } from '../command.ts';
+import { CliError, InputError, readArgs, UsageError } from '../command.ts';
 import { ensureDir, loadStackFile, removeIfPresent, writeFilesAtomic } from '../io.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
 import { SParameterError, sParameters, type PlaneShift } from '../../studies/sparams.ts';
+import { bandFrequencies } from '../../results.ts';
+import { solveTmm } from '../../tmm/solve.ts';
 import { touchstoneExtension, touchstoneText } from '../../studies/touchstone.ts';
 import { SLABECHO_VERSION } from '../../version.ts';
 import { TOUCHSTONE_ARG_OPTIONS, TOUCHSTONE_ARG_USAGE, touchstoneFromArgs } from '../studies/args.ts';
+
+/** --media, shared by solve, run and converge. */
+export const MEDIA_ARG_OPTIONS = { media: { type: 'string' } } as const;
+export const MEDIA_ARG_USAGE = `  --media M    tables (default): every method solves the media as the stack names them; stepped: the
+               exact solver and the FEM solve the media as the pulse engine steps them (power laws as their
+               fitted causal models, conductors as walls or sheets); the row "stepped media-tmm" keeps the difference`;
+
+/** --media, or 'tables'; a UsageError (exit 2) for anything else. */
+export function mediaFromArgs(values: ParsedArgs['values']): Media {
+  const m = values.media;
+  if (m === undefined) return 'tables';
+  if (m === 'tables' || m === 'stepped') return m;
+  throw new UsageError(`--media: must be tables or stepped (got "${String(m)}")`);
+}
+
+/** A PlanError met while preparing the stepped media is the stack's problem: exit 2, the message as it is. */
+export function planErrorAsInput<T>(work: () => T): T {
+  try { return work(); } catch (e) {
+    if (e instanceof PlanError) throw new CliError(`${e.message}; nothing was written`, 2);
+    throw e;
+  }
+}
 
 /** Load FILE, or print its problems (one line each) and throw InputError (exit 2). */
 export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: string[]; file: StackFile } {
@@ -44,10 +69,13 @@ export function writeReport(dir: string, report: Report, extra: readonly ReportF
   return written;
 }
 
-/** spectrum.s2p (or .s1p behind a conductor); InputError (exit 2, nothing written) when a half-space cannot be a port. */
-export function touchstoneFile(stack: Stack, report: Report, shift: PlaneShift): ReportFile {
+/**
+ * spectrum.s2p (or .s1p behind a conductor) of the stack as written (also with --media stepped); InputError (exit 2,
+ * nothing written) when a half-space cannot be a port.
+ */
+export function touchstoneFile(stack: Stack, shift: PlaneShift): ReportFile {
   try {
-    const s = sParameters(stack, report.tmm, shift);
+    const s = sParameters(stack, solveTmm(stack, bandFrequencies(stack)), shift);
     return { name: `spectrum${touchstoneExtension(s)}`, text: touchstoneText(stack, s, shift, SLABECHO_VERSION) };
   } catch (e) {
     if (e instanceof SParameterError) throw new InputError(`--touchstone: ${e.message}; nothing was written`);
@@ -58,7 +86,8 @@ export function touchstoneFile(stack: Stack, report: Report, shift: PlaneShift):
 export const solve: Command = {
   name: 'solve',
   summary: 'exact R, T spectra and standing-wave profile of a stack into a directory',
-  usage: `Usage: slabecho solve FILE --out DIR [--fem-order P] [--fem-density N] [--touchstone [--deembed-mm F,B]]
+  usage: `Usage: slabecho solve FILE --out DIR [--fem-order P] [--fem-density N] [--media tables|stepped]
+                    [--touchstone [--deembed-mm F,B]]
 
 Solve the stack in FILE with the exact transfer-matrix method, cross-checked by the FEM, and write into DIR
 (created if needed):
@@ -74,21 +103,23 @@ Files are written atomically: an interrupted run leaves the previous files or th
 Options:
   --out DIR    output directory (required)
 ${FEM_ARG_USAGE}
+${MEDIA_ARG_USAGE}
 ${TOUCHSTONE_ARG_USAGE}
   -h, --help   show this help
 
 Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
   async run(args, io) {
-    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...TOUCHSTONE_ARG_OPTIONS }, [1, 1]);
+    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...MEDIA_ARG_OPTIONS, ...TOUCHSTONE_ARG_OPTIONS }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho solve --help)');
     const fem = femOptionsFromArgs(a.values);
+    const media = mediaFromArgs(a.values);
     const shift = touchstoneFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
-    const report = solveReport(stack, { inputWarnings: warnings, fem });
-    const touchstone = shift === null ? [] : [touchstoneFile(stack, report, shift)];
+    const report = planErrorAsInput(() => solveReport(stack, { inputWarnings: warnings, fem, media }));
+    const touchstone = shift === null ? [] : [touchstoneFile(stack, shift)];
     for (const w of report.warnings) io.err(`warning: ${w}`);
     const written = writeReport(out, report, touchstone);
     if (touchstone.length > 0) removeIfPresent(join(out, touchstone[0].name.endsWith('.s1p') ? 'spectrum.s2p' : 'spectrum.s1p'));
