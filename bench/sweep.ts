@@ -41,7 +41,7 @@ function command(points: number, threads: number): { seconds: number; cpu_second
     writeFileSync(file, JSON.stringify(panel(points)));
     const t0 = performance.now();
     const r = spawnSync('/usr/bin/time', ['-f', '%U %S', process.execPath, 'bin/slabecho.mjs', 'sweep', file, '--out', join(dir, 'out'),
-      '--angle', AXES.angle, '--polarization', AXES.polarization, '--set', AXES.set, '--methods', 'tmm', '--threads', String(threads)],
+      '--angle', AXES.angle, '--polarization', AXES.polarization, '--set', AXES.set, '--methods', 'tmm', '--threads', String(threads), '--max-output-MB', '5000'],
     { encoding: 'utf8', maxBuffer: 1 << 26 });
     const seconds = (performance.now() - t0) / 1e3;
     const [user, sys] = (r.stderr.trim().split('\n').at(-1) ?? '0 0').split(' ').map(Number);

@@ -125,7 +125,7 @@ describe('Ctrl-C', () => {
     writeFileSync(slow, JSON.stringify({ ...PANEL, band_GHz: [2, 18], points: 201 }));
     // 3 600 cases with a pulse run each: minutes of work, stopped half a second after it starts.
     const child = spawn(process.execPath, ['bin/slabecho.mjs', 'sweep', slow, '--out', out, '--angle', '0:89:0.5', '--polarization', 'TE,TM',
-      '--set', 'layers[1].thickness_mm=1:10:1', '--methods', 'tmm,fem,fdtd', '--threads', '2'], { stdio: ['ignore', 'pipe', 'pipe'] });
+      '--set', 'layers[1].thickness_mm=1:10:1', '--methods', 'tmm,fem,fdtd', '--threads', '2', '--max-output-MB', '1000'], { stdio: ['ignore', 'pipe', 'pipe'] });
     let stderr = '', sent = false;
     const code = await new Promise<number | null>((resolve) => {
       child.stderr.on('data', (d) => {

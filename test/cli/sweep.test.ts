@@ -128,4 +128,13 @@ describe('slabecho sweep', () => {
     expect((await cli('sweep', file, '--out', out, '--angle', '0,10', '--set', 'incidence.angle_deg=5')).stderr).toMatch(/given twice \(--angle sets it\)/);
     expect(() => readFileSync(join(out, 'sweep.csv'))).toThrow();
   });
+
+  it('refuses before any work a sweep whose files would pass --max-output-MB, with the size and what to change', async () => {
+    const file = write('slab3.stack.json', { ...SLAB, points: 1001 });
+    const out = join(tmp.dir, 'sweep-big');
+    const r = await cli('sweep', file, '--out', out, '--angle', '0:89:1', '--set', 'layers[0].thickness_mm=1:20:1', '--max-output-MB', '10');
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/the output would be about \d+(\.\d)? MB \(sweep\.csv [\d.]+ MB, sweep\.json [\d.]+ [kM]B\), over the limit of 10\.0 MB \(--max-output-MB 10\); .*--shard K\/N/);
+    expect(() => readFileSync(join(out, 'sweep.csv'))).toThrow();
+  });
 });

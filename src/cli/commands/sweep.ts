@@ -14,7 +14,7 @@ import { InputError, readArgs, UsageError, type Command, type Io, type ParsedArg
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { EXIT_INTERRUPTED, withSigintHeld } from '../signals.ts';
 import {
-  methodsFromArgs, shardFromArgs, sizeText, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs,
+  checkOutputEstimate, methodsFromArgs, outputCapFromArgs, shardFromArgs, sizeText, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs,
   TOUCHSTONE_ARG_OPTIONS, TOUCHSTONE_ARG_USAGE, touchstoneFromArgs,
 } from '../studies/args.ts';
 import { execute, studyThreads } from '../studies/execute.ts';
@@ -61,12 +61,19 @@ function costPerCase(plan: SweepPlan): number {
 }
 
 /**
- * Bytes of sweep.csv, estimated before any work: the case's own columns, then f_GHz and ten numbers of 12
- * significant digits (about 14 characters with sign, point and comma, measured on typical sweeps).
+ * The files' sizes, estimated before any work: sweep.csv's rows (the case's own columns, then f_GHz and ten numbers
+ * of 12 significant digits, about 14 characters each with sign, point and comma, measured on typical sweeps), a
+ * case record in sweep.json (about 230 bytes and 140 per agreement row), a Touchstone file (9 numbers a line).
  */
-function estimateCsvBytes(plan: SweepPlan, cases: number): number {
+function estimateOutput(plan: SweepPlan, cases: number): { name: string; bytes: number }[] {
+  const points = plan.base.points;
   const own = String(cases).length + 1 + 3 + 3 + plan.axes.length * 6;
-  return cases * plan.base.points * (own + 6 + 10 * 14);
+  const rows = plan.methods.length === 1 ? 0 : plan.methods.includes('fdtd') ? 3 : 1;
+  return [
+    { name: 'sweep.csv', bytes: cases * points * (own + 6 + 10 * 14) },
+    { name: 'sweep.json', bytes: 4000 + cases * (230 + 140 * rows) },
+    { name: 'touchstone/', bytes: plan.touchstone ? cases * (700 + points * 9 * 15) : 0 },
+  ];
 }
 
 const USAGE = `Usage: slabecho sweep FILE --out DIR [--angle A:B:STEP] [--polarization TE,TM] [--set PATH=VALUES]... [options]
@@ -116,23 +123,29 @@ export const sweep: Command = {
     const options = {
       fem: femOptionsFromArgs(a.values), pulse: pulseOptionsFromArgs(a.values),
       touchstone: touchstoneFromArgs(a.values), shard: shardFromArgs(a.values), threads: threadsFromArgs(a.values),
+      cap: outputCapFromArgs(a.values),
     };
     const path = a.positionals[0];
     const { file } = loadOrExplain(path, io);
     const plan: SweepPlan = { base: file, axes: axesFromArgs(a.values, file), methods, fem: options.fem, pulse: options.pulse, touchstone: options.touchstone };
-    return runSweep(plan, options.shard, options.threads, out, io, path);
+    return runSweep(plan, options, out, io, path);
   },
 };
 
-async function runSweep(plan: SweepPlan, shard: Shard | null, threads: number | undefined, out: string, io: Io, path: string): Promise<number> {
+interface RunOptions { shard: Shard | null; threads: number | undefined; cap: number }
+
+async function runSweep(plan: SweepPlan, o: RunOptions, out: string, io: Io, path: string): Promise<number> {
+  const { shard, threads } = o;
   const total = caseCount(plan.axes);
   const [from, to] = shardRange(total, shard);
-  validateCases(plan, from, to, io, path);
   const n = to - from;
+  const sizes = estimateOutput(plan, n);
+  checkOutputEstimate('sweep', sizes, o.cap);
+  validateCases(plan, from, to, io, path);
   const cost = costPerCase(plan);
   io.err(`sweep: ${total} case${total === 1 ? '' : 's'}${shard ? `, shard ${shard.index}/${shard.count}: cases ${from} to ${to - 1}` : ''}; ` +
-    `sweep.csv of about ${sizeText(estimateCsvBytes(plan, n))}; ${studyThreads(n, cost, threads)} thread(s); methods ${plan.methods.join(', ')}`);
-  const output = new OutputSet(out);
+    `sweep.csv of about ${sizeText(sizes[0].bytes)}; ${studyThreads(n, cost, threads)} thread(s); methods ${plan.methods.join(', ')}`);
+  const output = new OutputSet(out, o.cap);
   const csv = output.stream('sweep.csv');
   csv.write(`${sweepHeader(plan)}\n`);
   const records: SweepCaseRecord[] = [];

@@ -17,7 +17,7 @@ import { WarningTally } from '../../studies/warning-tally.ts';
 import type { Stack } from '../../stack/types.ts';
 import { InputError, numberOption, readArgs, UsageError, type Command, type Io } from '../command.ts';
 import { EXIT_INTERRUPTED, withSigintHeld } from '../signals.ts';
-import { shardFromArgs, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs } from '../studies/args.ts';
+import { checkOutputEstimate, outputCapFromArgs, shardFromArgs, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs } from '../studies/args.ts';
 import { execute } from '../studies/execute.ts';
 import { OutputSet } from '../studies/output.ts';
 import { loadOrExplain } from './solve.ts';
@@ -63,7 +63,7 @@ export const tolerance: Command = {
     if (specs.length === 0) throw new UsageError('--vary PATH:normal:SD (or PATH:uniform:HALF) is required at least once');
     const samples = numberOption(a.values, 'samples', `must be a whole number from 2 to ${MAX_SAMPLES}`, (x) => Number.isInteger(x) && x >= 2 && x <= MAX_SAMPLES) ?? 1000;
     const seed = numberOption(a.values, 'seed', 'must be a whole number from 0 to 4294967295', (x) => Number.isInteger(x) && x >= 0 && x <= 0xffffffff) ?? 1;
-    const shard = shardFromArgs(a.values), threads = threadsFromArgs(a.values);
+    const shard = shardFromArgs(a.values), threads = threadsFromArgs(a.values), cap = outputCapFromArgs(a.values);
     const path = a.positionals[0];
     const { file, stack } = loadOrExplain(path, io);
     const varies = specs.map((s) => {
@@ -81,7 +81,7 @@ export const tolerance: Command = {
       throw new UsageError(`--samples: ${samples} samples × ${stack.points} frequencies is more than ${MAX_SAMPLE_VALUES} values; ` +
         'use fewer samples or fewer "points" in the stack, or split the run with --shard');
     }
-    return runTolerance({ base: file, varies, samples, seed }, stack, shard, threads, out, io, path);
+    return runTolerance({ base: file, varies, samples, seed }, stack, { shard, threads, cap }, out, io, path);
   },
 };
 
@@ -100,16 +100,23 @@ function validateSamples(plan: TolerancePlan, values: Float64Array, from: number
   throw new InputError(`${bad} of ${to - from} samples ${bad === 1 ? 'is' : 'are'} invalid; nothing was computed or written`);
 }
 
-async function runTolerance(plan: TolerancePlan, nominal: Stack, shard: Shard | null, threads: number | undefined,
+async function runTolerance(plan: TolerancePlan, nominal: Stack, o: { shard: Shard | null; threads: number | undefined; cap: number },
   out: string, io: Io, path: string): Promise<number> {
+  const { shard, threads } = o;
   const values = drawSamples(plan);
   const [from, to] = shardRange(plan.samples, shard);
-  validateSamples(plan, values, from, to, io, path);
   const f_Hz = bandFrequencies(nominal);
+  // tolerance.csv: 16 numbers a frequency; a shard's samples: 7 full-precision numbers a sample and frequency.
+  checkOutputEstimate('tolerance', [
+    { name: 'tolerance.csv', bytes: shard ? 0 : f_Hz.length * 16 * 15 },
+    { name: 'tolerance.json', bytes: 20_000 + 3 * JSON.stringify(plan.base).length }, // the stack, twice more in the worst samples
+    { name: SAMPLES_FILE, bytes: shard ? (to - from) * f_Hz.length * 7 * 20 : 0 },
+  ], o.cap);
+  validateSamples(plan, values, from, to, io, path);
   io.err(`tolerance: ${plan.samples} samples of ${plan.varies.length} value${plan.varies.length === 1 ? '' : 's'}, seed ${plan.seed}` +
     `${shard ? `, shard ${shard.index}/${shard.count}: samples ${from} to ${to - 1}` : ''}; ${f_Hz.length} frequencies`);
   const head = await toleranceHead(plan, nominal);
-  const output = new OutputSet(out);
+  const output = new OutputSet(out, o.cap);
   const table = new SampleTable(f_Hz.length, to - from, from);
   const raw = shard ? output.stream(SAMPLES_FILE) : null;
   raw?.write(`${SAMPLES_HEADER}\n`);

@@ -5,16 +5,41 @@ import { STUDY_METHODS, type StudyMethod } from '../../studies/case.ts';
 import { parseShard, type Shard } from '../../studies/grid.ts';
 import type { PlaneShift } from '../../studies/sparams.ts';
 import { readDecimal } from '../../studies/values.ts';
-import { numberOption, UsageError, type Io, type ParsedArgs } from '../command.ts';
+import { InputError, numberOption, UsageError, type Io, type ParsedArgs } from '../command.ts';
 
 export const STUDY_ARG_OPTIONS = {
   shard: { type: 'string' },
   threads: { type: 'string' },
+  'max-output-MB': { type: 'string' },
 } as const;
+
+/** The files a study writes may total this many bytes unless --max-output-MB says otherwise. */
+export const DEFAULT_OUTPUT_CAP_bytes = 50e6;
 
 export const STUDY_ARG_USAGE = `  --shard K/N                run only the K-th of N equal slices of the cases (K from 0 to N - 1);
                              "slabecho merge" joins the shards' folders
-  --threads N                worker threads (default: every core; small studies run in one)`;
+  --threads N                worker threads (default: every core; small studies run in one)
+  --max-output-MB M          the files written may total at most M megabytes (10^6 bytes; default ${DEFAULT_OUTPUT_CAP_bytes / 1e6}):
+                             a study estimated above it is refused before any work`;
+
+/** --max-output-MB in bytes. */
+export function outputCapFromArgs(values: ParsedArgs['values']): number {
+  const mb = numberOption(values, 'max-output-MB', 'must be a number of megabytes > 0, e.g. 500', (x) => x > 0 && x <= 1e7);
+  return mb === undefined ? DEFAULT_OUTPUT_CAP_bytes : mb * 1e6;
+}
+
+/**
+ * Refuses a study whose files are estimated above the cap, before any work (InputError, exit 2), naming the
+ * biggest file and what to change.
+ */
+export function checkOutputEstimate(command: string, parts: { name: string; bytes: number }[], cap: number): void {
+  const total = parts.reduce((s, p) => s + p.bytes, 0);
+  if (total <= cap) return;
+  const list = parts.filter((p) => p.bytes > 0).map((p) => `${p.name} ${sizeText(p.bytes)}`).join(', ');
+  throw new InputError(`${command}: the output would be about ${sizeText(total)} (${list}), over the limit of ${sizeText(cap)} ` +
+    `(--max-output-MB ${cap / 1e6}); raise the limit, use fewer cases, samples or points, or split the study with --shard K/N ` +
+    '(each shard writes its own part); nothing was computed or written');
+}
 
 /** --methods tmm,fem,fdtd: the exact solution always, the others as listed (default tmm,fem). */
 export function methodsFromArgs(values: ParsedArgs['values']): StudyMethod[] {

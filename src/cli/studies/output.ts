@@ -20,8 +20,10 @@ interface Pending { target: string; temp: string; fd: number | null; bytes: numb
 export class OutputSet {
   private readonly pending: Pending[] = [];
   private done = false;
+  private total = 0;
 
-  constructor(readonly dir: string) { ensureDir(dir); }
+  /** `cap`: the files may total at most this many bytes (--max-output-MB); past it the set is aborted. */
+  constructor(readonly dir: string, private readonly cap = Infinity) { ensureDir(dir); }
 
   private openTemp(name: string): Pending {
     const target = join(this.dir, name);
@@ -42,9 +44,14 @@ export class OutputSet {
   private put(p: Pending, data: string | Uint8Array): void {
     try {
       const bytes = typeof data === 'string' ? Buffer.from(data, 'utf8') : data;
+      this.total += bytes.length;
+      if (this.total > this.cap) {
+        this.abort();
+        throw new InputError(`the output passed its limit of ${this.cap / 1e6} MB (--max-output-MB) while writing ${basename(p.target)}; nothing was written`);
+      }
       for (let at = 0; at < bytes.length;) at += writeSync(p.fd!, bytes, at, bytes.length - at);
       p.bytes += bytes.length;
-    } catch (e) { throw this.failure(e); }
+    } catch (e) { if (e instanceof InputError) throw e; throw this.failure(e); }
   }
 
   /** A file written piece by piece (a table as its rows come). */
