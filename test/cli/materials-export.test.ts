@@ -28,6 +28,8 @@ describe('slabecho materials --export', () => {
     const sub = await cli('materials', '--export', 'glass', '--at-GHz', '300');
     expect(JSON.parse(sub.stdout)['glass-custom']).toMatchObject({ a: 5.79, d: 1.658, valid_GHz: [220, 450] }); // P.2040-3 Table 3
     expect(sub.stderr).toMatch(/another validity range, 0\.1–100 GHz/);
+    const water = JSON.parse((await cli('materials', '--export', 'water-25c')).stdout)['water-25c-custom'];
+    expect(water.note).toMatch(/from memory/); // the catalog's caution travels with the copy
     const bad = await cli('materials', '--export', 'concret');
     expect(bad.code).toBe(2);
     expect(bad.stderr).toMatch(/"concret" is not a catalog material \(did you mean "concrete"\?\)/);

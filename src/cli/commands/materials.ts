@@ -146,7 +146,8 @@ function exportMaterial(name: string, f_GHz: number | undefined, io: Io): void {
   const own = `${name}-custom`;
   const entry: Record<string, unknown> = { ...structuredClone(m.spec) };
   if (m.valid_GHz !== null) entry.valid_GHz = [...m.valid_GHz];
-  entry.note = `copied from the catalog's ${name} (${m.source}); use "${own}" in layers, front or back`;
+  // The catalog's own note (values from memory, a conductor) travels with the copy.
+  entry.note = `copied from the catalog's ${name} (${m.source}); use "${own}" in layers, front or back${m.note ? `. Catalog note: ${m.note}` : ''}`;
   io.out(JSON.stringify({ [own]: entry }, null, 2));
   for (const r of ranges) {
     if (r !== m && r.valid_GHz) {
