@@ -5,8 +5,9 @@
 //     for the sample spacing wanted (the carrier e^{j2π f_first t} is put back for the phase);
 //   - at any one time exactly, as the sum over the bins.
 // z(t) = Σ_k S_k e^{j2π f_k t}, so the incident band pulse has z(0) = Σ W = `peak`.
+// For a raw time record (the workbench's clip timing), `envelope` gives the same by the FFT method.
 
-import { type ComplexColumns, inverseFft, nextPow2 } from '../spectra/fft.ts';
+import { type ComplexColumns, inverseFft, magnitude, nextPow2, realFft } from '../spectra/fft.ts';
 
 /** A spectrum on uniformly spaced frequencies f_k = f_first + k·df (positive frequencies only). */
 export interface UniformSpectrum {
@@ -107,3 +108,21 @@ export function envelopePeak(S: UniformSpectrum, a: number, b: number, tol_s: nu
   }
   return { t, value: envelopeAt(S, t) };
 }
+
+/**
+ * Analytic signal of a real record by FFT: negative frequencies removed, positive ones doubled, DC and
+ * Nyquist kept once; zero-padded to at least twice its length so the end does not wrap onto the start.
+ */
+export function analyticSignal(x: Float64Array): ComplexColumns {
+  const n = x.length;
+  if (n === 0) return { re: new Float64Array(0), im: new Float64Array(0) };
+  const nfft = nextPow2(2 * n), half = nfft / 2;
+  const X = realFft(x, nfft);
+  for (let k = 1; k < half; k++) { X.re[k] *= 2; X.im[k] *= 2; }
+  for (let k = half + 1; k < nfft; k++) { X.re[k] = 0; X.im[k] = 0; }
+  const z = inverseFft(X);
+  return { re: z.re.slice(0, n), im: z.im.slice(0, n) };
+}
+
+/** The envelope |x + jH{x}| of a real record. */
+export const envelope = (x: Float64Array): Float64Array => magnitude(analyticSignal(x));

@@ -6,14 +6,15 @@ import { type Complex, exp, mul, add } from '../complex.ts';
 import { analyseEchoes, type EchoAnalysis, type EchoEnvelopes } from '../echoes/table.ts';
 import { PlanError } from '../fdtd/errors.ts';
 import { createPulseRun, runToEnd } from '../fdtd/run.ts';
-import { solveEffective } from '../fdtd/stepped-exact.ts';
 import type { GridPlan, PulseOptions, PulseRun } from '../fdtd/types.ts';
 import type { Profile, Spectrum } from '../results.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
 import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
-import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
+import { roundedRow } from './format-agreement.ts';
+import { fdtdAgreementRows } from './fdtd-agreement.ts';
+import { QUANTITY_NAMES } from '../studies/quantities.ts';
 import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns } from './echo-table.ts';
 import { fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
@@ -52,6 +53,7 @@ const r6 = (x: number): number => Number(x.toPrecision(6));
 export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
   const progress = options.onProgress ?? (() => {});
   const base = solveReport(stack, { ...options, onProgress: (f) => progress(0.1 * f) });
+  const stepped = (options.media ?? 'tables') === 'stepped';
   const warnings = [...base.warnings];
   const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
   const summary: Record<string, unknown> = { ...base.summary };
@@ -86,7 +88,11 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const fdtd = spectrumFromRecords(rec, f_Hz);
   for (const w of fdtd.warnings) warn(w);
   const spectrum_ms = now() - t1;
-  const spectrum = [...base.spectrum, ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im)];
+  // The pulse columns go after the other methods' and before the engineering quantities, which stay last.
+  const isQuantity = (c: Column) => (QUANTITY_NAMES as readonly string[]).includes(c.name);
+  const spectrum = [...base.spectrum.filter((c) => !isQuantity(c)),
+    ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im),
+    ...base.spectrum.filter(isQuantity)];
 
   // Profile: the FDTD phasor interpolated onto the report's x grid.
   let profile = base.profile;
@@ -109,21 +115,9 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     { name: 'E_transmitted', data: rec.transmitted.slice() },
   ];
 
-  // Agreement rows: fdtd against the exact solution, and against the FEM when its columns are there.
-  const agreement: AgreementRow[] = [];
-  const tmm = spectrumFromColumns(spectrum, 'tmm', f_Hz);
-  const target = run.plan.accuracyTarget;
-  if (tmm) agreement.push(agreementRow('fdtd-tmm', fdtd, tmm, target));
-  const fem = spectrumFromColumns(spectrum, 'fem', f_Hz);
-  if (fem) agreement.push(agreementRow('fdtd-fem', fdtd, fem, target));
-  // When the engine steps other media than the stack names (power laws fitted, metal as a wall or a
-  // sheet), split the figure: the engine against the exact solution of what it stepped (its own
-  // numerical error), and that exact solution against the original (the material model's share).
-  if (tmm && run.plan.effective.substitutions > 0) {
-    const stepped = solveEffective(run.plan.effective, f_Hz);
-    agreement.push(agreementRow('fdtd-tmm as stepped', fdtd, stepped, target));
-    agreement.push(agreementRow('stepped media-tmm', stepped, tmm));
-  }
+  // Agreement rows: fdtd against the exact solution, against the FEM when its columns are there and, when the
+  // engine stepped other media than the tables (and the tmm columns are the tables'), the stepped-media split.
+  const agreement = fdtdAgreementRows(run, fdtd, spectrumFromColumns(spectrum, 'tmm', f_Hz), spectrumFromColumns(spectrum, 'fem', f_Hz), !stepped);
   const allAgreement = [...base.agreement, ...agreement];
   summary.agreement = allAgreement.map(roundedRow);
 
@@ -135,9 +129,10 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     steps: run.stepIndex,
     simulated_ns: r6(run.time_s * 1e9),
     end: run.doneReason,
+    end_rule: endRule(run),
     residual_energy_dB: Number.isFinite(energy.level_dB) ? r3(energy.level_dB) : null,
     decay_target_dB: -run.plan.decay_dB,
-    truncated: run.doneReason !== 'decayed',
+    truncated: run.doneReason !== 'converged',
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
   };
   summary.power_law_fits = run.plan.fits.map((f) => ({
@@ -146,6 +141,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     max_rel_error_eps_re: r3(f.maxRelErr_re),
     max_rel_error_eps_im: r3(f.maxRelErr_im),
     max_rel_error_eps: r3(f.maxRelErr_abs),
+    min_eps_re_half_to_twice_band: r3(f.minEpsRe_wide),
+    fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
     model: fittedModel(f.model),
   }));
   summary.pulse = {
@@ -206,6 +203,15 @@ function spectrumFromColumns(cols: readonly Column[], tag: string, f_Hz: Float64
   return { f_Hz, R_re, R_im, T_re, T_im };
 }
 
+/** Which rule ended the run, in words. */
+function endRule(run: PulseRun): string {
+  switch (run.doneReason) {
+    case 'converged': return `converged: R and T settled at every check frequency across the band (its bottom included) and the stored energy, pole states included, fell ${run.plan.decay_dB} dB below its peak`;
+    case 'step-limit': return `step limit: ${run.plan.stepsLimit} steps reached before the run converged (see the warnings)`;
+    default: return 'stopped before the run converged';
+  }
+}
+
 function gridSummary(p: GridPlan): Record<string, unknown> {
   return {
     cell_mm: r6(p.dx_m * 1e3),
@@ -215,6 +221,7 @@ function gridSummary(p: GridPlan): Record<string, unknown> {
     cells_per_wavelength: r3(p.cellsPerWavelength),
     pml_cells: p.pmlCells,
     predicted_error: r3(p.predictedError),
+    slowest_relaxation_ns: Number.isFinite(p.slowestRelaxation_s) ? r3(p.slowestRelaxation_s * 1e9) : null,
     accuracy_target: p.accuracyTarget,
     steps_limit: p.stepsLimit,
     memory_MB: r3(p.memory_bytes / 1e6),

@@ -18,7 +18,11 @@ import { assertFiniteValues, assertTable, complexColumns, scaledColumn, type Col
 import type { FemOptions } from '../fem/types.ts';
 import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
 import { profileColumns, profileHasH } from './profile-columns.ts';
-import { roundedRow, type AgreementRow } from './format-agreement.ts';
+import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
+import { steppedStack } from '../fdtd/stepped-stack.ts';
+import { PlanError } from '../fdtd/errors.ts';
+import { quantitiesOf, quantitiesUnavailable, frontIsLossless } from '../studies/quantities.ts';
+import { quantitiesInBrief, quantityColumns } from '../studies/extremes.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -40,7 +44,19 @@ export interface SolveOptions {
   inputWarnings?: readonly string[];
   /** FEM order / density / tolerance (defaults: chosen from its a-priori error estimate). */
   fem?: FemOptions;
+  /**
+   * 'tables' (default): every method solves the media as the stack names them. 'stepped': the exact solver and
+   * the FEM solve the media the pulse engine steps (fitted causal models for power laws, conductors as walls
+   * or sheets), so every agreement row is at the methods' own precision; the row "stepped media-tmm" then
+   * keeps the model's share against the tables.
+   */
+  media?: Media;
 }
+
+export type Media = 'tables' | 'stepped';
+
+/** The note a report carries when its methods solve the stepped media. */
+export const STEPPED_MEDIA_NOTE = 'media: the exact solver and the FEM solve the media as the pulse engine steps them (fitted causal models in place of power laws, conductors as walls or sheets); the row "stepped media-tmm" compares those with the tables';
 
 export interface MethodRun { name: string; description: string; time_ms: number }
 
@@ -58,6 +74,16 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
 
   // Exact transfer-matrix spectrum, in chunks so progress means something on long sweeps.
   const f_Hz = bandFrequencies(stack);
+  let media = options.media ?? 'tables';
+  const tables = stack;
+  if (media === 'stepped') {
+    try { stack = steppedStack(stack); warn(STEPPED_MEDIA_NOTE); } catch (e) {
+      // A stack the pulse engine does not step (e.g. a magnetic material) has no stepped media: solve the tables.
+      if (!(e instanceof PlanError && e.code === 'unsupported')) throw e;
+      warn(`media: the pulse engine does not step this stack (${e.message}), so the methods solve the media as the stack names them`);
+      media = 'tables';
+    }
+  }
   let t0 = now();
   const tmm = solveInChunks(stack, f_Hz, (done) => progress(0.9 * done));
   const spectrum: Column[] = [
@@ -72,6 +98,13 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   const fem = femSpectrumPart(stack, tmm, femOptions, warn);
   const agreement: AgreementRow[] = [];
   if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
+  if (media === 'stepped' && stack !== tables) agreement.push(agreementRow('stepped media-tmm', tmm, solveTmm(tables, f_Hz)));
+  // Engineering quantities of the exact solution (of the media it solved), after every method's columns
+  // (runReport keeps them last).
+  const unavailable = quantitiesUnavailable(stack);
+  const quantities = unavailable === null ? quantitiesOf(stack, tmm) : null;
+  if (quantities) spectrum.push(...quantityColumns(quantities));
+  else warn(`${unavailable}; spectrum.csv leaves them out`);
   progress(0.95);
 
   // Standing-wave profile: tangential E along the normal line (and in TM the tangential H), at any incidence.
@@ -96,23 +129,25 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   assertTable(spectrum);
   assertTable(profile);
 
+  const described = tables; // the summary describes the stack as written
   const summary: Record<string, unknown> = {
     slabecho_version: SLABECHO_VERSION,
     title: stack.title,
+    media,
     band_GHz: [ghzFromHz(stack.band_Hz[0]), ghzFromHz(stack.band_Hz[1])],
     points: stack.points,
     incidence: { angle_deg, polarization: stack.incidence.polarization },
     profile_GHz: ghzFromHz(stack.profile_Hz),
-    front: materialSummary(stack.front, stack),
-    layers: stack.layers.map((l, index) => ({
+    front: materialSummary(described.front, described),
+    layers: described.layers.map((l, index) => ({
       index,
-      ...materialSummary(l.material, stack),
+      ...materialSummary(l.material, described),
       thickness_mm: l.kind === 'bulk' ? mmFromM(l.thickness_m) : 0,
     })),
-    back: stack.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(stack.back, stack),
-    total_thickness_mm: mmFromM(stackThickness_m(stack)),
+    back: described.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(described.back, described),
+    total_thickness_mm: mmFromM(stackThickness_m(described)),
     methods,
-    results: resultsInBrief(stack, tmm),
+    results: { ...resultsInBrief(stack, tmm), ...(quantities ? quantitiesInBrief(tmm.f_Hz, quantities) : {}) },
     ...(fem ? { fem: fem.mesh } : {}),
     agreement: agreement.map(roundedRow),
     warnings,
@@ -166,9 +201,7 @@ function resultsInBrief(stack: Stack, sp: Spectrum): Record<string, unknown> {
     T_dB_min: stack.back === 'pec' ? null : round3(tMin), T_dB_max: stack.back === 'pec' ? null : round3(tMax),
   };
   // Incident and reflected powers separate only in a lossless front medium.
-  const frontLossless = [stack.band_Hz[0], stack.band_Hz[1]].every((f) =>
-    permittivity(stack.front.spec, f).im === 0 && permeability(stack.front.spec, f).im === 0);
-  if (frontLossless) {
+  if (frontIsLossless(stack)) {
     const A = absorption(stack, sp);
     let iMax = 0, aMin = Infinity;
     for (let i = 0; i < n; i++) { if (A[i] > A[iMax]) iMax = i; aMin = Math.min(aMin, A[i]); }

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { bandPulse, bandWindow, envelopeShape } from '../../src/echoes/band-pulse.ts';
 import { bandBins, bandRecords } from '../../src/echoes/band-response.ts';
-import { analyticAt, analyticSamples, envelopeAt, envelopePeak, sampleTime } from '../../src/echoes/envelope.ts';
+import { analyticAt, analyticSamples, envelope, envelopeAt, envelopePeak, sampleTime } from '../../src/echoes/envelope.ts';
 
 const band: [number, number] = [1e9, 6e9];
 const B = band[1] - band[0], f0 = 3.5e9;
@@ -69,5 +69,19 @@ describe('analytic signal of a band response', () => {
     const p = envelopePeak(S, tau - W / 4, tau + W / 3, 1e-7 * W);
     expect(Math.abs(p.t - tau)).toBeLessThan(1e-16);
     expect(p.value / S.peak).toBeCloseTo(Math.abs(a), 9);
+  });
+});
+
+describe('envelope of a raw record', () => {
+  it('of a modulated Gaussian is its Gaussian envelope', () => {
+    // Bedrosian's product theorem (Proc. IEEE 51, 1963): H{g(t) cos(ω t + φ)} = g(t) sin(ω t + φ) when
+    // g's spectrum lies below ω; a Gaussian's spectrum leaks only ~exp(−2π²s²f_c²) ≈ 1e-19 past f_c here.
+    const dt = 1e-12, n = 6000, s = 300e-12, t0 = 3e-9, fc = 5e9;
+    const g = (t: number) => Math.exp(-((t - t0) ** 2) / (2 * s * s));
+    const x = Float64Array.from({ length: n }, (_, i) => g(i * dt) * Math.cos(2 * Math.PI * fc * i * dt + 0.7));
+    const env = envelope(x);
+    let worst = 0;
+    for (let i = 0; i < n; i++) worst = Math.max(worst, Math.abs(env[i] - g(i * dt)));
+    expect(worst).toBeLessThan(1e-9);
   });
 });

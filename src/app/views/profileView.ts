@@ -54,10 +54,12 @@ export class ProfileView {
       title: 'Standing wave',
       subtitle: `${f_GHz} GHz${oblique ? ` · ${incidence.polarization} at ${incidence.angle_deg}°` : ''}${note ? ` · ${note}` : ''}`,
       xLabel: oblique ? 'depth x (mm) along one normal line, front face at 0' : 'position x (mm), front face at 0',
+      xName: 'x',
+      xUnit: 'mm',
       xRange: Number.isFinite(xMin) && xMax > xMin ? [xMin, xMax] : undefined,
       panels: [
         { yLabel: oblique ? '|E tangential| / E₀' : '|E| / E₀', series: absE, bands, markers },
-        { yLabel: oblique ? 'phase of E tangential (°)' : 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8 },
+        { yLabel: oblique ? 'phase of E tangential (°)' : 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8, unit: '°', decimals: 2 },
       ],
       empty,
     });

@@ -13,10 +13,10 @@ import { formatCsv } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
-import { loadOrExplain, writeReport } from './solve.ts';
+import { loadOrExplain, MEDIA_ARG_OPTIONS, MEDIA_ARG_USAGE, mediaFromArgs, writeReport } from './solve.ts';
+import { EXIT_INTERRUPTED, withSigintHeld } from '../signals.ts';
 
-/** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
-export const EXIT_INTERRUPTED = 130;
+export { EXIT_INTERRUPTED };
 
 /** Pulse options from the command line; UsageError (exit 2) naming the option. */
 export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions {
@@ -37,17 +37,6 @@ export function writeRunReport(dir: string, report: RunReport): string[] {
     { name: 'echoes_T.csv', text: formatEchoesCsv(report.echoesT) },
     { name: 'trace.csv', text: formatCsv(report.trace) }, // header only when the pulse engine was skipped
   ]);
-}
-
-/**
- * Run `write` (synchronous) with a SIGINT listener in place, so a Ctrl-C arriving while the files are
- * renamed into place cannot end the process between two renames: the run is complete by then, and every
- * file of it is written.
- */
-function withSigintHeld<T>(write: () => T): T {
-  const hold = () => {};
-  process.on('SIGINT', hold);
-  try { return write(); } finally { process.removeListener('SIGINT', hold); }
 }
 
 /** Progress lines on stderr, the first after one second, then at most one a second. */
@@ -84,10 +73,12 @@ files and trace.csv with only their headers.
 
 Options:
   --out DIR                   output directory (required)
-  --accuracy X                target for max |R_fdtd - R_tmm| and |T_fdtd - T_tmm| (default 0.01)
+  --accuracy X                target for the engine's error, max |R_fdtd - R| and |T_fdtd - T| against the exact
+                              solution of the media it steps (default 0.01, honoured down to 0.0001)
   --cells-per-wavelength N    fix the grid density at the band top in the slowest medium (overrides --accuracy)
   --courant S                 Courant number c dt / dx (default 1 in an air front medium)
 ${FEM_ARG_USAGE}
+${MEDIA_ARG_USAGE}
   -h, --help                  show this help
 
 Ctrl-C stops the run cleanly: nothing is written (DIR keeps its previous files), exit 130.
@@ -99,12 +90,14 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       'cells-per-wavelength': { type: 'string' },
       courant: { type: 'string' },
       ...FEM_ARG_OPTIONS,
+      ...MEDIA_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho run --help)');
     const pulse = pulseOptionsFromArgs(a.values);
     const fem = femOptionsFromArgs(a.values);
+    const media = mediaFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
 
@@ -113,12 +106,10 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     process.once('SIGINT', onSigint);
     let report: RunReport;
     try {
-      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, onProgress: progressPrinter(io), shouldStop: () => interrupted });
+      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, onProgress: progressPrinter(io), shouldStop: () => interrupted });
     } catch (e) {
-      if (e instanceof PlanError) {
-        const figures = Object.entries(e.figures).map(([k, v]) => `${k} ${Number(v.toPrecision(4))}`).join(', ');
-        throw new CliError(`${e.message}${figures ? ` [${figures}]` : ''}; nothing was written`, 2);
-      }
+      // The message says what is too big, by how much and what to change; the figures stay in the error.
+      if (e instanceof PlanError) throw new CliError(`${e.message}; nothing was written`, 2);
       if (e instanceof FdtdInstabilityError) throw new CliError(`${e.message}; nothing was written`, 1);
       throw e;
     } finally {
@@ -136,7 +127,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       const g = report.summary.grid as { cell_mm: number; time_step_ps: number; cells: number };
       const r = report.summary.run as { steps: number; end: string; residual_energy_dB: number | null };
       io.out(`FDTD: ${g.cells} cells of ${g.cell_mm} mm, ${r.steps} steps of ${g.time_step_ps} ps, ended ${r.end}` +
-        (r.residual_energy_dB !== null ? ` at ${r.residual_energy_dB} dB` : ''));
+        (r.residual_energy_dB !== null ? ` (stored energy ${r.residual_energy_dB} dB)` : ''));
       const ec = report.summary.echoes as { floor_dB: number; pulse_width_ns: number };
       const how = `floor ${ec.floor_dB} dB, pulse width ${ec.pulse_width_ns} ns`;
       for (const line of formatEchoText(`reflected echoes (${how})`, report.echoes)) io.out(line);
