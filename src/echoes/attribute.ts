@@ -56,7 +56,7 @@ const TOGETHER = 0.35;
 function reach(host: number, level: number, o: AttributeOptions): number {
   let lo = o.width_s, hi = 8 * o.width_s;
   if (leakBeyond(lo, o.bandWidth_Hz) * host < 0.5 * level) return lo;
-  for (let i = 0; i < 24; i++) { // to 4e-7 of a width
+  for (let i = 0; i < 16; i++) { // to 1e-4 of a width
     const mid = (lo + hi) / 2;
     if (leakBeyond(mid, o.bandWidth_Hz) * host >= 0.5 * level) lo = mid; else hi = mid;
   }

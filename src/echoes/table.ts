@@ -90,11 +90,11 @@ function emptyAnalysis(stack: Stack, pulse: BandPulse, floor_dB: number): EchoAn
 }
 
 /** The incident pulse's arrival: the peak of its own band-limited envelope (W·incident spectrum). */
-function arrival(incident: BandSpectrum, a: AnalyticSamples, width_s: number): number {
-  let m0 = 0;
-  for (let m = 1; m < a.mag.length; m++) if (a.mag[m] > a.mag[m0]) m0 = m;
-  const t = m0 * a.step_s;
-  return envelopePeak(incident, t - a.step_s, t + a.step_s, 1e-7 * width_s).t;
+function arrival(incident: BandSpectrum, record: Float64Array, dt_s: number, width_s: number): number {
+  // the record's largest sample lies within half a carrier period of it; its envelope is one lobe there
+  let k0 = 0;
+  for (let k = 1; k < record.length; k++) if (Math.abs(record[k]) > Math.abs(record[k0])) k0 = k;
+  return envelopePeak(incident, k0 * dt_s - width_s / 2, k0 * dt_s + width_s / 2, 1e-7 * width_s).t;
 }
 
 type Namer = (stack: Stack, crossings: ArrayLike<number>, compact?: boolean) => string;
@@ -156,7 +156,7 @@ export function analyseEchoes(stack: Stack, records: PulseRecords, options: Echo
   if (records.count < 8 || !(records.dt_s > 0) || !incident.some((v) => v !== 0)) return emptyAnalysis(stack, pulse, floor_dB);
   const end_s = records.count * records.dt_s;
   const b = bandRecords(incident, withT ? [reflected, trans] : [reflected], records.dt_s, stack.band_Hz);
-  const t_inc = arrival(b.incident, analyticSamples(b.incident, pulse.width_s), pulse.width_s);
+  const t_inc = arrival(b.incident, incident, records.dt_s, pulse.width_s);
   const latest = end_s - t_inc;
   const F = options.latticeFrequencies ?? 16;
   const lattice = latticePaths(stack, latticeFrequencies(stack.band_Hz, F), pulse.f0_Hz, {
