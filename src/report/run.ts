@@ -24,6 +24,8 @@ export interface RunOptions extends SolveOptions {
   pulse?: PulseOptions;
   /** Polled between chunks of steps; true stops the run (the report is then marked stopped). */
   shouldStop?: () => boolean;
+  /** Echo floor, dB relative to the incident pulse's envelope peak (default −40). */
+  echoFloor_dB?: number;
 }
 
 export interface RunReport extends Report {
@@ -105,7 +107,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
 
   // Echoes.
   t1 = now();
-  const echoes: EchoAnalysis = analyseEchoes(stack, rec);
+  const echoes: EchoAnalysis = analyseEchoes(stack, rec, { floor_dB: options.echoFloor_dB });
   const echoes_ms = now() - t1;
 
   const trace: Column[] = [

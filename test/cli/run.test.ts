@@ -59,6 +59,20 @@ describe('slabecho run', () => {
     expect(r.stderr).toMatch(/warning: FDTD skipped: .*TE only/);
   });
 
+  it('--echo-floor lists echoes further down; a bad value is refused with the option named', async () => {
+    // the slab's third reflected echo, two round trips inside (8/243 of the incident, −29.7 dB: the
+    // multiple-reflection series, physics reference), and its fourth, −48.8 dB, below the default floor
+    const deep = join(tmp.dir, 'deep');
+    const r = await cli('run', slab, '--out', deep, '--echo-floor', '60');
+    expect(r.code, r.stderr).toBe(0);
+    const rows = readFileSync(join(deep, 'echoes.csv'), 'utf8').trimEnd().split('\n').slice(1);
+    expect(rows.some((l) => /,"back face, 3 round trips in layer 1 \(dielectric\)",,yes$/.test(l))).toBe(true);
+    expect(JSON.parse(readFileSync(join(deep, 'summary.json'), 'utf8')).echoes.floor_dB).toBe(-60);
+    const bad = await cli('run', slab, '--out', join(tmp.dir, 'never'), '--echo-floor', '0');
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/--echo-floor: must be a number of dB below/);
+  });
+
   it('bad pulse options and a grid too large: exit 2, nothing written', async () => {
     const out = join(tmp.dir, 'refused');
     const a = await cli('run', slab, '--out', out, '--courant', '1.5');

@@ -77,6 +77,7 @@ Options:
                               solution of the media it steps (default 0.01, honoured down to 0.0001)
   --cells-per-wavelength N    fix the grid density at the band top in the slowest medium (overrides --accuracy)
   --courant S                 Courant number c dt / dx (default 1 in an air front medium)
+  --echo-floor DB             list echoes down to DB below the incident pulse's envelope peak (default 40, at most 100)
 ${FEM_ARG_USAGE}
 ${MEDIA_ARG_USAGE}
   -h, --help                  show this help
@@ -89,6 +90,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       accuracy: { type: 'string' },
       'cells-per-wavelength': { type: 'string' },
       courant: { type: 'string' },
+      'echo-floor': { type: 'string' },
       ...FEM_ARG_OPTIONS,
       ...MEDIA_ARG_OPTIONS,
     }, [1, 1]);
@@ -98,6 +100,8 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     const pulse = pulseOptionsFromArgs(a.values);
     const fem = femOptionsFromArgs(a.values);
     const media = mediaFromArgs(a.values);
+    const below = numberOption(a.values, 'echo-floor', 'must be a number of dB below the incident pulse, above 0 and at most 100, e.g. 50', (x) => x > 0 && x <= 100);
+    const echoFloor_dB = below === undefined ? undefined : -below;
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
 
@@ -106,7 +110,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     process.once('SIGINT', onSigint);
     let report: RunReport;
     try {
-      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, onProgress: progressPrinter(io), shouldStop: () => interrupted });
+      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, echoFloor_dB, onProgress: progressPrinter(io), shouldStop: () => interrupted });
     } catch (e) {
       // The message says what is too big, by how much and what to change; the figures stay in the error.
       if (e instanceof PlanError) throw new CliError(`${e.message}; nothing was written`, 2);
