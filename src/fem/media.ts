@@ -4,7 +4,7 @@
 // with k_z² = k0² ε_r − k_t², k_t = k0 √ε_front sin θ the wavenumber along the stack faces.
 // Both read  (a u')' + a k_z² u = 0, so one element matrix a (S/h − k_z² h M) serves both.
 
-import type { Complex } from '../complex.ts';
+import { type Complex, decayingSqrtInto } from '../complex.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import type { BulkModel } from '../materials/types.ts';
 import type { Polarization } from '../stack/types.ts';
@@ -24,14 +24,7 @@ export const normalWavenumber = (eps: Complex, k0: number, kt2: Complex): Comple
 
 /** normalWavenumber written into `out` (no allocation; for the per-frequency loop). */
 export function setNormalWavenumber(out: Complex, epsRe: number, epsIm: number, k0: number, kt2Re: number, kt2Im: number): Complex {
-  const re = k0 * k0 * epsRe - kt2Re, im = k0 * k0 * epsIm - kt2Im;
-  const m = Math.hypot(re, im);
-  let sr = Math.sqrt((m + re) / 2), si = Math.sqrt(Math.max(0, (m - re) / 2));
-  if (im < 0) si = -si;
-  // The principal root has Re ≥ 0; flip to the decaying branch when Im > 0 (evanescent, lossless).
-  if (si > 0) { sr = -sr; si = -si; }
-  out.re = sr; out.im = si;
-  return out;
+  return decayingSqrtInto(out, k0 * k0 * epsRe - kt2Re, k0 * k0 * epsIm - kt2Im);
 }
 
 /** The weight a of the weak form: 1 for TE, 1/ε_r for TM. */

@@ -6,7 +6,7 @@
 // k_x = k0 √(ε_r − ε_front sin²θ), branch chosen with Im k_x ≤ 0 so e^{−j k_x x} decays forward.
 // Admittance Y = H_t / E_t of a forward wave: TE  Y = k_x / (ω μ0);  TM  Y = ω ε0 ε_r / k_x.
 
-import { type Complex, div, scale, sqrt, sub } from '../complex.ts';
+import { type Complex, decayingSqrtInto, div, scale } from '../complex.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import type { BulkMaterial, Stack } from '../stack/types.ts';
 import { C0_m_per_s, EPS0_F_per_m, MU0_H_per_m } from '../units.ts';
@@ -41,8 +41,7 @@ export interface StackAtFrequency {
 export function regionOf(eps: Complex, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region {
   const w = 2 * Math.PI * f_Hz;
   const k0 = w / C0_m_per_s;
-  let q = sqrt(sub(eps, kt2_over_k02)); // k_x / k0
-  if (q.im > 0 || (q.im === 0 && q.re < 0)) q = scale(q, -1);
+  const q = decayingSqrtInto({ re: 0, im: 0 }, eps.re - kt2_over_k02.re, eps.im - kt2_over_k02.im); // k_x / k0
   const kx = scale(q, k0);
   const Y = pol === 'TE'
     ? scale(kx, 1 / (w * MU0_H_per_m))

@@ -1,7 +1,7 @@
 // The exact standing-wave profile E(x) at one frequency (normal incidence), and the positions
 // at which every method samples it.
 
-import { add, mul } from '../complex.ts';
+import { add, mul, sqrt } from '../complex.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import type { Profile } from '../results.ts';
 import type { Stack } from '../stack/types.ts';
@@ -55,7 +55,7 @@ export function profilePositions(
   const lambda0 = C0_m_per_s / f_Hz;
   const lambdaIn = (spec: Parameters<typeof permittivity>[0]) => {
     const e = permittivity(spec, f_Hz);
-    const n = Math.sqrt((Math.hypot(e.re, e.im) + e.re) / 2); // Re √ε
+    const n = sqrt(e).re; // Re √ε
     return lambda0 / Math.max(n, 1e-6);
   };
   const xs: number[] = [];
