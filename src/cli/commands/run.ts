@@ -6,14 +6,15 @@
 
 import { FdtdInstabilityError, PlanError } from '../../fdtd/errors.ts';
 import type { PulseOptions } from '../../fdtd/types.ts';
-import { formatEchoesCsv } from '../../report/echo-table.ts';
+import { echoCsvChunks } from '../../report/echo-table.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
 import { runReport, type RunReport } from '../../report/run.ts';
-import { formatCsv } from '../../report/table.ts';
+import { csvChunks } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { loadOrExplain, writeReport } from './solve.ts';
+import type { WriteOptions } from '../io.ts';
 
 /** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
 export const EXIT_INTERRUPTED = 130;
@@ -30,23 +31,12 @@ export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions
   return out;
 }
 
-/** Write every file of a run report into `dir` at once (atomically); returns the paths. */
-export function writeRunReport(dir: string, report: RunReport): string[] {
+/** Write every file of a run report into `dir` at once (atomically, streamed); returns the paths. */
+export function writeRunReport(dir: string, report: RunReport, options: WriteOptions = {}): string[] {
   return writeReport(dir, report, [
-    { name: 'echoes.csv', text: formatEchoesCsv(report.echoes) },
-    { name: 'trace.csv', text: formatCsv(report.trace) }, // header only when the pulse engine was skipped
-  ]);
-}
-
-/**
- * Run `write` (synchronous) with a SIGINT listener in place, so a Ctrl-C arriving while the files are
- * renamed into place cannot end the process between two renames: the run is complete by then, and every
- * file of it is written.
- */
-function withSigintHeld<T>(write: () => T): T {
-  const hold = () => {};
-  process.on('SIGINT', hold);
-  try { return write(); } finally { process.removeListener('SIGINT', hold); }
+    { name: 'echoes.csv', chunks: echoCsvChunks(report.echoes) },
+    { name: 'trace.csv', chunks: csvChunks(report.trace) }, // header only when the pulse engine was skipped
+  ], options);
 }
 
 /** Progress lines on stderr, the first after one second, then at most one a second. */
@@ -126,7 +116,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       return EXIT_INTERRUPTED;
     }
     for (const w of report.warnings) io.err(`warning: ${w}`);
-    const written = withSigintHeld(() => writeRunReport(out, report));
+    const written = writeRunReport(out, report);
     io.out(`${stack.title}: ${stack.layers.length} layer${stack.layers.length === 1 ? '' : 's'}, ` +
       `${fmtGHz(stack.band_Hz[0] / 1e9)}–${fmtGHz(stack.band_Hz[1] / 1e9)} GHz, ${stack.points} points`);
     if (!report.skipped) {

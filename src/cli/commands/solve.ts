@@ -2,12 +2,12 @@
 
 import { join } from 'node:path';
 import { solveReport, type Report } from '../../report/solve.ts';
-import { formatCsv } from '../../report/table.ts';
+import { csvChunks } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import type { Stack } from '../../stack/types.ts';
 import type { Command, Io } from '../command.ts';
 import { InputError, readArgs, UsageError } from '../command.ts';
-import { ensureDir, loadStackFile, removeIfPresent, writeFilesAtomic } from '../io.ts';
+import { ensureDir, loadStackFile, removeIfPresent, textFile, writeFilesAtomic, type OutputFile, type WriteOptions } from '../io.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
 
@@ -21,19 +21,16 @@ export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: s
   return { stack: r.stack, warnings: r.warnings };
 }
 
-/** A file of a report: its name in the output directory and its text. */
-export interface ReportFile { name: string; text: string }
-
 /**
- * Write a report's files into `dir` (created if needed) all at once, atomically: spectrum.csv, profile.csv
- * (when there is a profile), then `extra`, then summary.json. Returns the paths written.
+ * Write a report's files into `dir` (created if needed) all at once, atomically and streamed row by row:
+ * spectrum.csv, profile.csv (when there is a profile), then `extra`, then summary.json. Returns the paths written.
  */
-export function writeReport(dir: string, report: Report, extra: readonly ReportFile[] = []): string[] {
+export function writeReport(dir: string, report: Report, extra: readonly OutputFile[] = [], options: WriteOptions = {}): string[] {
   ensureDir(dir);
-  const files: ReportFile[] = [{ name: 'spectrum.csv', text: formatCsv(report.spectrum) }];
-  if (report.profile.length > 0) files.push({ name: 'profile.csv', text: formatCsv(report.profile) });
-  files.push(...extra, { name: 'summary.json', text: `${JSON.stringify(report.summary, null, 2)}\n` });
-  const written = writeFilesAtomic(dir, files);
+  const files: OutputFile[] = [{ name: 'spectrum.csv', chunks: csvChunks(report.spectrum) }];
+  if (report.profile.length > 0) files.push({ name: 'profile.csv', chunks: csvChunks(report.profile) });
+  files.push(...extra, textFile('summary.json', `${JSON.stringify(report.summary, null, 2)}\n`));
+  const written = writeFilesAtomic(dir, files, options);
   // A profile.csv left by an earlier normal-incidence run would not belong to these results.
   if (report.profile.length === 0) removeIfPresent(join(dir, 'profile.csv'));
   return written;
