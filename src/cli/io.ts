@@ -153,7 +153,7 @@ function writeTemp(target: string, file: OutputFile, budget: { left: number; nam
       const text = batch.join('');
       batch = []; pending = 0;
       const n = Buffer.byteLength(text);
-      if (n > budget.left) throw new OutputLimitError(`the output would exceed the limit of ${budget.name} while writing ${basename(target)}; nothing was written`);
+      if (n > budget.left) throw new OutputLimitError(`the output would pass its limit (${budget.name}) while writing ${basename(target)}; nothing was written`);
       budget.left -= n;
       bytes += n;
       let buf = Buffer.from(text);

@@ -17,6 +17,8 @@ import { assertFiniteValues, assertTable, complexColumns, scaledColumn, type Col
 import type { FemOptions } from '../fem/types.ts';
 import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
 import { roundedRow, type AgreementRow } from './format-agreement.ts';
+import type { WorkBudget } from './budget.ts';
+import { estimateSolve, WorkRefused, type JobEstimate } from './estimate.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -37,19 +39,30 @@ export interface SolveOptions {
   inputWarnings?: readonly string[];
   /** FEM order / density / tolerance (defaults: chosen from its a-priori error estimate). */
   fem?: FemOptions;
+  /** Output, time and memory limits (default DEFAULT_BUDGET); ignored when `job` is given. */
+  budget?: WorkBudget;
+  /** The job's estimate (estimate.ts), when the caller has made it; otherwise solveReport makes its own. */
+  job?: JobEstimate;
 }
 
 export interface MethodRun { name: string; description: string; time_ms: number }
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
-/** Solve `stack` with the exact method (and, as they land, the others) and assemble the report. */
+/**
+ * Solve `stack` with the exact method (and, as they land, the others) and assemble the report. Follows the job's
+ * estimate: throws WorkRefused (before any heavy work) when it refuses the job, skips the FEM when it says so,
+ * and samples the profile as densely as the output limit allows.
+ */
 export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   const progress = options.onProgress ?? (() => {});
+  const job = options.job ?? estimateSolve(stack, { fem: options.fem, budget: options.budget });
+  if (job.refusal !== undefined) throw new WorkRefused(job.refusal);
   const warnings: string[] = [];
   const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
   for (const w of options.inputWarnings ?? []) warn(w);
   for (const w of stackWarnings(stack)) warn(w);
+  for (const w of job.outputs.notes) warn(w);
   const methods: MethodRun[] = [];
   progress(0);
 
@@ -66,7 +79,8 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
 
   // FEM cross-check on the same frequencies, with its agreement against the exact solution.
   const femOptions = options.fem ?? {};
-  const fem = femSpectrumPart(stack, tmm, femOptions, warn);
+  if (job.femSkip !== undefined) warn(job.femSkip);
+  const fem = job.femSkip === undefined ? femSpectrumPart(stack, tmm, femOptions, warn) : null;
   const agreement: AgreementRow[] = [];
   if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
   progress(0.95);
@@ -75,11 +89,12 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   let profile: Column[] = [];
   let prof: Profile | undefined;
   const angle_deg = roundDeg(degFromRad(stack.incidence.angle_rad));
-  if (stack.incidence.angle_rad === 0) {
+  const level = job.outputs.profile?.level;
+  if (stack.incidence.angle_rad === 0 && level !== undefined) {
     t0 = now();
-    // The exact solver's grid, refined to ≥ 10 samples in every FEM element.
-    const x_m = fem ? profileGridWithFem(stack, stack.profile_Hz, profilePositions(stack, stack.profile_Hz), femOptions)
-      : profilePositions(stack, stack.profile_Hz);
+    // The exact solver's grid, refined to ≥ 10 samples in every FEM element (when the output limit allows).
+    const base = profilePositions(stack, stack.profile_Hz, level.pointsPerWavelength);
+    const x_m = fem && level.femSamples ? profileGridWithFem(stack, stack.profile_Hz, base, femOptions) : base;
     prof = profileTmm(stack, stack.profile_Hz, x_m);
     profile = [scaledColumn('x_mm', prof.x_m, 1e3), ...complexColumns('E_tmm', prof.E_re, prof.E_im)];
     tmm_ms += now() - t0;
@@ -88,7 +103,7 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
       profile.push(...femProfileColumns(stack, stack.profile_Hz, x_m, femOptions));
       fem.time_ms += now() - t0;
     }
-  } else {
+  } else if (stack.incidence.angle_rad !== 0) {
     warn(obliqueProfileWarning(angle_deg));
   }
   methods.push({ name: 'tmm', description: 'exact transfer-matrix solution', time_ms: round3(tmm_ms) });

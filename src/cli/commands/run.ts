@@ -14,6 +14,8 @@ import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { loadOrExplain, writeReport } from './solve.ts';
+import { estimateRun, WorkRefused } from '../../report/estimate.ts';
+import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
 import type { WriteOptions } from '../io.ts';
 
 /** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
@@ -75,8 +77,10 @@ Options:
   --cells-per-wavelength N    fix the grid density at the band top in the slowest medium (overrides --accuracy)
   --courant S                 Courant number c dt / dx (default 1 in an air front medium)
 ${FEM_ARG_USAGE}
+${BUDGET_ARG_USAGE}
   -h, --help                  show this help
 
+The work is estimated first (grid, time steps, memory, output): a job over the limits is refused at once.
 Ctrl-C stops the run cleanly: nothing is written (DIR keeps its previous files), exit 130.
 Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 instability or internal error.`,
   async run(args, io) {
@@ -86,26 +90,29 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       'cells-per-wavelength': { type: 'string' },
       courant: { type: 'string' },
       ...FEM_ARG_OPTIONS,
+      ...BUDGET_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho run --help)');
     const pulse = pulseOptionsFromArgs(a.values);
     const fem = femOptionsFromArgs(a.values);
+    const { budget, limitNames } = budgetFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
+    // Before anything heavy: the engine's plan, the FEM's mesh, the outputs, the time and memory they need.
+    const job = estimateRun(stack, { fem, pulse, budget, limitNames });
+    if (job.refusal !== undefined) throw new CliError(`${job.refusal}; nothing was written`, 2);
 
     let interrupted = false;
     const onSigint = () => { interrupted = true; };
     process.once('SIGINT', onSigint);
     let report: RunReport;
     try {
-      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, onProgress: progressPrinter(io), shouldStop: () => interrupted });
+      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, job, onProgress: progressPrinter(io), shouldStop: () => interrupted });
     } catch (e) {
-      if (e instanceof PlanError) {
-        const figures = Object.entries(e.figures).map(([k, v]) => `${k} ${Number(v.toPrecision(4))}`).join(', ');
-        throw new CliError(`${e.message}${figures ? ` [${figures}]` : ''}; nothing was written`, 2);
-      }
+      // The engine's own words (they carry the figures and what to change); its internal figures stay out.
+      if (e instanceof PlanError || e instanceof WorkRefused) throw new CliError(`${e.message}; nothing was written`, 2);
       if (e instanceof FdtdInstabilityError) throw new CliError(`${e.message}; nothing was written`, 1);
       throw e;
     } finally {
@@ -116,7 +123,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       return EXIT_INTERRUPTED;
     }
     for (const w of report.warnings) io.err(`warning: ${w}`);
-    const written = writeRunReport(out, report);
+    const written = writeRunReport(out, report, { maxBytes: budget.maxOutput_bytes, limitName: limitNames.output });
     io.out(`${stack.title}: ${stack.layers.length} layer${stack.layers.length === 1 ? '' : 's'}, ` +
       `${fmtGHz(stack.band_Hz[0] / 1e9)}–${fmtGHz(stack.band_Hz[1] / 1e9)} GHz, ${stack.points} points`);
     if (!report.skipped) {

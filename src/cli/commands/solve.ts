@@ -10,6 +10,8 @@ import { InputError, readArgs, UsageError } from '../command.ts';
 import { ensureDir, loadStackFile, removeIfPresent, textFile, writeFilesAtomic, type OutputFile, type WriteOptions } from '../io.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
+import { estimateSolve } from '../../report/estimate.ts';
+import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
 
 /** Load FILE, or print its problems (one line each) and throw InputError (exit 2). */
 export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: string[] } {
@@ -48,24 +50,29 @@ Solve the stack in FILE with the exact transfer-matrix method, cross-checked by 
                  (normal incidence only; at oblique incidence it is not written)
   summary.json   the stack as understood, methods run with timings, results in brief, warnings
 Files are written atomically: an interrupted run leaves the previous files or the new ones.
+The work is estimated first: a job over the limits below is refused before it starts.
 
 Options:
-  --out DIR    output directory (required)
+  --out DIR          output directory (required)
 ${FEM_ARG_USAGE}
-  -h, --help   show this help
+${BUDGET_ARG_USAGE}
+  -h, --help         show this help
 
-Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
+Exit: 0 done, 2 invalid stack, usage, or a job over its limits (nothing written), 1 internal error.`,
   async run(args, io) {
-    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS }, [1, 1]);
+    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...BUDGET_ARG_OPTIONS }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho solve --help)');
     const fem = femOptionsFromArgs(a.values);
+    const { budget, limitNames } = budgetFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
-    const report = solveReport(stack, { inputWarnings: warnings, fem });
+    const job = estimateSolve(stack, { fem, budget, limitNames });
+    if (job.refusal !== undefined) throw new InputError(`${job.refusal}; nothing was written`);
+    const report = solveReport(stack, { inputWarnings: warnings, fem, job });
     for (const w of report.warnings) io.err(`warning: ${w}`);
-    const written = writeReport(out, report);
+    const written = writeReport(out, report, [], { maxBytes: budget.maxOutput_bytes, limitName: limitNames.output });
     const s = report.summary as { results: Record<string, number | null>; methods: { name: string; time_ms: number }[] };
     const r = s.results;
     const inc = stack.incidence.angle_rad === 0 ? `normal incidence (${stack.incidence.polarization})`
