@@ -60,23 +60,28 @@ function reflectionMagnitude(a: { n: number; k: number }, yRe: number, yIm: numb
   return Math.hypot(nr, ni) / Math.hypot(dr, di);
 }
 
-/** Largest stable S for the media on a grid of cell dx (a 0.5 % margin below the von Neumann bound). */
+/** Largest stable S for the media on a grid of cell dx (a 0.5 % margin below the von Neumann bound); `courant` is not needed (kept for callers). */
 export function stabilityCap(media: StepModel[], dx: number, courant: number): number {
   let cap = Math.sqrt(Math.min(1, ...media.map((m) => m.epsInf)));
   for (const m of media) {
     if (m.osc.length === 0) continue;
-    // ε_Nyq depends on Δt = S Δx / c0: iterate from the current S (converges in a few rounds).
-    let S = Math.min(courant, 1);
-    for (let it = 0; it < 8; it++) {
+    // ε_Nyq depends on Δt = S Δx / c0 and falls as S grows (and an oscillator needs ω0 Δt < 2 at all), so the
+    // stable S form an interval [0, S*]: find S* by bisection (a fixed-point iteration can oscillate between 0
+    // and 1 when ω0 Δt passes 2, and so end on an unstable S).
+    const stable = (S: number): boolean => {
       const dt = (S * dx) / C0_m_per_s;
       let epsNyq = m.epsInf;
       for (const o of m.osc) {
         const w = o.w0sq * dt * dt;
-        epsNyq -= w < 4 ? (o.c * dt * dt) / (4 - w) : Infinity;
+        if (w >= 4) return false;
+        epsNyq -= (o.c * dt * dt) / (4 - w);
       }
-      S = epsNyq > 0 ? Math.min(1, 0.995 * Math.sqrt(epsNyq)) : 0;
-    }
-    cap = Math.min(cap, S);
+      return epsNyq > 0 && S <= 0.995 * Math.sqrt(epsNyq);
+    };
+    let lo = 0, hi = 1;
+    if (stable(hi)) lo = hi;
+    else for (let it = 0; it < 60; it++) { const mid = (lo + hi) / 2; if (stable(mid)) lo = mid; else hi = mid; }
+    cap = Math.min(cap, lo);
   }
   return cap;
 }
