@@ -41,12 +41,25 @@ export interface StackAtFrequency {
 export function regionOf(eps: Complex, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region {
   const w = 2 * Math.PI * f_Hz;
   const k0 = w / C0_m_per_s;
-  const q = decayingSqrtInto({ re: 0, im: 0 }, eps.re - kt2_over_k02.re, eps.im - kt2_over_k02.im); // k_x / k0
+  const q = awayFromGrazing(decayingSqrtInto({ re: 0, im: 0 }, eps.re - kt2_over_k02.re, eps.im - kt2_over_k02.im)); // k_x / k0
   const kx = scale(q, k0);
   const Y = pol === 'TE'
     ? scale(kx, 1 / (w * MU0_H_per_m))
     : div(scale(eps, w * EPS0_F_per_m), kx);
   return { eps, kx, Y, thickness_m };
+}
+
+/**
+ * At grazing inside a region (k_x → 0: the angle meets the critical one) the admittance vanishes (TE) or diverges
+ * (TM) and the recursion's 1 ± Γ lose every digit (exactly at it, 0/0). R and T are even in k_x there, so moving
+ * |k_x/k0| up to Q_MIN changes them by about (Q_MIN k0 d)², and keeps them finite.
+ */
+const Q_MIN = 1e-8;
+function awayFromGrazing(q: Complex): Complex {
+  const m = Math.hypot(q.re, q.im);
+  if (m >= Q_MIN) return q;
+  if (m === 0) return { re: Q_MIN, im: 0 };
+  return { re: (q.re / m) * Q_MIN, im: (q.im / m) * Q_MIN };
 }
 
 const region = (material: BulkMaterial, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region =>

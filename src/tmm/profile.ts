@@ -40,6 +40,9 @@ export function profileTmm(stack: Stack, f_Hz: number, x_m: Float64Array): Profi
   return { f_Hz, x_m, E_re, E_im };
 }
 
+/** How far (in nepers of growth) a profile reaches into a lossy front medium. */
+const FRONT_GROWTH_NP = 20;
+
 /** A run of evenly spaced profile positions: m points from a towards b (b itself only with includeEnd). */
 interface ProfileSegment { a: number; b: number; m: number; includeEnd: boolean }
 
@@ -55,6 +58,9 @@ function profileSegments(stack: Stack, f_Hz: number, pointsPerWavelength: number
     const n = sqrt(permittivity(spec, f_Hz)).re; // Re √ε
     return lambda0 / Math.max(n, 1e-6);
   };
+  // In a lossy front medium the total field grows towards −x (relative to the incident wave at x = 0): stop
+  // where it has grown by e^FRONT_GROWTH_NP, long before it leaves the range of a double.
+  const frontLoss_per_m = (2 * Math.PI / lambda0) * Math.abs(sqrt(permittivity(stack.front.spec, f_Hz)).im);
   const out: ProfileSegment[] = [];
   const segment = (a: number, b: number, step: number, minPoints: number, includeEnd: boolean) => {
     out.push({ a, b, m: Math.max(minPoints, Math.ceil((b - a) / step)), includeEnd });
@@ -62,7 +68,8 @@ function profileSegments(stack: Stack, f_Hz: number, pointsPerWavelength: number
   let d = 0;
   for (const l of stack.layers) if (l.kind === 'bulk') d += l.thickness_m;
   const lf = lambdaIn(stack.front.spec);
-  segment(-Math.max(1.5 * lf, d), 0, lf / pointsPerWavelength, 1, false);
+  const front = Math.max(1.5 * lf, d);
+  segment(-(frontLoss_per_m > 0 ? Math.min(front, FRONT_GROWTH_NP / frontLoss_per_m) : front), 0, lf / pointsPerWavelength, 1, false);
   let x = 0;
   for (const l of stack.layers) {
     if (l.kind !== 'bulk') continue;
