@@ -165,6 +165,7 @@ async function runAll(content: string | Buffer): Promise<void> {
     const r = await cli(...args);
     const o: Outcome = { command, code: r.code, err: r.stderr, seconds: (performance.now() - t0) / 1000 };
     if (o.seconds > slowest.seconds) { slowest.seconds = o.seconds; slowest.what = `${command} case ${caseNo - 1}`; }
+    if (o.seconds > 1 && process.env.SLABECHO_FUZZ_SLOW) console.log(`slow: ${command} ${o.seconds.toFixed(2)} s: ${String(content).slice(0, 1500)}`);
     counts.cases++;
     if (o.code === 0) counts.exit0++; else counts.exit2++;
     checkMessage(o, path);
