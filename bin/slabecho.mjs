@@ -1,6 +1,32 @@
 #!/usr/bin/env node
-// Entry point for `npx slabecho`: runs the TypeScript CLI through tsx's loader.
-import { register } from 'tsx/esm/api';
-register();
-const { main } = await import('../src/cli/main.ts');
+// Entry point for `npx slabecho`: the compiled CLI (build/cli.mjs, made by `npm ci` through the `prepare`
+// script) when it is newer than every source file; otherwise the TypeScript sources through tsx (development).
+import { readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = fileURLToPath(new URL('..', import.meta.url));
+const bundle = join(root, 'build', 'cli.mjs');
+
+/** Newest modification time under a folder (the browser app's sources do not go into the CLI). */
+function newest(dir) {
+  let t = 0;
+  for (const e of readdirSync(dir, { withFileTypes: true })) {
+    if (e.isDirectory()) { if (e.name !== 'app') t = Math.max(t, newest(join(dir, e.name))); }
+    else t = Math.max(t, statSync(join(dir, e.name)).mtimeMs);
+  }
+  return t;
+}
+
+function bundleIsCurrent() {
+  try { return statSync(bundle).mtimeMs >= newest(join(root, 'src')); } catch { return false; }
+}
+
+let main;
+if (bundleIsCurrent()) ({ main } = await import(bundle));
+else {
+  const { register } = await import('tsx/esm/api');
+  register();
+  ({ main } = await import('../src/cli/main.ts'));
+}
 process.exitCode = await main(process.argv.slice(2));

@@ -10,11 +10,16 @@ export interface Spectrum {
   T_re: Float64Array; T_im: Float64Array;
 }
 
-/** Total-field phasor E(x) at one frequency, incident amplitude 1 at x = 0. */
+/**
+ * Total-field phasors along the normal line (x, at one point of the faces) at one frequency:
+ * tangential E over the incident tangential E at x = 0 and, where a method gives it, tangential H over
+ * the incident tangential H at x = 0 (both incident amplitudes 1 there).
+ */
 export interface Profile {
   f_Hz: number;
   x_m: Float64Array;
   E_re: Float64Array; E_im: Float64Array;
+  H_re?: Float64Array; H_im?: Float64Array;
 }
 
 export function emptySpectrum(f_Hz: Float64Array): Spectrum {

@@ -7,19 +7,23 @@ import GUI, { type Controller } from 'lil-gui';
 import { catalogNames } from '../materials/catalog.ts';
 import type { StackFile, StackFileLayer } from '../stack/file.ts';
 import { TRACE_NAMES } from './fieldView.ts';
-import type { Settings, SpectrumMode } from './settings.ts';
+import { CLIP_LENGTH_LIMITS_s, type Settings, type SpectrumMode } from './settings.ts';
+import type { ClipFormat } from './clip/sinks.ts';
+import { guardNumber } from './numberField.ts';
 
-export type SettingsTopic = 'traces' | 'axis' | 'spectrum' | 'trace' | 'speed' | 'accuracy';
+export type SettingsTopic = 'traces' | 'axis' | 'spectrum' | 'trace' | 'speed' | 'accuracy' | 'clip';
 
 export interface ControlHost {
   readonly file: StackFile;
   readonly settings: Settings;
   readonly presets: readonly string[];
-  /** The preset the current stack came from (or the default). */
-  readonly presetName: string;
+  /** What the preset menu shows for the current stack: a preset's name, or "imported: …", "… (edited)". */
+  readonly originLabel: string;
   loadPreset(name: string): void;
   /** Apply a change to a copy of the stack file; false (and the reason shown) when it is invalid. */
   edit(change: (f: StackFile) => void): boolean;
+  /** Show that a view or run setting was refused: `field: must be need (got …)`. */
+  refuse(field: string, need: string, text: string): void;
   settingsChanged(topic: SettingsTopic): void;
 }
 
@@ -34,34 +38,52 @@ export class Controls {
   private readonly stackFolder: GUI;
   private readonly layersFolder: GUI;
   private readonly pick = { preset: '' };
+  private presetController: Controller | null = null;
   private readonly fields = {
     title: '', front: 'air', back: 'air', fmin: 1, fmax: 10, points: 501,
     angle: 0, polarization: 'TE', profile: 5,
   };
-  private readonly view = { accuracy: 'engine default', spectrum: 'magnitude' as SpectrumMode, xUnit: 'mm', lambda: 5, envelope: false, speed: 4, autoSpeed: true };
+  private readonly view = {
+    accuracy: 'engine default', spectrum: 'magnitude' as SpectrumMode, magnitude: 'dB', freqScale: 'linear',
+    xUnit: 'mm', lambda: 5, envelope: false, speed: 4, autoSpeed: true,
+  };
   private stackControllers: Controller[] = [];
   private speedController: Controller | null = null;
 
   constructor(container: HTMLElement, private readonly host: ControlHost) {
     this.gui = new GUI({ container, title: 'Parameters', injectStyles: false, autoPlace: false });
     this.gui.domElement.dataset.testid = 'gui';
-    this.pick.preset = host.presets.includes(host.presetName) ? host.presetName : host.presets[0] ?? '';
-    const p = this.gui.add(this.pick, 'preset', [...host.presets]).name('preset').onChange((name: string) => host.loadPreset(name));
-    tag(p, 'preset');
+    this.pick.preset = host.originLabel;
+    this.presetController = tag(this.gui.add(this.pick, 'preset', this.presetOptions()).name('preset')
+      .onChange((name: string) => { if (host.presets.includes(name)) host.loadPreset(name); }), 'preset');
     this.stackFolder = this.gui.addFolder('Stack');
     this.layersFolder = this.gui.addFolder('Layers (front to back)');
     this.buildStack();
     this.buildLayers();
     this.buildRun();
     this.buildViews();
+    this.buildClip();
   }
 
   /** Rebuild from the host's current stack (after a preset, an import or a structural edit). */
-  refresh(presetName?: string): void {
-    if (presetName !== undefined) { this.pick.preset = presetName; }
+  refresh(): void {
+    this.showOrigin();
     this.gui.controllers.forEach((c) => c.updateDisplay());
     this.buildStack();
     this.buildLayers();
+  }
+
+  /** The preset menu names where the current stack came from. */
+  showOrigin(): void {
+    this.pick.preset = this.host.originLabel;
+    const c = this.presetController as (Controller & { options(o: string[]): Controller }) | null;
+    c?.options(this.presetOptions());
+    c?.updateDisplay();
+  }
+
+  private presetOptions(): string[] {
+    const label = this.host.originLabel;
+    return this.host.presets.includes(label) ? [...this.host.presets] : [label, ...this.host.presets];
   }
 
   /** Show a speed the page chose (auto speed). */
@@ -90,6 +112,10 @@ export class Controls {
     v.angle = f.incidence.angle_deg; v.polarization = f.incidence.polarization; v.profile = f.profile_GHz;
     const revert = (): void => this.buildStack();
     const add = (c: Controller, id: string): Controller => { tag(c, id); this.stackControllers.push(c); return c; };
+    // A number box's text that is not a number goes to the parser as it is, which names the field.
+    const raw = (t: string): number => t as unknown as number;
+    const guard = (c: Controller, change: (s: StackFile, t: string) => void): Controller =>
+      guardNumber(c, (t) => { if (!host.edit((s) => change(s, t))) revert(); });
     add(folder.add(v, 'title').name('title').onFinishChange((t: string) => { if (!host.edit((s) => { s.title = t; })) revert(); }), 'stack-title-input');
     add(folder.add(v, 'front', this.materialNames('bulk')).name('wave comes from').onChange((m: string) => {
       if (!host.edit((s) => { s.front = m; })) revert();
@@ -97,26 +123,26 @@ export class Controls {
     add(folder.add(v, 'back', ['pec', ...this.materialNames('bulk')]).name('behind the stack').onChange((m: string) => {
       if (!host.edit((s) => { s.back = m; })) revert();
     }), 'back');
-    add(folder.add(v, 'fmin').name('band from (GHz)').onFinishChange((x: number) => {
+    guard(add(folder.add(v, 'fmin').name('band from (GHz)').onFinishChange((x: number) => {
       host.edit((s) => { s.band_GHz = [x, s.band_GHz[1]]; clampProfile(s); });
       this.buildStack(); // shows the clamped profile frequency and the slider's new range, or reverts
-    }), 'band-min');
-    add(folder.add(v, 'fmax').name('band to (GHz)').onFinishChange((x: number) => {
+    }), 'band-min'), (s, t) => { s.band_GHz = [raw(t), s.band_GHz[1]]; });
+    guard(add(folder.add(v, 'fmax').name('band to (GHz)').onFinishChange((x: number) => {
       host.edit((s) => { s.band_GHz = [s.band_GHz[0], x]; clampProfile(s); });
       this.buildStack(); // shows the clamped profile frequency and the slider's new range, or reverts
-    }), 'band-max');
-    add(folder.add(v, 'points').step(1).name('spectrum points').onFinishChange((x: number) => {
+    }), 'band-max'), (s, t) => { s.band_GHz = [s.band_GHz[0], raw(t)]; });
+    guard(add(folder.add(v, 'points').step(1).name('spectrum points').onFinishChange((x: number) => {
       if (!host.edit((s) => { s.points = Math.round(x); })) revert();
-    }), 'points');
-    add(folder.add(v, 'angle', 0, 89, 0.5).name('incidence angle (°)').onChange((x: number) => {
+    }), 'points'), (s, t) => { s.points = raw(t); });
+    guard(add(folder.add(v, 'angle', 0, 89, 0.5).name('incidence angle (°)').onChange((x: number) => {
       if (!host.edit((s) => { s.incidence = { ...s.incidence, angle_deg: x }; })) revert();
-    }), 'angle');
+    }), 'angle'), (s, t) => { s.incidence = { ...s.incidence, angle_deg: raw(t) }; });
     add(folder.add(v, 'polarization', ['TE', 'TM']).name('polarization').onChange((x: 'TE' | 'TM') => {
       if (!host.edit((s) => { s.incidence = { ...s.incidence, polarization: x }; })) revert();
     }), 'polarization');
-    add(folder.add(v, 'profile', f.band_GHz[0], f.band_GHz[1]).name('profile at (GHz)').onChange((x: number) => {
+    guard(add(folder.add(v, 'profile', f.band_GHz[0], f.band_GHz[1]).name('profile at (GHz)').onChange((x: number) => {
       if (!host.edit((s) => { s.profile_GHz = x; })) revert();
-    }), 'profile-GHz');
+    }), 'profile-GHz'), (s, t) => { s.profile_GHz = raw(t); });
   }
 
   private buildLayers(): void {
@@ -165,6 +191,7 @@ export class Controls {
           c.updateDisplay();
         });
       tag(c, `layer-${i}-thickness`);
+      guardNumber(c, (t) => { host.edit((s) => { s.layers[i] = { ...s.layers[i], thickness_mm: t as unknown as number }; }); });
     }
     const move = (to: number): void => {
       if (to < 0 || to >= count) return;
@@ -202,10 +229,25 @@ export class Controls {
       host.settingsChanged('speed');
     });
     tag(this.speedController, 'speed');
+    guardNumber(this.speedController, (t) => host.refuse('Pulse run › steps per frame', 'a whole number from 1 to 200', t));
     const traces = folder.addFolder('Traces in the field view');
     for (const name of TRACE_NAMES) {
       tag(traces.add(s.traces, name).name(name).onChange(() => host.settingsChanged('traces')), `trace-${name}`);
     }
+  }
+
+  private buildClip(): void {
+    const s = this.host.settings, host = this.host;
+    const folder = this.gui.addFolder('Clips of the field view');
+    const v = { format: Object.keys(CLIP_FORMATS).find((k) => CLIP_FORMATS[k] === s.clipFormat) ?? 'WebM (VP9)', length: s.clipLength_s };
+    tag(folder.add(v, 'format', Object.keys(CLIP_FORMATS)).name('file format').onChange((k: string) => {
+      s.clipFormat = CLIP_FORMATS[k] ?? 'webm'; host.settingsChanged('clip');
+    }), 'clip-format');
+    const [lo, hi] = CLIP_LENGTH_LIMITS_s;
+    const length = tag(folder.add(v, 'length', lo, hi, 0.5).name('length (s)').onChange((x: number) => {
+      s.clipLength_s = Math.min(hi, Math.max(lo, x)); host.settingsChanged('clip');
+    }), 'clip-length');
+    guardNumber(length, (t) => host.refuse('Clips › length (s)', `a number of seconds from ${lo} to ${hi}`, t));
   }
 
   private buildViews(): void {
@@ -215,19 +257,30 @@ export class Controls {
     tag(folder.add(this.view, 'xUnit', { millimetres: 'mm', wavelengths: 'wavelengths' }).name('field view position').onChange((u: 'mm' | 'wavelengths') => {
       s.xUnit = u; host.settingsChanged('axis');
     }), 'x-unit');
-    tag(folder.add(this.view, 'lambda').min(0.001).name('wavelengths at (GHz)').onFinishChange((x: number) => {
+    const lambda = tag(folder.add(this.view, 'lambda').min(0.001).name('wavelengths at (GHz)').onFinishChange((x: number) => {
       if (x > 0) { s.lambda_GHz = x; host.settingsChanged('axis'); }
     }), 'lambda-GHz');
+    guardNumber(lambda, (t) => host.refuse('Views › wavelengths at (GHz)', 'a number of GHz > 0', t));
     this.view.spectrum = s.spectrumMode;
     tag(folder.add(this.view, 'spectrum', ['magnitude', 'phase', 'group delay']).name('spectrum shows').onChange((m: SpectrumMode) => {
       s.spectrumMode = m; host.settingsChanged('spectrum');
     }), 'spectrum-mode');
+    this.view.magnitude = s.magnitude;
+    tag(folder.add(this.view, 'magnitude', ['dB', 'linear']).name('magnitudes in').onChange((m: 'dB' | 'linear') => {
+      s.magnitude = m; host.settingsChanged('spectrum');
+    }), 'magnitude-scale');
+    this.view.freqScale = s.freqScale;
+    tag(folder.add(this.view, 'freqScale', ['linear', 'log']).name('frequency axis').onChange((m: 'linear' | 'log') => {
+      s.freqScale = m; host.settingsChanged('spectrum');
+    }), 'freq-scale');
     this.view.envelope = s.envelope;
     tag(folder.add(this.view, 'envelope').name('echoes as dB envelope').onChange((e: boolean) => {
       s.envelope = e; host.settingsChanged('trace');
     }), 'envelope');
   }
 }
+
+const CLIP_FORMATS: Record<string, ClipFormat> = { 'WebM (VP9)': 'webm', 'MP4 (H.264)': 'mp4' };
 
 function tag(c: Controller, id: string): Controller {
   c.domElement.dataset.testid = id;

@@ -7,6 +7,7 @@
 import type { AgreementRow } from '../report/format-agreement.ts';
 import type { FieldFrame, FromWorker, PulseGeometry, RunSettings, ToWorker, WireColumn, WireReport } from './protocol.ts';
 import { transferablesOf } from './protocol.ts';
+import type { ClipTiming } from './clip/scout.ts';
 
 export interface Solved { id: number; spectrum: WireColumn[]; profile: WireColumn[]; agreement: AgreementRow[]; warnings: string[]; ms: number }
 
@@ -14,7 +15,8 @@ export interface EngineEvents {
   solved(s: Solved): void;
   solveFailed(messages: string[], id: number): void;
   pulseReady(geometry: PulseGeometry, id: number): void;
-  frame(frame: FieldFrame, id: number): void;
+  /** A frame of the current run; `tag` is the one `advance`, `rewind` or `seek` returned. */
+  frame(frame: FieldFrame, id: number, tag: number): void;
   pulseFailed(messages: string[], id: number): void;
   progress(fraction: number, note: string, id: number): void;
   report(report: WireReport, id: number): void;
@@ -33,9 +35,11 @@ export class Engine {
   /** Id of the current pulse run; frames of older runs are dropped. */
   private pulseId = 0;
   private advanceInFlight = false;
+  private nextTag = 1;
   private reportId = 0;
   /** Buffers of drawn frames, handed back to the worker for reuse. */
   private spare: FieldFrame | null = null;
+  private clipWaiter: { resolve: (t: ClipTiming) => void; reject: (e: Error) => void } | null = null;
 
   constructor(private readonly on: EngineEvents) {
     this.solver = spawn();
@@ -59,25 +63,49 @@ export class Engine {
   pulse(file: unknown, settings: RunSettings): number {
     const id = this.nextId++;
     this.pulseId = id;
+    this.clipWaiter?.reject(new Error('the stack was changed while the clip was prepared'));
+    this.clipWaiter = null;
     this.post(this.live, { kind: 'pulse', id, file, settings });
     return id;
   }
 
-  /** Ask for the next frame (`steps` further); false when one is already on its way. */
-  advance(steps: number): boolean {
-    if (this.advanceInFlight || this.pulseId === 0) return false;
+  /** Ask for the next frame (`steps` further); its tag, or 0 when one is already on its way. */
+  advance(steps: number): number {
+    if (this.advanceInFlight || this.pulseId === 0) return 0;
     this.advanceInFlight = true;
     const recycle = this.spare;
     this.spare = null;
-    this.post(this.live, { kind: 'advance', id: this.pulseId, steps, recycle });
-    return true;
+    const tag = this.nextTag++;
+    this.post(this.live, { kind: 'advance', id: this.pulseId, tag, steps, recycle });
+    return tag;
   }
 
   /** Back to step 0 of the current run; a frame follows. */
   rewind(): void {
     if (this.pulseId === 0) return;
     this.advanceInFlight = true;
-    this.post(this.live, { kind: 'rewind', id: this.pulseId });
+    this.post(this.live, { kind: 'rewind', id: this.pulseId, tag: this.nextTag++ });
+  }
+
+  /** A fresh run of the current stack at exactly `step`; a frame with the returned tag follows (0: no run). */
+  seek(step: number): number {
+    if (this.pulseId === 0) return 0;
+    this.advanceInFlight = true;
+    const recycle = this.spare;
+    this.spare = null;
+    const tag = this.nextTag++;
+    this.post(this.live, { kind: 'seek', id: this.pulseId, tag, step, recycle });
+    return tag;
+  }
+
+  /** When a clip of the view [x0, x1] (metres) should start and end (the worker runs a scout). */
+  clipTiming(window_m: [number, number]): Promise<ClipTiming> {
+    this.clipWaiter?.reject(new Error('superseded'));
+    return new Promise((resolve, reject) => {
+      if (this.pulseId === 0) { reject(new Error('there is no pulse run for this stack')); return; }
+      this.clipWaiter = { resolve, reject };
+      this.post(this.live, { kind: 'clip-timing', id: this.pulseId, window_m });
+    });
   }
 
   /** Give a drawn frame's buffers back for reuse. */
@@ -107,7 +135,7 @@ export class Engine {
   get reporting(): boolean { return this.batch !== null; }
 
   private post(w: Worker, msg: ToWorker): void {
-    w.postMessage(msg, transferablesOf(msg.kind === 'advance' ? msg.recycle : null));
+    w.postMessage(msg, transferablesOf(msg.kind === 'advance' || msg.kind === 'seek' ? msg.recycle : null));
   }
 
   private fromLive(m: FromWorker): void {
@@ -125,14 +153,20 @@ export class Engine {
           return;
         }
         if (m.stage === 'advance') this.advanceInFlight = false;
+        if (m.stage === 'clip') { this.clipWaiter?.reject(new Error(m.messages.join('; '))); this.clipWaiter = null; return; }
         if (m.id === this.pulseId) this.on.pulseFailed(m.messages, m.id);
+        return;
+      case 'clip-timing':
+        if (m.id === this.pulseId) this.clipWaiter?.resolve(m.timing);
+        else this.clipWaiter?.reject(new Error('the stack changed while the clip was prepared'));
+        this.clipWaiter = null;
         return;
       case 'pulse-ready':
         if (m.id === this.pulseId) this.on.pulseReady(m.geometry, m.id);
         return;
       case 'frame':
         this.advanceInFlight = false;
-        if (m.id === this.pulseId) this.on.frame(m.frame, m.id);
+        if (m.id === this.pulseId) this.on.frame(m.frame, m.id, m.tag);
         else this.spare = m.frame;
         return;
       default:

@@ -1,12 +1,15 @@
-// Export: the run's tables as CSV (the same columns and number format the CLI writes), the stack
-// file, and a PNG of each view. Tables come from the core unchanged; only the text is made here.
+// Export: one zip named from the stack title and the date, holding the run's tables as CSV (the same
+// files, columns and number format the CLI writes), summary.json, the stack file, a PNG of each view,
+// the latest clip of this stack when there is one, and a short README. Tables come from the core
+// unchanged; only the text is made here.
 
+import { zipSync, strToU8, type Zippable } from 'fflate';
 import { formatCsv, type Column } from '../report/table.ts';
 import { formatEchoesCsv } from '../report/echo-table.ts';
 import type { StackFile } from '../stack/file.ts';
 import type { Solved } from './engine.ts';
 import type { WireColumn, WireReport } from './protocol.ts';
-import { canvasPng, downloadBlob as saveBlob, downloadText as saveText, safeName } from './download.ts';
+import { canvasPng, dateStamp, fileStem } from './download.ts';
 
 export interface ExportInput {
   title: string;
@@ -15,17 +18,27 @@ export interface ExportInput {
   /** The full pulse-run report for the current stack, or null when it has not finished. */
   report: WireReport | null;
   canvases: Array<[string, HTMLCanvasElement]>;
+  /** The latest clip, when it shows the current stack. */
+  clip: { name: string; blob: Blob } | null;
+  date: Date;
 }
 
-/** Pause between downloads: browsers may drop some of a rapid burst of downloads from one page. */
-const GAP_MS = 150;
-const pause = (): Promise<void> => new Promise((ok) => setTimeout(ok, GAP_MS));
+export interface ExportResult {
+  name: string;
+  blob: Blob;
+  /** Paths inside the zip. */
+  files: string[];
+  /** What was left out, and why. */
+  notes: string[];
+}
 
-/** Download everything; returns notes on anything left out. */
-export async function exportAll(input: ExportInput): Promise<string[]> {
+/** Everything in one zip (built in memory: a few MB at most). */
+export async function exportZip(input: ExportInput): Promise<ExportResult> {
+  const stem = fileStem(input.title);
+  const base = `${stem}-${dateStamp(input.date)}`;
   const notes: string[] = [];
-  const downloadText = async (name: string, text: string, type: string): Promise<void> => { await pause(); saveText(name, text, type); };
-  const downloadBlob = async (name: string, blob: Blob): Promise<void> => { await pause(); saveBlob(name, blob); };
+  const entries: Zippable = {};
+  const put = (name: string, data: Uint8Array, packed: boolean): void => { entries[`${base}/${name}`] = [data, { level: packed ? 0 : 6 }]; };
   const r = input.report;
   const tables: Array<[string, readonly WireColumn[] | null | undefined]> = [
     ['spectrum.csv', r?.spectrum ?? input.solved?.spectrum],
@@ -33,25 +46,46 @@ export async function exportAll(input: ExportInput): Promise<string[]> {
     ['echoes.csv', r?.echoes],
     ['trace.csv', r?.trace],
   ];
-  if (r === null) notes.push('The pulse run for this stack has not finished: spectrum.csv and profile.csv hold the exact and FEM columns only; echoes.csv and trace.csv are left out.');
+  if (r === null) notes.push('The pulse run for this stack has not finished: spectrum.csv and profile.csv hold the exact and FEM columns only; echoes.csv, trace.csv and summary.json are left out.');
   for (const [name, t] of tables) {
     if (t === null || t === undefined || t.length === 0) continue;
     try {
-      await downloadText(name, tableCsv(t), 'text/csv');
+      put(name, strToU8(tableCsv(t)), false);
     } catch (e) {
       notes.push(`${name}: ${e instanceof Error ? e.message : String(e)}`);
     }
   }
-  if (r !== null) await downloadText('summary.json', `${JSON.stringify(r.summary, null, 2)}\n`, 'application/json');
-  await downloadText(`${safeName(input.title)}.stack.json`, `${JSON.stringify(input.file, null, 2)}\n`, 'application/json');
+  if (r !== null) put('summary.json', strToU8(`${JSON.stringify(r.summary, null, 2)}\n`), false);
+  const stackName = `${stem}.stack.json`;
+  put(stackName, strToU8(`${JSON.stringify(input.file, null, 2)}\n`), false);
   for (const [name, canvas] of input.canvases) {
     try {
-      await downloadBlob(`${name}.png`, await canvasPng(canvas));
+      put(`${name}.png`, new Uint8Array(await (await canvasPng(canvas)).arrayBuffer()), true);
     } catch (e) {
       notes.push(`${name}.png: ${e instanceof Error ? e.message : String(e)}`);
     }
   }
-  return notes;
+  if (input.clip !== null) put(input.clip.name, new Uint8Array(await input.clip.blob.arrayBuffer()), true);
+  put('README.txt', strToU8(readme(input.title, stackName, Object.keys(entries).map((k) => k.slice(base.length + 1)), notes)), false);
+  const zip = zipSync(entries, { mtime: input.date });
+  return { name: `${base}.zip`, blob: new Blob([zip], { type: 'application/zip' }), files: Object.keys(entries), notes };
+}
+
+function readme(title: string, stackName: string, files: string[], notes: string[]): string {
+  return [
+    `slabecho export: ${title}`,
+    '',
+    'Files:',
+    ...[...files, 'README.txt'].map((f) => `  ${f}`),
+    '',
+    `The CSV files and summary.json are those \`slabecho run ${stackName} --out DIR\` writes for this stack.`,
+    ...(notes.length > 0 ? ['', 'Left out:', ...notes.map((n) => `  ${n}`)] : []),
+    '',
+    'These results are for an idealised infinite, planar, homogeneous stack lit by a plane wave. Where safety',
+    'depends on shielding or on RF exposure limits, do not rely on them: defer to measurement, to local codes',
+    'and regulations and to licensed professional practice.',
+    '',
+  ].join('\n');
 }
 
 /** CSV text of a wire table, through the same core formatters the CLI uses. */

@@ -8,13 +8,15 @@ import type { Stack } from '../stack/types.ts';
 import { Controls, type ControlHost, type SettingsTopic } from './controls.ts';
 import { Engine, type Solved } from './engine.ts';
 import { FieldView, type FieldViewOptions } from './fieldView.ts';
-import { exportAll } from './exporter.ts';
-import { loadStoredSettings, loadStoredStack, storeSettings, storeStack } from './persist.ts';
+import type { WorkbenchStats } from './stats.ts';
+import { exportZip } from './exporter.ts';
+import { loadStoredOrigin, loadStoredSettings, loadStoredStack, originLabel, storeOrigin, storeSettings, storeStack, type Origin } from './persist.ts';
+import { describe as describeValue } from '../stack/problems.ts';
 import { DEFAULT_PRESET, PRESETS, presetFile } from './presets.ts';
 import type { FieldFrame, PulseGeometry, WireReport } from './protocol.ts';
-import { ClipRecorder } from './recorder.ts';
-import { downloadBlob, safeName } from './download.ts';
-import { autoStepsPerFrame, readSettings, type Settings } from './settings.ts';
+import { downloadBlob, fileStem } from './download.ts';
+import { autoStepsPerFrame, CLIP_FPS, readSettings, type Settings } from './settings.ts';
+import { makeClip, type Clip } from './clip/session.ts';
 import { sketchStack, type StackSketch } from './sketch.ts';
 import { Messages } from './messages.ts';
 import { adoptGuiStyles } from './guiStyles.ts';
@@ -23,25 +25,6 @@ import { ProfileView } from './views/profileView.ts';
 import { TraceView } from './views/traceView.ts';
 import { AgreementView } from './views/agreementView.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
-
-/** Figures the browser tests and the benchmark read. */
-export interface WorkbenchStats {
-  fieldRenders: number;
-  renderer: string;
-  /** Edit → exact/FEM views redrawn, ms, for the latest edit. */
-  lastEditToUpdate_ms: number | null;
-  lastSolve_ms: number | null;
-  version: number;
-  solvedVersion: number;
-  reportVersion: number;
-  step: number;
-  playing: boolean;
-  recording: boolean;
-}
-
-declare global {
-  interface Window { slabecho?: { stats: WorkbenchStats } }
-}
 
 const $ = <T extends HTMLElement>(testid: string): T => {
   const el = document.querySelector<T>(`[data-testid="${testid}"]`);
@@ -59,7 +42,8 @@ class Workbench implements ControlHost {
   private pulseRefusal: string[] = [];
   readonly settings: Settings;
   readonly presets = PRESETS.map((p) => p.name);
-  presetName = DEFAULT_PRESET;
+  /** Where the current stack came from (shown by the preset menu, kept across a reload). */
+  private origin: Origin;
   private readonly messages = new Messages($('messages'));
   private readonly engine: Engine;
   private readonly spectrum = new SpectrumView($('spectrum-view'));
@@ -76,10 +60,16 @@ class Workbench implements ControlHost {
   private reportVersion = -1;
   private reportRequestVersion = -1;
   private geometry: PulseGeometry | null = null;
+  /** The stack version the animated run was started for. */
+  private pulseVersion = -1;
   private frame: FieldFrame | null = null;
   private pendingFrame: FieldFrame | null = null;
   private playing = false;
-  private recorder: ClipRecorder | null = null;
+  /** The clip being made (its cancel flag), and the last one made, with the stack version it shows. */
+  private clip: { cancel: boolean } | null = null;
+  private lastClip: { version: number; name: string; clip: Clip } | null = null;
+  /** A clip waits for the frame with this tag. */
+  private frameWaiter: { tag: number; ok: (f: FieldFrame) => void; fail: (e: Error) => void } | null = null;
   private editStart: number | null = null;
   private restartTimer = 0;
   /** False once the user cancelled the full run for this stack. */
@@ -87,9 +77,11 @@ class Workbench implements ControlHost {
   readonly stats: WorkbenchStats = {
     fieldRenders: 0, renderer: '', lastEditToUpdate_ms: null, lastSolve_ms: null, version: 0,
     solvedVersion: -1, reportVersion: -1, step: 0, playing: false, recording: false,
+    field: { window_mm: [0, 0], default_mm: [0, 0], stack_mm: 0, zoomed: false, grid: false }, lastClip: null,
   };
 
-  constructor(initial: { file: StackFile; stack: Stack; warnings: string[] }, settings: Settings) {
+  constructor(initial: { file: StackFile; stack: Stack; warnings: string[]; origin: Origin }, settings: Settings) {
+    this.origin = initial.origin;
     this.file = initial.file;
     this.stack = initial.stack;
     this.inputWarnings = initial.warnings;
@@ -99,7 +91,7 @@ class Workbench implements ControlHost {
       solved: (s) => this.onSolved(s),
       solveFailed: (m) => this.messages.show('solve', 'error', 'The exact/FEM solve failed', m),
       pulseReady: (g) => this.onPulseReady(g),
-      frame: (f) => { if (this.pendingFrame !== null) this.engine.recycle(this.pendingFrame); this.pendingFrame = f; },
+      frame: (f, _id, tag) => this.onFrame(f, tag),
       pulseFailed: (m) => this.onPulseFailed(m),
       progress: (fr, note) => this.onProgress(fr, note),
       report: (r) => this.onReport(r),
@@ -110,6 +102,7 @@ class Workbench implements ControlHost {
   async start(): Promise<void> {
     this.field = await FieldView.create($('field-view'), this.fieldOptions());
     this.stats.renderer = this.field.rendererName;
+    this.field.onFraming = () => this.noteFraming();
     this.field.setStack(this.sketch);
     this.field.render();
     this.spectrum.chart.onDraw = () => this.noteUpdated();
@@ -122,10 +115,31 @@ class Workbench implements ControlHost {
     this.solveNow();
     this.restartPulse(0);
     requestAnimationFrame(() => this.loop());
-    window.slabecho = { stats: this.stats };
+    const charts = { 'spectrum-view': this.spectrum.chart, 'profile-view': this.profile.chart, 'trace-view': this.trace.chart };
+    window.slabecho = {
+      stats: this.stats,
+      probe: {
+        chartPoint: (view, x, panel = 0) => charts[view].clientPoint(x, panel),
+        chartRange: (view) => charts[view].visibleX(),
+        fieldBoxes: () => this.field.layoutBoxes,
+        fieldMarks: () => this.field.layoutMarks,
+        fieldLabels: () => this.field.labelTexts,
+      },
+    };
+  }
+
+  private noteFraming(): void {
+    const w = this.field.span(), d = this.field.defaultSpan();
+    this.stats.field = {
+      window_mm: [w.x0_m * 1e3, w.x1_m * 1e3], default_mm: [d.x0_m * 1e3, d.x1_m * 1e3],
+      stack_mm: this.sketch.thickness_m * 1e3, zoomed: this.field.zoomed,
+      grid: this.field.hasGrid && this.pulseVersion === this.version,
+    };
   }
 
   // ---- stack state -------------------------------------------------------------------------
+
+  get originLabel(): string { return originLabel(this.origin); }
 
   /** ControlHost: validate a change to the stack file; apply it when valid. */
   edit(change: (f: StackFile) => void): boolean {
@@ -137,19 +151,39 @@ class Workbench implements ControlHost {
       this.messages.show('edit', 'error', 'That change was not applied:', r.errors);
       return false;
     }
-    this.messages.clear('edit');
+    this.clearRefusals();
     this.apply(r.file, r.stack, r.warnings);
     this.editStart = t0;
+    if (!this.origin.edited) this.setOrigin({ ...this.origin, edited: true });
     return true;
+  }
+
+  /** ControlHost: a view or run setting was refused. */
+  refuse(field: string, need: string, text: string): void {
+    this.messages.show('edit', 'error', 'That change was not applied:', [`${field}: must be ${need} (got ${describeValue(text)})`]);
+  }
+
+  /** Errors about earlier edits and imports no longer apply once the stack has changed. */
+  private clearRefusals(): void {
+    this.messages.clear('edit');
+    this.messages.clear('import');
+  }
+
+  private setOrigin(o: Origin): void {
+    this.origin = o;
+    storeOrigin(o);
+    this.controls?.showOrigin();
   }
 
   loadPreset(name: string): void {
     const r = parseStackObject(presetFile(name));
     if (!r.ok) { this.messages.show('edit', 'error', `Preset ${name} is invalid:`, r.errors); return; }
-    this.messages.clear('edit');
-    this.presetName = name;
+    this.clearRefusals();
     this.apply(r.file, r.stack, r.warnings);
-    this.controls.refresh(name);
+    this.origin = { kind: 'preset', name, edited: false };
+    storeOrigin(this.origin);
+    this.field.resetFraming();
+    this.controls.refresh();
   }
 
   importText(name: string, text: string): void {
@@ -158,14 +192,19 @@ class Workbench implements ControlHost {
       this.messages.show('import', 'error', `${name} was not loaded (the current stack is kept):`, r.errors);
       return;
     }
-    this.messages.clear('import');
-    this.messages.clear('edit');
+    this.clearRefusals();
     this.apply(r.file, r.stack, r.warnings);
+    this.origin = { kind: 'import', name, edited: false };
+    storeOrigin(this.origin);
+    this.field.resetFraming();
     this.controls.refresh();
     this.messages.show('import', 'info', `Loaded ${name}.`, []);
   }
 
   private apply(file: StackFile, stack: Stack, warnings: string[]): void {
+    // A clip in the making shows the old stack: it stops (its frames would never come).
+    this.frameWaiter?.fail(new Error('the stack was changed while the clip was made'));
+    this.frameWaiter = null;
     this.file = file;
     this.stack = stack;
     this.inputWarnings = warnings;
@@ -226,12 +265,14 @@ class Workbench implements ControlHost {
 
   private drawFrequencyViews(): void {
     const rep = this.reportCurrent();
-    const pending = this.engine.reporting ? 'FDTD: pulse run in progress' : rep === null ? 'FDTD: no finished pulse run for this stack' : '';
+    const pending = this.engine.reporting ? 'FDTD: pulse run in progress'
+      : rep === null ? 'FDTD: no finished pulse run for this stack'
+        : rep.skipped !== undefined ? 'the pulse engine did not run for this stack (see the messages above)' : '';
     const s = this.solved;
-    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], this.settings.spectrumMode, pending);
-    const oblique = this.file.incidence.angle_deg !== 0;
+    const look = { mode: this.settings.spectrumMode, freqScale: this.settings.freqScale, magnitude: this.settings.magnitude };
+    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], look, pending);
     this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending,
-      oblique ? 'the standing-wave profile is computed at normal incidence only' : s === null ? 'solving…' : 'no profile');
+      s === null ? 'solving…' : 'no profile', this.file.incidence);
     // The full run's rows include the exact/FEM row; until it is there, show the solve's own.
     const fromRun = (rep?.summary as { agreement?: AgreementRow[] } | undefined)?.agreement;
     this.agreement.show(fromRun ?? s?.agreement ?? [], pending);
@@ -239,7 +280,8 @@ class Workbench implements ControlHost {
 
   private drawTraceView(): void {
     const rep = this.reportCurrent();
-    const note = rep !== null ? (rep.trace[0]?.data.length === 0 ? 'the pulse engine did not run for this stack (see the messages above)' : '')
+    const note = rep !== null ? (rep.skipped !== undefined ? `The pulse engine did not run for this stack: ${rep.skipped}`
+      : rep.trace[0]?.data.length === 0 ? 'the pulse run recorded nothing for this stack' : '')
       : this.engine.reporting ? 'pulse run in progress…' : 'no finished pulse run for this stack';
     this.trace.show(rep?.trace ?? null, rep?.echoes ?? null, this.settings.envelope, note);
   }
@@ -260,6 +302,7 @@ class Workbench implements ControlHost {
       this.pulseRefusal = [];
       this.field.setGeometry(null);
       this.field.render();
+      this.pulseVersion = this.version;
       this.engine.pulse(this.file, settings);
       if (this.reportWanted) this.startReport();
     }, delay_ms);
@@ -295,11 +338,32 @@ class Workbench implements ControlHost {
     this.field.render();
   }
 
+  private onFrame(f: FieldFrame, tag: number): void {
+    const w = this.frameWaiter;
+    if (w !== null) {
+      if (tag === w.tag) { this.frameWaiter = null; w.ok(f); } else this.engine.recycle(f);
+      return;
+    }
+    if (this.pendingFrame !== null) this.engine.recycle(this.pendingFrame);
+    this.pendingFrame = f;
+  }
+
+  /** The frame that answers the request `send` makes (which returns its tag). */
+  private frameFor(send: () => number): Promise<FieldFrame> {
+    return new Promise((ok, fail) => {
+      const tag = send();
+      if (tag === 0) { fail(new Error('the pulse run is not ready')); return; }
+      this.frameWaiter = { tag, ok, fail };
+    });
+  }
+
   private onPulseFailed(m: string[]): void {
+    this.frameWaiter?.fail(new Error(m.join('; ')));
+    this.frameWaiter = null;
     this.pulseRefusal = m;
     this.messages.show('pulse', 'warn', 'No pulse animation for this stack:', m);
     this.setPlaying(false);
-    this.field.setGeometry(null, 'no pulse animation for this stack (see the message above)');
+    this.field.setGeometry(null, 'no pulse animation for this stack (see the messages)');
     this.field.render();
     this.showWarnings();
   }
@@ -313,7 +377,8 @@ class Workbench implements ControlHost {
     this.report = r;
     this.reportVersion = this.reportRequestVersion;
     this.stats.reportVersion = this.reportVersion;
-    this.setRunStatus('done', 1, `finished in ${(r.ms / 1000).toFixed(1)} s`);
+    if (r.skipped !== undefined) this.setRunStatus('declined', 1, 'FDTD not run: the pulse engine declined this stack');
+    else this.setRunStatus('done', 1, `finished in ${(r.ms / 1000).toFixed(1)} s`);
     this.showWarnings();
     this.drawTraceView();
     this.drawFrequencyViews();
@@ -326,7 +391,7 @@ class Workbench implements ControlHost {
     this.drawFrequencyViews();
   }
 
-  private setRunStatus(state: 'idle' | 'running' | 'done' | 'cancelled' | 'failed', fraction: number, note: string): void {
+  private setRunStatus(state: 'idle' | 'running' | 'done' | 'declined' | 'cancelled' | 'failed', fraction: number, note: string): void {
     const box = $('run-status');
     box.dataset.state = state;
     ($('run-progress') as HTMLProgressElement).value = Math.max(0, Math.min(1, fraction));
@@ -346,18 +411,26 @@ class Workbench implements ControlHost {
       this.field.render();
       this.stats.fieldRenders++;
       this.stats.step = f.step;
-      this.recorder?.frame();
-      if (f.done && (this.playing || this.recorder !== null)) {
-        this.setPlaying(false);
-        if (this.recorder !== null) void this.stopRecording();
-      }
+      if (f.done && this.playing) this.setPlaying(false);
     }
-    if (this.geometry !== null && this.frame === null && this.pendingFrame === null) {
+    if (this.clip !== null) {
+      // A clip steps the run itself.
+    } else if (this.geometry !== null && this.frame === null && this.pendingFrame === null) {
       this.engine.advance(0); // the first frame (t = 0) of a new run
-    } else if ((this.playing || this.recorder !== null) && this.geometry !== null && !(this.frame?.done ?? false)) {
-      this.engine.advance(this.recorder?.stepsPerFrame ?? this.settings.speed);
+    } else if (this.playing && this.geometry !== null && !(this.frame?.done ?? false)) {
+      this.engine.advance(this.settings.speed);
     }
     requestAnimationFrame(() => this.loop());
+  }
+
+  /** Draw a frame the clip asked for (the previous one's buffers go back to the worker). */
+  private showFrame(f: FieldFrame): void {
+    if (this.frame !== null && this.frame !== f) this.engine.recycle(this.frame);
+    this.frame = f;
+    this.field.setFrame(f);
+    this.field.render();
+    this.stats.fieldRenders++;
+    this.stats.step = f.step;
   }
 
   private setPlaying(on: boolean): void {
@@ -385,31 +458,54 @@ class Workbench implements ControlHost {
   }
 
   private async toggleRecord(): Promise<void> {
-    if (this.recorder !== null) { await this.stopRecording(); return; }
-    if (!ClipRecorder.supported()) {
-      this.messages.show('record', 'error', 'This browser cannot record the canvas (MediaRecorder with WebM is missing).', []);
+    if (this.clip !== null) { this.clip.cancel = true; return; }
+    if (this.geometry === null) {
+      this.messages.show('record', 'error', 'There is no pulse run to record for this stack (see the messages above).', []);
       return;
     }
-    if (this.frame?.done === true) this.engine.rewind();
-    this.recorder = new ClipRecorder(this.field.canvas, this.settings.speed);
-    this.stats.recording = true;
-    const b = $('record');
-    b.textContent = 'stop recording';
-    b.classList.add('recording');
-    this.setPlaying(true);
+    const session = { cancel: false };
+    this.clip = session;
+    this.setPlaying(false);
+    this.setRecording(true);
+    const version = this.version;
+    const span = this.field.span();
+    try {
+      const clip = await makeClip({
+        format: this.settings.clipFormat, length_s: this.settings.clipLength_s, fps: CLIP_FPS,
+        title: this.file.title, window_m: [span.x0_m, span.x1_m], fieldCanvas: this.field.canvas,
+      }, {
+        timing: (w) => this.engine.clipTiming(w),
+        seek: (step) => this.frameFor(() => this.engine.seek(step)),
+        advance: (n) => this.frameFor(() => this.engine.advance(n)),
+        show: (f) => this.showFrame(f),
+        progress: (note) => this.messages.show('record', 'info', `Recording a clip: ${note}`, []),
+        cancelled: () => session.cancel || this.version !== version,
+      });
+      if (clip === null) { this.messages.show('record', 'info', 'The clip was cancelled.', []); return; }
+      const name = `${fileStem(this.file.title)}.${clip.extension}`;
+      this.lastClip = { version, name, clip };
+      this.stats.lastClip = {
+        name, description: clip.description, frames: clip.frames, fps: clip.fps, duration_s: clip.duration_s, bytes: clip.blob.size,
+        start_ns: clip.start_ns, end_ns: clip.end_ns, arrival_ns: clip.arrival_ns, stepsPerFrame: clip.stepsPerFrame,
+      };
+      downloadBlob(name, clip.blob);
+      this.messages.show('record', 'info', `Clip saved as ${name}: ${clip.duration_s.toFixed(1)} s, ${clip.frames} frames of ${clip.stepsPerFrame} steps, `
+        + `t = ${clip.start_ns.toFixed(3)} to ${clip.end_ns.toFixed(3)} ns${clip.ends === 'run-end' ? ' (the run ended before the view was quiet)' : ''}, `
+        + `${clip.description}, ${(clip.blob.size / 1024).toFixed(0)} KiB.`, []);
+    } catch (e) {
+      this.messages.show('record', 'error', 'The clip could not be made:', [e instanceof Error ? e.message : String(e)]);
+    } finally {
+      this.clip = null;
+      this.frameWaiter = null;
+      this.setRecording(false);
+    }
   }
 
-  private async stopRecording(): Promise<void> {
-    const rec = this.recorder;
-    if (rec === null) return;
-    this.recorder = null;
-    this.stats.recording = false;
+  private setRecording(on: boolean): void {
+    this.stats.recording = on;
     const b = $('record');
-    b.textContent = 'record';
-    b.classList.remove('recording');
-    const blob = await rec.stop();
-    downloadBlob(`${safeName(this.file.title)}.webm`, blob);
-    this.messages.show('record', 'info', `Clip saved: ${rec.frames} frames, ${rec.stepsPerFrame} steps each, ${(blob.size / 1024).toFixed(0)} KiB.`, []);
+    b.textContent = on ? 'stop recording' : 'record';
+    b.classList.toggle('recording', on);
   }
 
   // ---- controls ------------------------------------------------------------------------------
@@ -449,6 +545,9 @@ class Workbench implements ControlHost {
       }
       void f.text().then((t) => this.importText(f.name, t));
     });
+    $('zoom-in').addEventListener('click', () => this.field.zoomIn());
+    $('zoom-out').addEventListener('click', () => this.field.zoomOut());
+    $('zoom-reset').addEventListener('click', () => this.field.resetFraming());
     $('run-cancel').addEventListener('click', () => this.cancelReport());
     $('run-start').addEventListener('click', () => this.startReport());
     const about = $<HTMLDialogElement>('about');
@@ -473,34 +572,43 @@ class Workbench implements ControlHost {
 
   private async exportNow(): Promise<void> {
     this.field.render();
-    const rep = this.reportCurrent();
-    const notes = await exportAll({
-      title: this.file.title,
-      file: this.file,
-      solved: this.solved,
-      report: rep,
-      canvases: [
-        ['field-view', this.field.canvas],
-        ['trace-view', this.trace.chart.canvas],
-        ['spectrum-view', this.spectrum.chart.canvas],
-        ['profile-view', this.profile.chart.canvas],
-      ],
-    });
-    this.messages.show('export', notes.length > 0 ? 'warn' : 'info', notes.length > 0 ? 'Exported, with gaps:' : 'Exported the tables, the stack file and the view snapshots.', notes);
+    const clip = this.lastClip !== null && this.lastClip.version === this.version ? { name: this.lastClip.name, blob: this.lastClip.clip.blob } : null;
+    try {
+      const z = await exportZip({
+        title: this.file.title,
+        file: this.file,
+        solved: this.solved,
+        report: this.reportCurrent(),
+        canvases: [
+          ['field-view', this.field.canvas],
+          ['trace-view', this.trace.chart.canvas],
+          ['spectrum-view', this.spectrum.chart.canvas],
+          ['profile-view', this.profile.chart.canvas],
+        ],
+        clip,
+        date: new Date(),
+      });
+      downloadBlob(z.name, z.blob);
+      this.messages.show('export', z.notes.length > 0 ? 'warn' : 'info', z.notes.length > 0 ? `Exported ${z.name}, with gaps:` : `Exported ${z.name}: the tables, the stack file, the view snapshots${clip !== null ? ' and the clip' : ''}.`, z.notes);
+    } catch (e) {
+      this.messages.show('export', 'error', 'The export failed:', [e instanceof Error ? e.message : String(e)]);
+    }
   }
 }
 
-function initialStack(): { file: StackFile; stack: Stack; warnings: string[]; note: string | null } {
+function initialStack(): { file: StackFile; stack: Stack; warnings: string[]; origin: Origin; note: string | null } {
   const stored = loadStoredStack();
+  const preset: Origin = { kind: 'preset', name: DEFAULT_PRESET, edited: false };
   if (stored !== undefined) {
     const r = parseStackObject(stored);
-    if (r.ok) return { ...r, note: null };
+    // A stack stored before origins were kept is shown as an edited default.
+    if (r.ok) return { ...r, origin: loadStoredOrigin() ?? { ...preset, edited: true }, note: null };
   }
   const r = parseStackObject(presetFile(DEFAULT_PRESET));
-  if (r.ok) return { ...r, note: stored !== undefined ? 'The stored stack was unreadable; the default preset is loaded.' : null };
+  if (r.ok) return { ...r, origin: preset, note: stored !== undefined ? 'The stored stack was unreadable; the default preset is loaded.' : null };
   const empty = parseStackObject({ title: 'Empty stack', band_GHz: [1, 10], layers: [] });
   if (!empty.ok) throw new Error(empty.errors.join('\n'));
-  return { ...empty, note: `The default preset is invalid: ${r.errors.join('; ')}` };
+  return { ...empty, origin: preset, note: `The default preset is invalid: ${r.errors.join('; ')}` };
 }
 
 adoptGuiStyles();

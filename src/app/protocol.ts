@@ -6,6 +6,7 @@
 // spectra and echoes, which shows progress and is cancelled by terminating that worker).
 
 import type { AgreementRow } from '../report/format-agreement.ts';
+import type { ClipTiming } from './clip/scout.ts';
 
 /** A table column on the wire: numbers, or text (the echo table's path names). */
 export interface WireColumn {
@@ -53,22 +54,28 @@ export interface WireReport {
   summary: unknown;
   warnings: string[];
   ms: number;
+  /** Why the pulse engine declined the stack (the report then holds the exact and FEM results only). */
+  skipped?: string;
 }
 
 export type ToWorker =
   | { kind: 'solve'; id: number; file: unknown }
   | { kind: 'pulse'; id: number; file: unknown; settings: RunSettings }
-  | { kind: 'advance'; id: number; steps: number; recycle: FieldFrame | null }
-  | { kind: 'rewind'; id: number }
+  // Messages that produce a frame carry a tag, which the frame echoes.
+  | { kind: 'advance'; id: number; tag: number; steps: number; recycle: FieldFrame | null }
+  | { kind: 'rewind'; id: number; tag: number }
+  | { kind: 'seek'; id: number; tag: number; step: number; recycle: FieldFrame | null }
+  | { kind: 'clip-timing'; id: number; window_m: [number, number] }
   | { kind: 'report'; id: number; file: unknown; settings: RunSettings };
 
 export type FromWorker =
   | { kind: 'solved'; id: number; spectrum: WireColumn[]; profile: WireColumn[]; agreement: AgreementRow[]; warnings: string[]; ms: number }
   | { kind: 'pulse-ready'; id: number; geometry: PulseGeometry }
-  | { kind: 'frame'; id: number; frame: FieldFrame }
+  | { kind: 'frame'; id: number; tag: number; frame: FieldFrame }
+  | { kind: 'clip-timing'; id: number; timing: ClipTiming }
   | { kind: 'progress'; id: number; fraction: number; note: string }
   | { kind: 'report'; id: number; report: WireReport }
-  | { kind: 'failed'; id: number; stage: 'solve' | 'pulse' | 'advance' | 'report'; messages: string[] };
+  | { kind: 'failed'; id: number; stage: 'solve' | 'pulse' | 'advance' | 'clip' | 'report'; messages: string[] };
 
 /** Typed arrays inside a message, to pass as transferables. */
 export function transferablesOf(value: unknown, out: Transferable[] = []): Transferable[] {

@@ -9,6 +9,7 @@ import { createPulseRun } from '../fdtd/run.ts';
 import { runReport } from '../report/run.ts';
 import { copyTable } from './tables.ts';
 import type { FieldFrame, PulseGeometry, RunSettings, WireReport } from './protocol.ts';
+import { scoutClip, type ClipTiming } from './clip/scout.ts';
 
 let run: PulseRun | null = null;
 let runStack: Stack | null = null;
@@ -91,6 +92,21 @@ export function rewindPulse(): FieldFrame {
   return frameOf(run, null);
 }
 
+/** A fresh run of the animated stack stepped to `step` (or as far as it goes). */
+export function seekPulse(step: number, recycle: FieldFrame | null): FieldFrame {
+  if (runStack === null) throw new Error('no pulse run');
+  run = create(runStack, runSettings);
+  if (step > run.stepIndex) run.step(step - run.stepIndex);
+  return frameOf(run, recycle);
+}
+
+/** When a clip of the view [x0, x1] (metres) should start and end: a scout run of the same grid. */
+export function clipTiming(window_m: [number, number]): ClipTiming {
+  if (runStack === null) throw new Error('no pulse run');
+  const scout = create(runStack, runSettings);
+  return scoutClip(scout, window_m, scout.stepIndex);
+}
+
 /** The full pulse-run report (the one `slabecho run` writes), as wire tables. */
 export async function fullReport(
   stack: Stack, inputWarnings: string[], settings: RunSettings, progress: (fraction: number, note: string) => void,
@@ -113,5 +129,6 @@ export async function fullReport(
     trace: copyTable(rep.trace),
     summary: rep.summary,
     warnings: [...rep.warnings],
+    ...(rep.skipped !== undefined ? { skipped: rep.skipped } : {}),
   };
 }

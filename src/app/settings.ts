@@ -1,6 +1,7 @@
 // View and run settings the page keeps (and stores), apart from the stack itself.
 
 import type { TraceName } from './fieldView.ts';
+import type { ClipFormat } from './clip/sinks.ts';
 
 export type SpectrumMode = 'magnitude' | 'phase' | 'group delay';
 
@@ -14,11 +15,22 @@ export interface Settings {
   /** Frequency at which positions are given in wavelengths, GHz. */
   lambda_GHz: number;
   spectrumMode: SpectrumMode;
+  /** Frequency axis of the spectrum. */
+  freqScale: 'linear' | 'log';
+  /** Magnitudes of R and T in dB or as plain ratios. */
+  magnitude: 'dB' | 'linear';
   /** Draw the reflected and transmitted records as a dB envelope. */
   envelope: boolean;
   /** Pulse-run accuracy target (predicted worst phase error); null = the engine's default. */
   accuracy: number | null;
+  /** Clips of the field view: file format and playing time. */
+  clipFormat: ClipFormat;
+  clipLength_s: number;
 }
+
+/** Clip frame rate (frames per second of playing time). */
+export const CLIP_FPS = 30;
+export const CLIP_LENGTH_LIMITS_s: [number, number] = [1, 60];
 
 export const DEFAULT_SETTINGS: Settings = {
   speed: 10,
@@ -27,8 +39,12 @@ export const DEFAULT_SETTINGS: Settings = {
   xUnit: 'mm',
   lambda_GHz: 5,
   spectrumMode: 'magnitude',
+  freqScale: 'linear',
+  magnitude: 'dB',
   envelope: false,
   accuracy: null,
+  clipFormat: 'webm',
+  clipLength_s: 6,
 };
 
 /** Stored settings merged over the defaults, each field checked. */
@@ -47,8 +63,12 @@ export function readSettings(value: unknown): Settings {
   if (v.xUnit === 'mm' || v.xUnit === 'wavelengths') s.xUnit = v.xUnit;
   s.lambda_GHz = num(v.lambda_GHz, 1e-3, 1e3) ?? s.lambda_GHz;
   if (v.spectrumMode === 'magnitude' || v.spectrumMode === 'phase' || v.spectrumMode === 'group delay') s.spectrumMode = v.spectrumMode;
+  if (v.freqScale === 'linear' || v.freqScale === 'log') s.freqScale = v.freqScale;
+  if (v.magnitude === 'dB' || v.magnitude === 'linear') s.magnitude = v.magnitude;
   if (typeof v.envelope === 'boolean') s.envelope = v.envelope;
   s.accuracy = v.accuracy === null ? null : num(v.accuracy, 1e-4, 0.5) ?? s.accuracy;
+  if (v.clipFormat === 'webm' || v.clipFormat === 'mp4') s.clipFormat = v.clipFormat;
+  s.clipLength_s = num(v.clipLength_s, ...CLIP_LENGTH_LIMITS_s) ?? s.clipLength_s;
   return s;
 }
 

@@ -3,6 +3,11 @@
 
 import type { Stack } from '../stack/types.ts';
 import { interfacePositions_m } from '../stack/types.ts';
+import { pulseForBand } from '../fdtd/pulse.ts';
+import { permittivity } from '../materials/permittivity.ts';
+import { permeability } from '../materials/permeability.ts';
+import { mul, sqrt } from '../complex.ts';
+import { C0_m_per_s } from '../units.ts';
 
 export interface SketchLayer {
   index: number;
@@ -25,6 +30,8 @@ export interface StackSketch {
   layers: SketchLayer[];
   /** "30° TE" at oblique incidence, null at normal incidence. */
   oblique: string | null;
+  /** Length along x of the pulse run's incident pulse in the front medium, where its envelope is above 10 % of its peak. */
+  pulseLength_m: number;
 }
 
 export function sketchStack(stack: Stack): StackSketch {
@@ -48,7 +55,20 @@ export function sketchStack(stack: Stack): StackSketch {
     layers,
     oblique: stack.incidence.angle_rad !== 0
       ? `${fmt((stack.incidence.angle_rad * 180) / Math.PI)}° ${stack.incidence.polarization}` : null,
+    pulseLength_m: pulseLength_m(stack),
   };
+}
+
+/**
+ * The engine's pulse (fdtd/pulse.ts) has the envelope exp(−(t/τ)²), above 10 % for |t| < τ √ln 10;
+ * along x it moves at c / (n cos θ) in the front medium (the depth component of the wave vector
+ * is k0 n cos θ), n = Re √(ε_r μ_r) at the band centre.
+ */
+function pulseLength_m(stack: Stack): number {
+  const p = pulseForBand(stack.band_Hz);
+  const n = sqrt(mul(permittivity(stack.front.spec, p.f0_Hz), permeability(stack.front.spec, p.f0_Hz))).re;
+  const v = C0_m_per_s / (Math.max(1e-6, n) * Math.max(1e-6, Math.cos(stack.incidence.angle_rad)));
+  return 2 * p.tau_s * Math.sqrt(Math.LN10) * v;
 }
 
 /** A number with up to 4 significant digits and no trailing zeros. */

@@ -8,7 +8,7 @@ import { solveReport } from '../report/solve.ts';
 import type { FromWorker, ToWorker } from './protocol.ts';
 import { transferablesOf } from './protocol.ts';
 import { copyTable } from './tables.ts';
-import { advancePulse, rewindPulse, startPulse, fullReport } from './pulseHost.ts';
+import { advancePulse, clipTiming, rewindPulse, seekPulse, startPulse, fullReport } from './pulseHost.ts';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
@@ -57,10 +57,16 @@ function handle(m: ToWorker): void | Promise<void> {
       return;
     }
     case 'advance':
-      answer(m.id, 'advance', () => ({ kind: 'frame', id: m.id, frame: advancePulse(m.steps, m.recycle) }));
+      answer(m.id, 'advance', () => ({ kind: 'frame', id: m.id, tag: m.tag, frame: advancePulse(m.steps, m.recycle) }));
       return;
     case 'rewind':
-      answer(m.id, 'advance', () => ({ kind: 'frame', id: m.id, frame: rewindPulse() }));
+      answer(m.id, 'advance', () => ({ kind: 'frame', id: m.id, tag: m.tag, frame: rewindPulse() }));
+      return;
+    case 'seek':
+      answer(m.id, 'advance', () => ({ kind: 'frame', id: m.id, tag: m.tag, frame: seekPulse(m.step, m.recycle) }));
+      return;
+    case 'clip-timing':
+      answer(m.id, 'clip', () => ({ kind: 'clip-timing', id: m.id, timing: clipTiming(m.window_m) }));
       return;
     case 'report': {
       const r = parse(m.file, m.id, 'report');

@@ -1,6 +1,7 @@
 // The stack as the engine steps it: power laws fitted, good conductors turned into a wall (thick)
 // or a resistive sheet (thin film), warnings saying so.
 
+import { isNonMagnetic } from '../materials/permeability.ts';
 import { effectiveConductivity, permittivity } from '../materials/permittivity.ts';
 import type { BulkModel } from '../materials/types.ts';
 import type { BulkMaterial, Stack } from '../stack/types.ts';
@@ -43,6 +44,11 @@ export function resolveStack(stack: Stack): Resolved {
     cache.set(key, fit.model);
     return fit.model;
   };
+  const magnetic = [stack.front, ...stack.layers.map((l) => l.material), ...(stack.back === 'pec' ? [] : [stack.back])]
+    .find((m) => m.spec.model !== 'sheet' && !isNonMagnetic(m.spec.magnetic));
+  if (magnetic !== undefined) {
+    throw new PlanError(`materials: "${magnetic.name}" is magnetic (μ_r ≠ 1), which the pulse engine does not step yet; use the exact solver and the FEM`, 'unsupported');
+  }
   if (isConductor(stack.front.spec, band)) {
     throw new PlanError(`front: the medium the wave comes from ("${stack.front.name}") is a conductor; nothing would reach the stack`, 'bad-input');
   }

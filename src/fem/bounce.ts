@@ -9,11 +9,12 @@
 // phase (for a lossless line this is exact: reflections add like tanh of summed rapidities). A conductor reflects
 // fully. The worst over a sample of the frequencies is kept: an upper figure, as the estimate wants.
 
+import { permeability } from '../materials/permeability.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import type { BulkModel } from '../materials/types.ts';
 import type { Polarization, Stack } from '../stack/types.ts';
 import { ETA0_ohm } from '../units.ts';
-import { freeSpaceWavenumber, normalWavenumber, tangentialWavenumber2 } from './media.ts';
+import { freeSpaceWavenumber, indexSquared, normalWavenumber, tangentialWavenumber2 } from './media.ts';
 
 /** Round-trip retention is capped here (a lossless cavity would give an infinite factor): factors ≤ 199. */
 const MAX_RETENTION = 0.99;
@@ -22,15 +23,21 @@ const SAMPLES = 65;
 
 interface Admittance { re: number; im: number }
 
-/** Normalized wave admittance of a medium along the stack normal (TE k_z/k0, TM ε k0/k_z) and |Im k_z|. */
-function medium(m: BulkModel, stack: Stack, f_Hz: number, pol: Polarization): { y: Admittance; loss_per_m: number } {
-  const k0 = freeSpaceWavenumber(f_Hz), eps = permittivity(m, f_Hz);
-  const kz = normalWavenumber(eps, k0, tangentialWavenumber2(stack.front.spec, f_Hz, stack.incidence.angle_rad));
-  const q = { re: kz.re / k0, im: kz.im / k0 };
-  if (pol === 'TE') return { y: q, loss_per_m: Math.abs(kz.im) };
+/** w / q for complex w, q; an infinite admittance when q vanishes. */
+function ratio(w: Admittance, q: Admittance): Admittance {
   const d = q.re * q.re + q.im * q.im;
-  if (d === 0) return { y: { re: Infinity, im: 0 }, loss_per_m: 0 };
-  return { y: { re: (eps.re * q.re + eps.im * q.im) / d, im: (eps.im * q.re - eps.re * q.im) / d }, loss_per_m: Math.abs(kz.im) };
+  if (d === 0) return { re: Infinity, im: 0 };
+  return { re: (w.re * q.re + w.im * q.im) / d, im: (w.im * q.re - w.re * q.im) / d };
+}
+
+/** Normalized wave admittance of a medium along the stack normal (TE k_z/(k0 μ), TM ε k0/k_z) and |Im k_z|. */
+function medium(m: BulkModel, stack: Stack, f_Hz: number, pol: Polarization): { y: Admittance; loss_per_m: number } {
+  const k0 = freeSpaceWavenumber(f_Hz);
+  const kz = normalWavenumber(indexSquared(m, f_Hz), k0, tangentialWavenumber2(stack.front.spec, f_Hz, stack.incidence.angle_rad));
+  const q = { re: kz.re / k0, im: kz.im / k0 };
+  const loss_per_m = Math.abs(kz.im);
+  if (pol === 'TE') return { y: ratio(q, permeability(m, f_Hz)), loss_per_m };
+  return { y: ratio(permittivity(m, f_Hz), q), loss_per_m };
 }
 
 /** |(ya − yb)/(ya + yb)| between two admittances; 1 when either is degenerate (infinite). */

@@ -3,14 +3,13 @@
 // resistive sheet makes between the two vertices it splits (H_y jumps across a sheet; see system.ts). In TE a
 // sheet is a shunt at one vertex. Every interface is a vertex; element size per region comes from the density.
 
-import { permittivity } from '../materials/permittivity.ts';
 import type { BulkModel } from '../materials/types.ts';
 import type { Polarization, Stack } from '../stack/types.ts';
 import type { FemOrder } from './basis.ts';
 import { FEM_ORDERS } from './basis.ts';
 import { bounceFactors } from './bounce.ts';
 import { densityFor, errorEstimate, MIN_DENSITY } from './dispersion.ts';
-import { freeSpaceWavenumber, normalWavenumber, tangentialWavenumber2 } from './media.ts';
+import { freeSpaceWavenumber, indexSquared, normalWavenumber, tangentialWavenumber2 } from './media.ts';
 import type { FemMeshInfo, FemOptions } from './types.ts';
 import { DEFAULT_TOLERANCE, ESTIMATE_SAFETY, MAX_ELEMENTS } from './types.ts';
 
@@ -49,12 +48,12 @@ export interface FemMesh {
   info: FemMeshInfo;
 }
 
-/** Largest |k_z| of a medium over the frequencies, for the stack's incidence. */
+/** Largest |k_z| of a medium over the frequencies, for the stack's incidence (μ_r included). */
 function maxNormalWavenumber(stack: Stack, m: BulkModel, f_Hz: ArrayLike<number>): number {
   let k = 0;
   for (let i = 0; i < f_Hz.length; i++) {
     const k0 = freeSpaceWavenumber(f_Hz[i]);
-    const kz = normalWavenumber(permittivity(m, f_Hz[i]), k0, tangentialWavenumber2(stack.front.spec, f_Hz[i], stack.incidence.angle_rad));
+    const kz = normalWavenumber(indexSquared(m, f_Hz[i]), k0, tangentialWavenumber2(stack.front.spec, f_Hz[i], stack.incidence.angle_rad));
     k = Math.max(k, Math.hypot(kz.re, kz.im));
   }
   return k;
@@ -83,6 +82,8 @@ export interface MeshExtent {
   polarization: Polarization;
   /** Size for the field between nodes too (profiles), not just for R and T. */
   betweenNodes: boolean;
+  /** Size the field between nodes for its derivative too (a field read from u'); default: TM. */
+  derivative?: boolean;
 }
 
 /** The sizing stage of a mesh: order, density and element counts, before anything is built. */
@@ -133,8 +134,9 @@ export function sizeMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
   phase *= magnify; interfaces *= magnify;
   const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
   const budget = tolerance / ESTIMATE_SAFETY;
-  // Field between nodes (profiles): half the tolerance; TM profiles read E from H_y's derivative.
-  const between = extent?.betweenNodes ? { budget: tolerance / 2, derivative: pol === 'TM' } : undefined;
+  // Field between nodes (profiles): half the tolerance; TM profiles read E from H_y's derivative, and a TE
+  // profile with H reads H from E_y's.
+  const between = extent?.betweenNodes ? { budget: tolerance / 2, derivative: extent.derivative ?? pol === 'TM' } : undefined;
   const all: RegionPlan[] = [...(frontPlan ? [frontPlan] : []), ...plans, ...(backPlan ? [backPlan] : [])];
   const count = (density: number) => all.reduce((n, r) => n + elementsFor(r, density), 0);
 

@@ -1,6 +1,6 @@
 // The per-frequency FEM system on a planned mesh, allocated once and reused for every frequency.
 //
-// Weak form on the mesh domain [x_p, x_e] (u = E_y in TE, H_y in TM; a = 1 in TE, 1/ε_r in TM):
+// Weak form on the mesh domain [x_p, x_e] (u = E_y in TE, H_y in TM; a = 1/μ_r in TE, 1/ε_r in TM):
 //   ∫ a u' v' − a k_z² u v dx  + boundary and sheet terms = right-hand side.
 // Front port at x_p (first-order absorbing condition, exact in 1D for a plane wave): in the front medium
 //   u = u_inc + u_ref with u_inc = e^{−j k_z0 x}, so a u'(x_p) = −j k_z0 a_f (2 u_inc(x_p) − u(x_p)),
@@ -9,17 +9,18 @@
 // Perfect conductor at the back face: tangential E = 0. TE: E_y = 0 (Dirichlet). TM: tangential E is
 //   a H_y' / (jωε0), so E_t = 0 is the natural condition a H_y' = 0: nothing to add.
 // Resistive sheet (R_s ohms per square, surface current J = E_t / R_s):
-//   TE: E_y is continuous and H jumps by J, i.e. E'(x+) − E'(x−) = jωμ0 E / R_s: a shunt + j k0 η0 / R_s on
-//       the sheet's vertex.
+//   TE: E_y is continuous and H jumps by J; H_t = ∓(1/μ_r) E'/(jωμ0) = ∓ a E'/(jωμ0), so the flux jumps,
+//       a E'(x+) − a E'(x−) = jωμ0 E / R_s: a shunt + j k0 η0 / R_s on the sheet's vertex.
 //   TM: E_t = a H'/(jωε0) is continuous and H_y jumps, H(x+) − H(x−) = E_t / R_s. The sheet's vertex is split
 //       in two and the flux a H' = jωε0 R_s (H+ − H−) couples them: a link [y, −y; −y, y] with y = j k0 R_s / η0.
 
+import { permeability } from '../materials/permeability.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import { ETA0_ohm } from '../units.ts';
 import { createCondenser } from './condense.ts';
 import type { Condenser } from './condense.ts';
 import { freeSpaceWavenumber, setFormWeight, setNormalWavenumber } from './media.ts';
-import type { Complex } from '../complex.ts';
+import { type Complex, mul } from '../complex.ts';
 import type { FemMesh } from './mesh.ts';
 import type { Tridiagonal } from './tridiag.ts';
 import { clearTridiagonal, createTridiagonal, solveTridiagonal } from './tridiag.ts';
@@ -52,21 +53,23 @@ export function createFemSystem(mesh: FemMesh): FemSystem {
 }
 
 /** Assembles and solves at f_Hz; the vertex values land in sys.tri.xRe / xIm. Incident wave: amplitude 1 at x = 0.
- *  Allocates nothing itself; `permittivity` returns one small {re, im} per region. */
+ *  Allocates nothing itself beyond the few small {re, im} values the material models return per region. */
 export function solveAt(sys: FemSystem, f_Hz: number): void {
   const { mesh, tri } = sys;
   const k0 = freeSpaceWavenumber(f_Hz);
-  const epsF = permittivity(mesh.front, f_Hz);
+  const epsF = permittivity(mesh.front, f_Hz), muF = permeability(mesh.front, f_Hz);
+  const nF2 = mul(epsF, muF); // ε_f μ_f
   const s2 = Math.sin(mesh.angle_rad) ** 2;
-  const kt2Re = k0 * k0 * epsF.re * s2, kt2Im = k0 * k0 * epsF.im * s2; // k_t² = k0² ε_front sin²θ
+  const kt2Re = k0 * k0 * nF2.re * s2, kt2Im = k0 * k0 * nF2.im * s2; // k_t² = k0² ε_front μ_front sin²θ
   const m = mesh.order - 1;
   const { a, kz } = sys.scratch;
 
   for (let r = 0; r < mesh.regions.length; r++) {
     const reg = mesh.regions[r];
-    const eps = permittivity(reg.material, f_Hz);
-    const kzRe = k0 * k0 * eps.re - kt2Re, kzIm = k0 * k0 * eps.im - kt2Im; // k_z²
-    setFormWeight(a, eps.re, eps.im, mesh.polarization);
+    const eps = permittivity(reg.material, f_Hz), mu = permeability(reg.material, f_Hz);
+    const n2 = mul(eps, mu); // ε_r μ_r
+    const kzRe = k0 * k0 * n2.re - kt2Re, kzIm = k0 * k0 * n2.im - kt2Im; // k_z²
+    setFormWeight(a, eps, mu, mesh.polarization);
     const h = reg.h_m;
     // α = a / h, β = a k_z² h
     const c = sys.condenser.condense(a.re / h, a.im / h, (a.re * kzRe - a.im * kzIm) * h, (a.re * kzIm + a.im * kzRe) * h);
@@ -93,8 +96,8 @@ export function solveAt(sys: FemSystem, f_Hz: number): void {
     for (const sh of mesh.sheets) dIm[sh.vertex] += (k0 * ETA0_ohm) / sh.ohm_per_sq;
 
   // Front port at vertex 0, position x_p.
-  setNormalWavenumber(kz, epsF.re, epsF.im, k0, kt2Re, kt2Im);
-  setFormWeight(a, epsF.re, epsF.im, mesh.polarization);
+  setNormalWavenumber(kz, nF2.re, nF2.im, k0, kt2Re, kt2Im);
+  setFormWeight(a, epsF, muF, mesh.polarization);
   const kaRe = kz.re * a.re - kz.im * a.im, kaIm = kz.re * a.im + kz.im * a.re;
   const kz0Re = kz.re, kz0Im = kz.im;
   sys.port.kaRe = kaRe; sys.port.kaIm = kaIm;
@@ -107,9 +110,9 @@ export function solveAt(sys: FemSystem, f_Hz: number): void {
   bRe[0] = -2 * (kaRe * uIm + kaIm * uRe); bIm[0] = 2 * (kaRe * uRe - kaIm * uIm);
 
   if (mesh.back) {
-    const epsB = permittivity(mesh.back, f_Hz);
-    setNormalWavenumber(kz, epsB.re, epsB.im, k0, kt2Re, kt2Im);
-    setFormWeight(a, epsB.re, epsB.im, mesh.polarization);
+    const epsB = permittivity(mesh.back, f_Hz), muB = permeability(mesh.back, f_Hz), nB2 = mul(epsB, muB);
+    setNormalWavenumber(kz, nB2.re, nB2.im, k0, kt2Re, kt2Im);
+    setFormWeight(a, epsB, muB, mesh.polarization);
     const bkRe = kz.re * a.re - kz.im * a.im, bkIm = kz.re * a.im + kz.im * a.re;
     sys.port.backKaRe = bkRe; sys.port.backKaIm = bkIm;
     dRe[n - 1] += -bkIm; dIm[n - 1] += bkRe;

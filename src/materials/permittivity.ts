@@ -3,6 +3,7 @@
 
 import type { Complex } from '../complex.ts';
 import { EPS0_F_per_m, GHz, ps } from '../units.ts';
+import { addDebyeTerm, addLorentzTerm } from './poles.ts';
 import type { BulkModel } from './types.ts';
 
 /** ε_r at f_Hz (> 0). */
@@ -12,26 +13,14 @@ export function permittivity(m: BulkModel, f_Hz: number): Complex {
     case 'fixed':
       return { re: m.eps_r, im: -m.sigma_S_per_m / (w * EPS0_F_per_m) };
     case 'debye': {
-      let re = m.eps_inf, im = -m.sigma_S_per_m / (w * EPS0_F_per_m);
-      for (const p of m.poles) {
-        // Δε / (1 + jωτ) = Δε (1 − jωτ) / (1 + ω²τ²)
-        const wt = w * p.tau_ps * ps, d = 1 + wt * wt;
-        re += p.delta_eps / d;
-        im -= (p.delta_eps * wt) / d;
-      }
-      return { re, im };
+      const acc = { re: m.eps_inf, im: -m.sigma_S_per_m / (w * EPS0_F_per_m) };
+      for (const p of m.poles) addDebyeTerm(acc, p.delta_eps, p.tau_ps * ps, w);
+      return acc;
     }
     case 'lorentz': {
-      let re = m.eps_inf, im = -m.sigma_S_per_m / (w * EPS0_F_per_m);
-      for (const p of m.poles) {
-        // Δε ω0² / (ω0² − ω² + jωγ)
-        const w0 = 2 * Math.PI * p.f0_GHz * GHz, g = 2 * Math.PI * p.gamma_GHz * GHz;
-        const a = w0 * w0 - w * w, b = w * g, d = a * a + b * b;
-        const num = p.delta_eps * w0 * w0;
-        re += (num * a) / d;
-        im -= (num * b) / d;
-      }
-      return { re, im };
+      const acc = { re: m.eps_inf, im: -m.sigma_S_per_m / (w * EPS0_F_per_m) };
+      for (const p of m.poles) addLorentzTerm(acc, p.delta_eps, p.f0_GHz * GHz, p.gamma_GHz * GHz, w);
+      return acc;
     }
     case 'drude': {
       // ε∞ − ωp² / (ω² − jωγ) = ε∞ − ωp² (ω² + jωγ) / (ω⁴ + ω²γ²)

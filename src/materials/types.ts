@@ -1,14 +1,30 @@
 // Material models as written in a stack file (units in the key names).
-// Time dependence e^{+jωt}; complex relative permittivity ε_r = ε' − jε''.
+// Time dependence e^{+jωt}; complex relative permittivity ε_r = ε' − jε'' and, where a bulk material
+// carries a `magnetic` block, complex relative permeability μ_r = μ' − jμ'' (μ_r = 1 without one).
 
-export interface FixedModel { model: 'fixed'; eps_r: number; sigma_S_per_m: number }
+/** μ_r = mu_r − j mu_loss, constant over frequency. */
+export interface FixedMagnetic { model: 'fixed'; mu_r: number; mu_loss: number }
+export interface DebyeMagneticPole { delta_mu: number; tau_ps: number }
+/** μ_r = μ∞ + Σ Δμ / (1 + jωτ). */
+export interface DebyeMagnetic { model: 'debye'; mu_inf: number; poles: DebyeMagneticPole[] }
+export interface LorentzMagneticPole { delta_mu: number; f0_GHz: number; gamma_GHz: number }
+/** μ_r = μ∞ + Σ Δμ ω0² / (ω0² − ω² + jωγ). */
+export interface LorentzMagnetic { model: 'lorentz'; mu_inf: number; poles: LorentzMagneticPole[] }
+export type MagneticModel = FixedMagnetic | DebyeMagnetic | LorentzMagnetic;
+export type MagneticModelName = MagneticModel['model'];
+export const MAGNETIC_MODEL_NAMES: readonly MagneticModelName[] = ['fixed', 'debye', 'lorentz'];
+
+/** Any bulk model may carry a permeability; without one μ_r = 1. */
+interface MaybeMagnetic { magnetic?: MagneticModel }
+
+export interface FixedModel extends MaybeMagnetic { model: 'fixed'; eps_r: number; sigma_S_per_m: number }
 export interface DebyePole { delta_eps: number; tau_ps: number }
-export interface DebyeModel { model: 'debye'; eps_inf: number; poles: DebyePole[]; sigma_S_per_m: number }
+export interface DebyeModel extends MaybeMagnetic { model: 'debye'; eps_inf: number; poles: DebyePole[]; sigma_S_per_m: number }
 export interface LorentzPole { delta_eps: number; f0_GHz: number; gamma_GHz: number }
-export interface LorentzModel { model: 'lorentz'; eps_inf: number; poles: LorentzPole[]; sigma_S_per_m: number }
-export interface DrudeModel { model: 'drude'; eps_inf: number; plasma_GHz: number; collision_GHz: number; sigma_S_per_m: number }
+export interface LorentzModel extends MaybeMagnetic { model: 'lorentz'; eps_inf: number; poles: LorentzPole[]; sigma_S_per_m: number }
+export interface DrudeModel extends MaybeMagnetic { model: 'drude'; eps_inf: number; plasma_GHz: number; collision_GHz: number; sigma_S_per_m: number }
 /** ITU-R P.2040 form: ε' = a f^b, σ = c f^d, f in GHz. */
-export interface PowerLawModel { model: 'power-law'; a: number; b: number; c: number; d: number }
+export interface PowerLawModel extends MaybeMagnetic { model: 'power-law'; a: number; b: number; c: number; d: number }
 /** A resistive sheet of zero thickness. */
 export interface SheetModel { model: 'sheet'; ohm_per_sq: number }
 

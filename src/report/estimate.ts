@@ -17,6 +17,7 @@ import { linspace } from '../units.ts';
 import { nextPow2 } from '../spectra/fft.ts';
 import { DEFAULT_BUDGET, plainBytes, plainCount, plainDuration, type WorkBudget } from './budget.ts';
 import { planOutputs, type OutputPlan, type ProfileLevel } from './output-plan.ts';
+import { profileHasH } from './profile-columns.ts';
 import { ECHO_BYTES_PER_FFT_POINT, FEM_BYTES_PER_ELEMENT, PROFILE_BYTES_PER_ROW, RATES, RECORD_BYTES_PER_STEP } from './rates.ts';
 
 /** A job refused by its estimate, before anything heavy was allocated; the message says why and what to change. */
@@ -90,19 +91,18 @@ function femStage(stack: Stack, fem: FemOptions): FemStage {
 /** Rows of the profile at a sampling level: the exact solver's positions plus, optionally, the FEM's own. */
 function profileRows(stack: Stack, fem: FemOptions | null, level: ProfileLevel): number {
   let rows = profilePointCount(stack, stack.profile_Hz, level.pointsPerWavelength);
-  if (fem && level.femSamples) {
-    const [lo, hi] = profileRange(stack, stack.profile_Hz);
-    rows += 10 * Math.min(MAX_ELEMENTS, profileMeshElements(stack, stack.profile_Hz, lo, hi, fem)) + 1;
-  }
+  if (fem && level.femSamples) rows += 10 * profileElements(stack, fem) + 1;
   return rows;
 }
 
+/** Elements of the FEM's profile mesh (capped where the FEM would refuse it). */
+function profileElements(stack: Stack, fem: FemOptions): number {
+  const [lo, hi] = profileRange(stack, stack.profile_Hz);
+  return Math.min(MAX_ELEMENTS, profileMeshElements(stack, stack.profile_Hz, lo, hi, fem, profileHasH(stack)));
+}
+
 function profileStage(stack: Stack, fem: FemOptions | null, rows: number): StageEstimate {
-  let elements = 0;
-  if (fem) {
-    const [lo, hi] = profileRange(stack, stack.profile_Hz);
-    elements = Math.min(MAX_ELEMENTS, profileMeshElements(stack, stack.profile_Hz, lo, hi, fem));
-  }
+  const elements = fem ? profileElements(stack, fem) : 0;
   return {
     stage: 'profile',
     seconds: rows * (RATES.tmmProfilePerRow_s + (fem ? RATES.femProfilePerRow_s : 0)) + elements * RATES.femMeshPerElement_s,
@@ -166,7 +166,6 @@ export function estimateJob(stack: Stack, options: EstimateOptions & { withPulse
   let femSkip: string | undefined;
   if (fem.elements > MAX_ELEMENTS) { femSkip = `FEM skipped: ${meshTooLarge(fem.elements)}`; fem = null; }
 
-  const normal = stack.incidence.angle_rad === 0;
   const steps = grid ? grid.expectedSteps : 0, stepsWorst = grid ? grid.stepsLimit : 0;
   const pulse = grid ? pulseStages(grid, stack.points, steps) : [];
   const pulseWorst = grid ? pulseStages(grid, stack.points, stepsWorst) : [];
@@ -175,9 +174,11 @@ export function estimateJob(stack: Stack, options: EstimateOptions & { withPulse
   const plan = (withFem: boolean): { outputs: OutputPlan; stages: StageEstimate[] } => {
     const methods = 1 + (withFem ? 1 : 0) + (grid ? 1 : 0);
     const femForProfile = withFem ? femOptions : null;
+    // Profile columns: x, then E (and H in TM) of the exact solution and the FEM, then E of the pulse run.
+    const perMethod = profileHasH(stack) ? 4 : 2;
     const outputs = planOutputs({
       points: stack.points, spectrumColumns: 1 + 4 * methods,
-      profile: normal ? { rowsAt: (level) => profileRows(stack, femForProfile, level), columns: 1 + 2 * methods } : null,
+      profile: { rowsAt: (level) => profileRows(stack, femForProfile, level), columns: 1 + perMethod * (1 + (withFem ? 1 : 0)) + (grid ? 2 : 0) },
       trace: options.withPulse ? { rows: stepsWorst + 1, columns: 4 } : null,
       layers: stack.layers.length, maxBytes: budget.maxOutput_bytes, limitName: limitOut,
     });

@@ -8,6 +8,7 @@ import { DEFAULT_TOLERANCE } from '../fem/types.ts';
 import type { Spectrum } from '../results.ts';
 import type { Stack } from '../stack/types.ts';
 import { agreementRow, type AgreementRow } from './format-agreement.ts';
+import { profileColumns } from './profile-columns.ts';
 import { complexColumns, type Column } from './table.ts';
 
 export interface FemPart {
@@ -37,10 +38,10 @@ export function femSpectrumPart(stack: Stack, tmm: Spectrum, options: FemOptions
 }
 
 /** The profile grid `base` merged with ≥ 10 samples in every FEM element over the same range. */
-export function profileGridWithFem(stack: Stack, f_Hz: number, base: Float64Array, options: FemOptions): Float64Array {
+export function profileGridWithFem(stack: Stack, f_Hz: number, base: Float64Array, options: FemOptions, withH = false): Float64Array {
   if (base.length === 0) return base;
   let fem: Float64Array;
-  try { fem = femSamplePositions(stack, f_Hz, base[0], base[base.length - 1], options, 10); } catch { return base; }
+  try { fem = femSamplePositions(stack, f_Hz, base[0], base[base.length - 1], options, 10, withH); } catch { return base; }
   const all = Float64Array.from([...base, ...fem]).sort();
   const out: number[] = [];
   // Merge points closer than a nanometre (an interface both grids hold).
@@ -48,10 +49,9 @@ export function profileGridWithFem(stack: Stack, f_Hz: number, base: Float64Arra
   return Float64Array.from(out);
 }
 
-/** E_fem_re, E_fem_im at the grid; [] when the FEM refuses the mesh. */
-export function femProfileColumns(stack: Stack, f_Hz: number, x_m: Float64Array, options: FemOptions): Column[] {
+/** E_fem_re, E_fem_im (and with `withH` H_fem_re, H_fem_im) at the grid; [] when the FEM refuses the mesh. */
+export function femProfileColumns(stack: Stack, f_Hz: number, x_m: Float64Array, options: FemOptions, withH = false): Column[] {
   try {
-    const p = profileFem(stack, f_Hz, x_m, options);
-    return complexColumns('E_fem', p.E_re, p.E_im);
+    return profileColumns('fem', profileFem(stack, f_Hz, x_m, options, withH), withH);
   } catch { return []; }
 }

@@ -5,17 +5,19 @@
 // `complexColumns`, push an entry to `methods`, and add its warnings. Keep the tmm columns first.
 
 import { dbFromAmplitude, degFromRad, ghzFromHz, mmFromM } from '../units.ts';
+import { permeability } from '../materials/permeability.ts';
 import { permittivity, effectiveConductivity } from '../materials/permittivity.ts';
 import type { Material } from '../materials/types.ts';
 import { bandFrequencies, emptySpectrum, type Profile, type Spectrum } from '../results.ts';
 import { stackThickness_m, type Stack } from '../stack/types.ts';
-import { obliqueProfileWarning, stackWarnings } from '../stack/warnings.ts';
+import { stackWarnings } from '../stack/warnings.ts';
 import { absorption, solveTmm } from '../tmm/solve.ts';
 import { profilePositions, profileTmm } from '../tmm/profile.ts';
 import { SLABECHO_VERSION } from '../version.ts';
 import { assertFiniteValues, assertTable, complexColumns, scaledColumn, type Column } from './table.ts';
 import type { FemOptions } from '../fem/types.ts';
 import { femProfileColumns, femSpectrumPart, profileGridWithFem } from './fem-part.ts';
+import { profileColumns, profileHasH } from './profile-columns.ts';
 import { roundedRow, type AgreementRow } from './format-agreement.ts';
 import type { WorkBudget } from './budget.ts';
 import { estimateSolve, WorkRefused, type JobEstimate } from './estimate.ts';
@@ -23,7 +25,8 @@ import { estimateSolve, WorkRefused, type JobEstimate } from './estimate.ts';
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
   spectrum: Column[];
-  /** x_mm, E_tmm_re, E_tmm_im; empty at oblique incidence (the profile is normal incidence only). */
+  /** x_mm, E_tmm_re, E_tmm_im (in TM also H_tmm_re, H_tmm_im), then the other methods' groups: tangential fields
+   *  along the normal line at the profile frequency, at any incidence. */
   profile: Column[];
   /** The stack as understood, the methods run with timings, results in brief, warnings. JSON-safe. */
   summary: Record<string, unknown>;
@@ -85,26 +88,25 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
   progress(0.95);
 
-  // Standing-wave profile (normal incidence only).
+  // Standing-wave profile: tangential E along the normal line (and in TM the tangential H), at any incidence.
+  const angle_deg = roundDeg(degFromRad(stack.incidence.angle_rad));
+  const withH = profileHasH(stack);
+  const level = job.outputs.profile?.level;
   let profile: Column[] = [];
   let prof: Profile | undefined;
-  const angle_deg = roundDeg(degFromRad(stack.incidence.angle_rad));
-  const level = job.outputs.profile?.level;
-  if (stack.incidence.angle_rad === 0 && level !== undefined) {
+  if (level !== undefined) {
     t0 = now();
     // The exact solver's grid, refined to ≥ 10 samples in every FEM element (when the output limit allows).
     const base = profilePositions(stack, stack.profile_Hz, level.pointsPerWavelength);
-    const x_m = fem && level.femSamples ? profileGridWithFem(stack, stack.profile_Hz, base, femOptions) : base;
+    const x_m = fem && level.femSamples ? profileGridWithFem(stack, stack.profile_Hz, base, femOptions, withH) : base;
     prof = profileTmm(stack, stack.profile_Hz, x_m);
-    profile = [scaledColumn('x_mm', prof.x_m, 1e3), ...complexColumns('E_tmm', prof.E_re, prof.E_im)];
+    profile = [scaledColumn('x_mm', prof.x_m, 1e3), ...profileColumns('tmm', prof, withH)];
     tmm_ms += now() - t0;
     if (fem) {
       t0 = now();
-      profile.push(...femProfileColumns(stack, stack.profile_Hz, x_m, femOptions));
+      profile.push(...femProfileColumns(stack, stack.profile_Hz, x_m, femOptions, withH));
       fem.time_ms += now() - t0;
     }
-  } else if (stack.incidence.angle_rad !== 0) {
-    warn(obliqueProfileWarning(angle_deg));
   }
   methods.push({ name: 'tmm', description: 'exact transfer-matrix solution', time_ms: round3(tmm_ms) });
   if (fem) methods.push({ name: 'fem', description: `frequency-domain FEM, Lagrange p = ${fem.mesh.order}`, time_ms: round3(fem.time_ms) });
@@ -151,7 +153,7 @@ function solveInChunks(stack: Stack, f_Hz: Float64Array, onDone: (fraction: numb
   return out;
 }
 
-/** A material as understood: model, parameters, provenance, and ε_r at the band centre. */
+/** A material as understood: model, parameters, provenance, and ε_r (and μ_r where set) at the band centre. */
 export function materialSummary(m: Material, stack: Stack): Record<string, unknown> {
   const { model, ...parameters } = m.spec;
   const out: Record<string, unknown> = { name: m.name, model, parameters, source: m.source, valid_GHz: m.valid_GHz };
@@ -161,6 +163,10 @@ export function materialSummary(m: Material, stack: Stack): Record<string, unkno
     const e = permittivity(m.spec, fc);
     out.eps_r_at_centre = { re: e.re, im: e.im === 0 ? 0 : e.im }; // no −0 in JSON
     out.sigma_S_per_m_at_centre = effectiveConductivity(m.spec, fc);
+    if (m.spec.magnetic !== undefined) {
+      const mu = permeability(m.spec, fc);
+      out.mu_r_at_centre = { re: mu.re, im: mu.im === 0 ? 0 : mu.im };
+    }
   }
   return out;
 }
@@ -179,7 +185,8 @@ function resultsInBrief(stack: Stack, sp: Spectrum): Record<string, unknown> {
     T_dB_min: stack.back === 'pec' ? null : round3(tMin), T_dB_max: stack.back === 'pec' ? null : round3(tMax),
   };
   // Incident and reflected powers separate only in a lossless front medium.
-  const frontLossless = [stack.band_Hz[0], stack.band_Hz[1]].every((f) => permittivity(stack.front.spec, f).im === 0);
+  const frontLossless = [stack.band_Hz[0], stack.band_Hz[1]].every((f) =>
+    permittivity(stack.front.spec, f).im === 0 && permeability(stack.front.spec, f).im === 0);
   if (frontLossless) {
     const A = absorption(stack, sp);
     let iMax = 0, aMin = Infinity;

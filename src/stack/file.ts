@@ -4,7 +4,7 @@
 import type { MaterialModel } from '../materials/types.ts';
 import type { Polarization, Stack } from './types.ts';
 import { ghzFromHz, mmFromM, degFromRad } from '../units.ts';
-import { catalogMaterial } from '../materials/catalog.ts';
+import { catalogMaterial, catalogRanges } from '../materials/catalog.ts';
 
 export interface StackFileLayer {
   /** A catalog name or a key of `materials`. */
@@ -78,7 +78,8 @@ export function toStackFile(stack: Stack): StackFile {
   const nameOf = (m: { name: string; spec: MaterialModel; valid_GHz: [number, number] | null; note?: string }): string => {
     const cat = catalogMaterial(m.name);
     const key = JSON.stringify([m.name, m.spec, m.valid_GHz, m.note ?? null]);
-    if (cat !== undefined && JSON.stringify(cat.spec) === JSON.stringify(m.spec)) return m.name;
+    // Any of the catalog's ranges for this name: the band picks the range again when the file is read.
+    if (catalogRanges(m.name).some((r) => JSON.stringify(r.spec) === JSON.stringify(m.spec))) return m.name;
     const known = written.get(key);
     if (known !== undefined) return known;
     const base = cat !== undefined ? `${m.name}-custom` : m.name;

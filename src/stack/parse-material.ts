@@ -1,8 +1,8 @@
 // Validation of one user material definition from a stack file's `materials` object.
 // Non-physical parameters are refused with the field named (materials.water.poles[0].tau_ps: must be > 0).
 
-import type { DebyePole, LorentzPole, MaterialModel, ModelName } from '../materials/types.ts';
-import { MODEL_NAMES } from '../materials/types.ts';
+import type { DebyePole, LorentzPole, MagneticModel, MagneticModelName, MaterialModel, ModelName } from '../materials/types.ts';
+import { MAGNETIC_MODEL_NAMES, MODEL_NAMES } from '../materials/types.ts';
 import type { StackFileMaterial } from './file.ts';
 import { STACK_LIMITS } from './file.ts';
 import {
@@ -20,6 +20,15 @@ const MODEL_KEYS: Record<ModelName, { required: readonly string[]; optional: rea
   sheet: { required: ['ohm_per_sq'], optional: [] },
 };
 const COMMON_KEYS = ['model', 'valid_GHz', 'note'] as const;
+/** Keys every bulk model takes besides its own (a sheet is told why it cannot). */
+const BULK_KEYS = ['magnetic'] as const;
+
+/** Keys of each permeability model in a `magnetic` block. */
+const MAGNETIC_KEYS: Record<MagneticModelName, { required: readonly string[]; optional: readonly string[] }> = {
+  fixed: { required: ['mu_r'], optional: ['mu_loss'] },
+  debye: { required: ['mu_inf', 'poles'], optional: [] },
+  lorentz: { required: ['mu_inf', 'poles'], optional: [] },
+};
 
 const atLeast = (lo: number) => (x: number) => x >= lo;
 const above = (lo: number) => (x: number) => x > lo;
@@ -47,7 +56,10 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
   }
   const model = modelValue as ModelName;
   const keys = MODEL_KEYS[model];
-  refuseUnknownKeys(p, def, path, [...COMMON_KEYS, ...keys.required, ...keys.optional]);
+  refuseUnknownKeys(p, def, path, [...COMMON_KEYS, ...BULK_KEYS, ...keys.required, ...keys.optional]);
+  if (model === 'sheet' && has(def, 'magnetic')) { // (listed above so it gets this message, not "unknown key")
+    p.error(joinKey(path, 'magnetic'), 'a sheet has no thickness and so no permeability; give the magnetic block to a bulk material');
+  }
   for (const k of keys.required) if (!has(def, k)) p.error(joinKey(path, k), `required for the ${model} model`);
 
   const num = (key: string, need: string, ok: (x: number) => boolean, fallback?: number): number | undefined => {
@@ -66,29 +78,13 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
     }
     case 'debye': {
       const eps_inf = epsInf(), s = sigma();
-      const poles = readPoles(p, own(def, 'poles'), has(def, 'poles'), joinKey(path, 'poles'), ['delta_eps', 'tau_ps'],
-        (pole, pp) => {
-          const delta_eps = readNumber(p, own(pole, 'delta_eps'), joinKey(pp, 'delta_eps'), 'a number ≥ 0', atLeast(0));
-          const tau_ps = readNumber(p, own(pole, 'tau_ps'), joinKey(pp, 'tau_ps'), 'a number > 0', above(0));
-          return delta_eps !== undefined && tau_ps !== undefined ? { delta_eps, tau_ps } as DebyePole : undefined;
-        });
+      const poles = readDebyePoles(p, def, path, 'delta_eps') as DebyePole[] | undefined;
       if (eps_inf !== undefined && s !== undefined && poles) spec = { model, eps_inf, poles, sigma_S_per_m: s };
       break;
     }
     case 'lorentz': {
       const eps_inf = epsInf(), s = sigma();
-      const poles = readPoles(p, own(def, 'poles'), has(def, 'poles'), joinKey(path, 'poles'), ['delta_eps', 'f0_GHz', 'gamma_GHz'],
-        (pole, pp) => {
-          const delta_eps = readNumber(p, own(pole, 'delta_eps'), joinKey(pp, 'delta_eps'), 'a number ≥ 0', atLeast(0));
-          const f0_GHz = readNumber(p, own(pole, 'f0_GHz'), joinKey(pp, 'f0_GHz'), 'a number > 0', above(0));
-          const gamma_GHz = readNumber(p, own(pole, 'gamma_GHz'), joinKey(pp, 'gamma_GHz'), 'a number ≥ 0', atLeast(0));
-          if (gamma_GHz === 0 && f0_GHz !== undefined && band_GHz && f0_GHz >= band_GHz[0] && f0_GHz <= band_GHz[1]) {
-            p.error(joinKey(pp, 'gamma_GHz'), `must be > 0 when the resonance f0_GHz = ${f0_GHz} lies inside the band (a lossless resonance is singular there)`);
-            return undefined;
-          }
-          return delta_eps !== undefined && f0_GHz !== undefined && gamma_GHz !== undefined
-            ? { delta_eps, f0_GHz, gamma_GHz } as LorentzPole : undefined;
-        });
+      const poles = readLorentzPoles(p, def, path, 'delta_eps', band_GHz) as LorentzPole[] | undefined;
       if (eps_inf !== undefined && s !== undefined && poles) spec = { model, eps_inf, poles, sigma_S_per_m: s };
       break;
     }
@@ -124,6 +120,10 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
     }
   }
 
+  // Read even when the permittivity has problems, so every problem is listed at once.
+  const magnetic = model !== 'sheet' && has(def, 'magnetic')
+    ? parseMagneticBlock(p, def.magnetic, joinKey(path, 'magnetic'), band_GHz) : undefined;
+  if (spec && spec.model !== 'sheet' && magnetic) spec.magnetic = magnetic;
   const out: StackFileMaterial | undefined = spec ? { ...spec } : undefined;
   if (has(def, 'valid_GHz')) {
     const v = readRange(p, def.valid_GHz, joinKey(path, 'valid_GHz'));
@@ -141,6 +141,73 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
     }
   }
   return p.count === before ? out : undefined;
+}
+
+/**
+ * A `magnetic` block at `path`: {"model": "fixed", "mu_r", "mu_loss"}, {"model": "debye", "mu_inf", "poles"}
+ * or {"model": "lorentz", "mu_inf", "poles"}, each parameter in the range a passive medium allows.
+ */
+export function parseMagneticBlock(p: Problems, def: unknown, path: string,
+  band_GHz: [number, number] | undefined): MagneticModel | undefined {
+  const names = MAGNETIC_MODEL_NAMES.join(', ');
+  const before = p.count;
+  if (!isRecord(def)) {
+    p.error(path, `must be an object such as {"model": "fixed", "mu_r": 2, "mu_loss": 0.5} (got ${describe(def)})`);
+    return undefined;
+  }
+  const modelValue = own(def, 'model');
+  if (!has(def, 'model')) { p.error(joinKey(path, 'model'), `required: one of ${names}`); return undefined; }
+  if (typeof modelValue !== 'string' || !(MAGNETIC_MODEL_NAMES as readonly string[]).includes(modelValue)) {
+    const near = typeof modelValue === 'string' ? suggest(modelValue, MAGNETIC_MODEL_NAMES) : undefined;
+    p.error(joinKey(path, 'model'), `unknown permeability model ${typeof modelValue === 'string' ? JSON.stringify(modelValue) : describe(modelValue)}${near ? ` (did you mean "${near}"?)` : ''}; one of ${names}`);
+    return undefined;
+  }
+  const model = modelValue as MagneticModelName;
+  const keys = MAGNETIC_KEYS[model];
+  refuseUnknownKeys(p, def, path, ['model', ...keys.required, ...keys.optional]);
+  for (const k of keys.required) if (!has(def, k)) p.error(joinKey(path, k), `required for the ${model} permeability model`);
+  const num = (key: string, need: string, ok: (x: number) => boolean, fallback?: number): number | undefined =>
+    has(def, key) ? readNumber(p, def[key], joinKey(path, key), need, ok) : fallback;
+  let out: MagneticModel | undefined;
+  if (model === 'fixed') {
+    const mu_r = num('mu_r', 'a number > 0', above(0));
+    const mu_loss = num('mu_loss', 'a number ≥ 0 (μ\'\' of a passive medium)', atLeast(0), 0);
+    if (mu_r !== undefined && mu_loss !== undefined) out = { model, mu_r, mu_loss };
+  } else {
+    const mu_inf = num('mu_inf', 'a number ≥ 1', atLeast(1));
+    const poles = model === 'debye' ? readDebyePoles(p, def, path, 'delta_mu') : readLorentzPoles(p, def, path, 'delta_mu', band_GHz);
+    if (mu_inf !== undefined && poles) {
+      out = model === 'debye'
+        ? { model, mu_inf, poles: poles as { delta_mu: number; tau_ps: number }[] }
+        : { model, mu_inf, poles: poles as { delta_mu: number; f0_GHz: number; gamma_GHz: number }[] };
+    }
+  }
+  return p.count === before ? out : undefined;
+}
+
+/** Debye poles {<strength>, tau_ps} of `def.poles`, the strength key being delta_eps or delta_mu. */
+function readDebyePoles(p: Problems, def: Record<string, unknown>, path: string, strength: string): Record<string, number>[] | undefined {
+  return readPoles(p, own(def, 'poles'), has(def, 'poles'), joinKey(path, 'poles'), [strength, 'tau_ps'], (pole, pp) => {
+    const delta = readNumber(p, own(pole, strength), joinKey(pp, strength), 'a number ≥ 0', atLeast(0));
+    const tau_ps = readNumber(p, own(pole, 'tau_ps'), joinKey(pp, 'tau_ps'), 'a number > 0', above(0));
+    return delta !== undefined && tau_ps !== undefined ? { [strength]: delta, tau_ps } : undefined;
+  });
+}
+
+/** Lorentz poles {<strength>, f0_GHz, gamma_GHz}; a lossless resonance inside the band is refused. */
+function readLorentzPoles(p: Problems, def: Record<string, unknown>, path: string, strength: string,
+  band_GHz: [number, number] | undefined): Record<string, number>[] | undefined {
+  return readPoles(p, own(def, 'poles'), has(def, 'poles'), joinKey(path, 'poles'), [strength, 'f0_GHz', 'gamma_GHz'], (pole, pp) => {
+    const delta = readNumber(p, own(pole, strength), joinKey(pp, strength), 'a number ≥ 0', atLeast(0));
+    const f0_GHz = readNumber(p, own(pole, 'f0_GHz'), joinKey(pp, 'f0_GHz'), 'a number > 0', above(0));
+    const gamma_GHz = readNumber(p, own(pole, 'gamma_GHz'), joinKey(pp, 'gamma_GHz'), 'a number ≥ 0', atLeast(0));
+    if (gamma_GHz === 0 && f0_GHz !== undefined && band_GHz && f0_GHz >= band_GHz[0] && f0_GHz <= band_GHz[1]) {
+      p.error(joinKey(pp, 'gamma_GHz'), `must be > 0 when the resonance f0_GHz = ${f0_GHz} lies inside the band (a lossless resonance is singular there)`);
+      return undefined;
+    }
+    return delta !== undefined && f0_GHz !== undefined && gamma_GHz !== undefined
+      ? { [strength]: delta, f0_GHz, gamma_GHz } : undefined;
+  });
 }
 
 /** A list of 1..maxPoles pole objects, each read by `readPole`. */

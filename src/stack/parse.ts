@@ -6,7 +6,7 @@
 // null-prototype records, so nothing a file says can reach an object's prototype.
 
 import type { BulkModel, Material, SheetModel } from '../materials/types.ts';
-import { catalogMaterial, catalogNames } from '../materials/catalog.ts';
+import { catalogNames, catalogRanges, pickRange } from '../materials/catalog.ts';
 import { hzFromGHz, mFromMm, radFromDeg } from '../units.ts';
 import type { BulkMaterial, Layer, Polarization, SheetMaterial, Stack } from './types.ts';
 import type { StackFile, StackFileLayer, StackFileMaterial } from './file.ts';
@@ -18,7 +18,7 @@ import {
   refuseForbiddenKeys, refuseUnknownKeys, suggest,
 } from './problems.ts';
 import { unsafeTextProblem } from './text.ts';
-import { fmtGHz, obliqueProfileWarning, stackWarnings } from './warnings.ts';
+import { fmtGHz, stackWarnings } from './warnings.ts';
 
 export type ParseResult =
   | { ok: true; stack: Stack; file: StackFile; warnings: string[] }
@@ -52,7 +52,7 @@ export function parseStackObject(obj: unknown): ParseResult {
   const points = readPoints(p, obj);
   const incidence = readIncidence(p, obj);
   const user = readUserMaterials(p, obj, band);
-  const resolve = (name: string) => resolveMaterial(name, user.valid);
+  const resolve = (name: string) => resolveMaterial(name, user.valid, band);
   const front = readHalfSpace(p, obj, 'front', user.names, resolve);
   const back = readHalfSpace(p, obj, 'back', user.names, resolve);
   const layers = readLayers(p, obj, user.names, resolve);
@@ -84,12 +84,9 @@ export function parseStackObject(obj: unknown): ParseResult {
     points,
   };
 
-  // Warnings: unused definitions, a profile that will not be drawn, then the stack's own warnings.
+  // Warnings: unused definitions, a profile outside the band, then the stack's own warnings.
   const used = new Set<string>([file.front, file.back, ...file.layers.map((l) => l.material)]);
   for (const name of user.defs.keys()) if (!used.has(name)) p.warn(joinKey('materials', name), 'defined but not used');
-  if (incidence.angle_deg > 0 && has(obj, 'profile_GHz')) {
-    p.warnings.push(obliqueProfileWarning(incidence.angle_deg));
-  }
   if (file.profile_GHz < band[0] || file.profile_GHz > band[1]) {
     p.warn('profile_GHz', `${fmtGHz(file.profile_GHz)} GHz lies outside the band ${fmtGHz(band[0])}–${fmtGHz(band[1])} GHz`);
   }
@@ -201,12 +198,13 @@ function readUserMaterials(p: Problems, o: Record<string, unknown>, band: [numbe
   return out;
 }
 
-/** A catalog material (a private copy) or a valid user material. */
-function resolveMaterial(name: string, user: Map<string, Material>): Material | undefined {
+/** A valid user material, or a catalog material (a private copy) in the validity range the band uses. */
+function resolveMaterial(name: string, user: Map<string, Material>, band: [number, number] | undefined): Material | undefined {
   const u = user.get(name);
   if (u !== undefined) return u;
-  const c = catalogMaterial(name);
-  return c === undefined ? undefined : structuredClone(c);
+  const ranges = catalogRanges(name);
+  if (ranges.length === 0) return undefined;
+  return structuredClone(band ? pickRange(ranges, band[0], band[1]).range : ranges[0]);
 }
 
 /** Report an unknown name (unless it is defined but invalid, which is reported already). */

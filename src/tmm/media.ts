@@ -2,11 +2,13 @@
 // wavenumber k_x and wave admittance, and the sheet conductance at each interface.
 //
 // Geometry: the wave travels along +x; x = 0 is the front face. For oblique incidence the
-// transverse wavenumber k_t = k0 √ε_front sin θ is conserved (phase matching), and each region has
-// k_x = k0 √(ε_r − ε_front sin²θ), branch chosen with Im k_x ≤ 0 so e^{−j k_x x} decays forward.
-// Admittance Y = H_t / E_t of a forward wave: TE  Y = k_x / (ω μ0);  TM  Y = ω ε0 ε_r / k_x.
+// transverse wavenumber k_t = k0 √(ε_front μ_front) sin θ is conserved (phase matching), and each region
+// has k_x = k0 √(ε_r μ_r − ε_front μ_front sin²θ), branch chosen with Im k_x ≤ 0 so e^{−j k_x x} decays
+// forward (Born & Wolf §1.6; Orfanidis ch. 7).
+// Admittance Y = H_t / E_t of a forward wave: TE  Y = k_x / (ω μ0 μ_r);  TM  Y = ω ε0 ε_r / k_x.
 
-import { type Complex, decayingSqrtInto, div, scale } from '../complex.ts';
+import { type Complex, decayingSqrtInto, div, mul, scale } from '../complex.ts';
+import { permeability } from '../materials/permeability.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import type { BulkMaterial, Stack } from '../stack/types.ts';
 import { C0_m_per_s, EPS0_F_per_m, MU0_H_per_m } from '../units.ts';
@@ -14,6 +16,8 @@ import { C0_m_per_s, EPS0_F_per_m, MU0_H_per_m } from '../units.ts';
 /** One homogeneous region at one frequency. */
 export interface Region {
   eps: Complex;
+  /** Relative permeability (1 for a non-magnetic medium). */
+  mu: Complex;
   /** Longitudinal wavenumber, rad/m, Im ≤ 0. */
   kx: Complex;
   /** Wave admittance H_t/E_t of a forward wave, siemens. */
@@ -34,19 +38,23 @@ export interface StackAtFrequency {
   interface_m: Float64Array;
 }
 
+const ONE: Complex = Object.freeze({ re: 1, im: 0 });
+
 /**
- * A region of relative permittivity `eps` at f_Hz, for a transverse wavenumber with (k_t/k0)² =
- * kt2_over_k02 (zero at normal incidence).
+ * A region of relative permittivity `eps` (and permeability `mu`, default 1) at f_Hz, for a transverse
+ * wavenumber with (k_t/k0)² = kt2_over_k02 (zero at normal incidence).
  */
-export function regionOf(eps: Complex, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region {
+export function regionOf(eps: Complex, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM',
+  mu: Complex = ONE): Region {
   const w = 2 * Math.PI * f_Hz;
   const k0 = w / C0_m_per_s;
-  const q = awayFromGrazing(decayingSqrtInto({ re: 0, im: 0 }, eps.re - kt2_over_k02.re, eps.im - kt2_over_k02.im)); // k_x / k0
+  const n2 = mul(eps, mu); // ε_r μ_r
+  const q = awayFromGrazing(decayingSqrtInto({ re: 0, im: 0 }, n2.re - kt2_over_k02.re, n2.im - kt2_over_k02.im)); // k_x / k0
   const kx = scale(q, k0);
   const Y = pol === 'TE'
-    ? scale(kx, 1 / (w * MU0_H_per_m))
+    ? div(kx, scale(mu, w * MU0_H_per_m))
     : div(scale(eps, w * EPS0_F_per_m), kx);
-  return { eps, kx, Y, thickness_m };
+  return { eps, mu, kx, Y, thickness_m };
 }
 
 /**
@@ -63,14 +71,14 @@ function awayFromGrazing(q: Complex): Complex {
 }
 
 const region = (material: BulkMaterial, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region =>
-  regionOf(permittivity(material.spec, f_Hz), thickness_m, f_Hz, kt2_over_k02, pol);
+  regionOf(permittivity(material.spec, f_Hz), thickness_m, f_Hz, kt2_over_k02, pol, permeability(material.spec, f_Hz));
 
 /** Evaluates every region of the stack at f_Hz for the stack's incidence. */
 export function stackAtFrequency(stack: Stack, f_Hz: number): StackAtFrequency {
   const { angle_rad, polarization } = stack.incidence;
-  const epsFront = permittivity(stack.front.spec, f_Hz);
+  const nFront2 = mul(permittivity(stack.front.spec, f_Hz), permeability(stack.front.spec, f_Hz)); // ε_f μ_f
   const s = Math.sin(angle_rad);
-  const kt2 = scale(epsFront, s * s); // (k_t / k0)²
+  const kt2 = scale(nFront2, s * s); // (k_t / k0)²
   const front = region(stack.front, Infinity, f_Hz, kt2, polarization);
   const layers: Region[] = [];
   const sheetG = new Float64Array(stack.layers.filter((l) => l.kind === 'bulk').length + 1);

@@ -1,43 +1,59 @@
-// The exact standing-wave profile E(x) at one frequency (normal incidence), and the positions
-// at which every method samples it.
+// The exact standing-wave profile at one frequency and any incidence: tangential E and H along the
+// normal line, and the positions at which every method samples it.
 
-import { add, mul, sqrt } from '../complex.ts';
+import { type Complex, add, cx, div, mul, sqrt, sub } from '../complex.ts';
+import { permeability } from '../materials/permeability.ts';
 import { permittivity } from '../materials/permittivity.ts';
+import type { BulkModel } from '../materials/types.ts';
 import type { Profile } from '../results.ts';
 import type { Stack } from '../stack/types.ts';
 import { C0_m_per_s } from '../units.ts';
-import { stackAtFrequency } from './media.ts';
-import { fieldInLayer, solveAt, wave } from './recursion.ts';
+import { type StackAtFrequency, stackAtFrequency } from './media.ts';
+import { type Solution, fieldInLayer, solveAt, wave } from './recursion.ts';
 
 /**
- * Total tangential E at each x (metres, x = 0 the front face), incident amplitude 1 at x = 0.
- * In front: e^{−jkx} + R e^{+jkx}; inside a layer from its own amplitudes; behind: T e^{−jk(x−d)}.
+ * Total tangential E and H at each x (metres, x = 0 the front face), each over its incident value at x = 0.
+ * In front: E = e^{−jkx} + R e^{+jkx}, H = e^{−jkx} − R e^{+jkx}; inside a layer from its own amplitudes
+ * (H_t = Y · forward − Y · backward); behind: E = T e^{−jk(x−d)}, H = (Y_back/Y_front) E. At an interface
+ * the value just behind it is given (H jumps across a resistive sheet); behind a conductor both are 0.
  */
 export function profileTmm(stack: Stack, f_Hz: number, x_m: Float64Array): Profile {
   const s = stackAtFrequency(stack, f_Hz);
   const sol = solveAt(s);
   const n = x_m.length;
-  const E_re = new Float64Array(n), E_im = new Float64Array(n);
-  const faces = s.interface_m, d = faces[faces.length - 1];
-  let layer = 0;
+  const E_re = new Float64Array(n), E_im = new Float64Array(n), H_re = new Float64Array(n), H_im = new Float64Array(n);
   for (let k = 0; k < n; k++) {
-    const x = x_m[k];
-    let E;
-    if (x < 0) {
-      E = add(wave(s.front, x), mul(sol.R, wave(s.front, -x)));
-    } else if (x > d || s.layers.length === 0) {
-      E = s.back ? mul(sol.T, wave(s.back, x - d)) : { re: 0, im: 0 };
-    } else {
-      // Positions may come in any order; find the layer holding x (the first, at a shared face).
-      if (!(x >= faces[layer] && x <= faces[layer + 1])) {
-        layer = 0;
-        while (layer < s.layers.length - 1 && x > faces[layer + 1]) layer++;
-      }
-      E = fieldInLayer(s, sol, layer, x - faces[layer]);
-    }
-    E_re[k] = E.re; E_im[k] = E.im;
+    const { E, H } = fieldsAt(s, sol, x_m[k]);
+    E_re[k] = E.re; E_im[k] = E.im; H_re[k] = H.re; H_im[k] = H.im;
   }
-  return { f_Hz, x_m, E_re, E_im };
+  return { f_Hz, x_m, E_re, E_im, H_re, H_im };
+}
+
+const ZERO = cx(0);
+
+/** Tangential E and H (each over its incident value at x = 0) at x, in the region whose front face is the last ≤ x. */
+function fieldsAt(s: StackAtFrequency, sol: Solution, x: number): { E: Complex; H: Complex } {
+  const faces = s.interface_m, n = s.layers.length, d = faces[n];
+  if (x < 0 || (x === 0 && n === 0 && s.back === null)) { // (a bare conductor at x = 0: its front side)
+    const inc = wave(s.front, x), ref = mul(sol.R, wave(s.front, -x));
+    return { E: add(inc, ref), H: sub(inc, ref) };
+  }
+  if (x >= d && (s.back !== null || n === 0 || x > d)) {
+    if (s.back === null) return { E: ZERO, H: ZERO };
+    const E = mul(sol.T, wave(s.back, x - d));
+    return { E, H: mul(E, div(s.back.Y, s.front.Y)) };
+  }
+  let i = 0; // x < d here (or x = d on a conductor: the last layer's back face)
+  while (i < n - 1 && x >= faces[i + 1]) i++;
+  const z = x - faces[i];
+  const E = fieldInLayer(s, sol, i, z);
+  return { E, H: mul(currentInLayer(s, sol, i, z), div(s.layers[i].Y, s.front.Y)) };
+}
+
+/** Forward minus backward wave at depth z inside bulk layer i (the tangential H over that layer's Y). */
+function currentInLayer(s: StackAtFrequency, sol: Solution, i: number, z: number): Complex {
+  const L = s.layers[i];
+  return mul(sol.A[i], sub(wave(L, z), mul(sol.gammaBack[i], wave(L, 2 * L.thickness_m - z))));
 }
 
 /** How far (in nepers of growth) a profile reaches into a lossy front medium. */
@@ -54,13 +70,13 @@ interface ProfileSegment { a: number; b: number; m: number; includeEnd: boolean 
  */
 function profileSegments(stack: Stack, f_Hz: number, pointsPerWavelength: number, minPerLayer: number): ProfileSegment[] {
   const lambda0 = C0_m_per_s / f_Hz;
-  const lambdaIn = (spec: Parameters<typeof permittivity>[0]) => {
-    const n = sqrt(permittivity(spec, f_Hz)).re; // Re √ε
+  const lambdaIn = (spec: BulkModel) => {
+    const n = sqrt(mul(permittivity(spec, f_Hz), permeability(spec, f_Hz))).re; // Re √(εμ)
     return lambda0 / Math.max(n, 1e-6);
   };
   // In a lossy front medium the total field grows towards −x (relative to the incident wave at x = 0): stop
   // where it has grown by e^FRONT_GROWTH_NP, long before it leaves the range of a double.
-  const frontLoss_per_m = (2 * Math.PI / lambda0) * Math.abs(sqrt(permittivity(stack.front.spec, f_Hz)).im);
+  const frontLoss_per_m = (2 * Math.PI / lambda0) * Math.abs(sqrt(mul(permittivity(stack.front.spec, f_Hz), permeability(stack.front.spec, f_Hz))).im);
   const out: ProfileSegment[] = [];
   const segment = (a: number, b: number, step: number, minPoints: number, includeEnd: boolean) => {
     out.push({ a, b, m: Math.max(minPoints, Math.ceil((b - a) / step)), includeEnd });

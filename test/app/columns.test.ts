@@ -46,12 +46,27 @@ describe('reduceColumns', () => {
     expect(Array.from(line.starts.subarray(0, line.startCount))).toEqual([0, 2]);
   });
 
-  it('keeps the nearest samples beyond each end so a curve reaches the edges', () => {
+  it('cuts the curve at the edges of the range, at the values interpolated there', () => {
+    // Straight-line interpolation between the samples either side of each edge (closed form).
     const x = Float64Array.from([-2, -1, 0.5, 1.5, 3, 4]);
     const y = Float64Array.from([9, 1, 2, 3, 4, 9]);
     const line = reduceColumns(x, y, 6, 0, 2, 100, columnPolyline(100));
-    expect(Array.from(line.y.subarray(0, line.count))).toEqual([1, 2, 3, 4]);
-    expect(line.px[0]).toBeLessThan(0);
-    expect(line.px[line.count - 1]).toBeGreaterThan(100);
+    const ys = Array.from(line.y.subarray(0, line.count));
+    expect(ys.length).toBe(4);
+    expect(ys[0]).toBeCloseTo(1 + 1 / 1.5, 12);
+    expect(ys.slice(1, 3)).toEqual([2, 3]);
+    expect(ys[3]).toBeCloseTo(3 + 0.5 / 1.5, 12);
+    expect(line.px[0]).toBe(0);
+    expect(line.px[line.count - 1]).toBe(100);
+  });
+
+  it('draws a segment that spans the whole range (zoomed in between two samples) edge to edge', () => {
+    const x = Float64Array.from([-10, 10]);
+    const y = Float64Array.from([-1, 1]);
+    const line = reduceColumns(x, y, 2, -1, 1, 50, columnPolyline(50));
+    expect(line.count).toBe(2);
+    expect(line.y[0]).toBeCloseTo(-0.1, 12);
+    expect(line.y[1]).toBeCloseTo(0.1, 12);
+    expect([line.px[0], line.px[1]]).toEqual([0, 50]);
   });
 });

@@ -1,18 +1,26 @@
 // End-to-end tests of the workbench in Debian's headless chromium (playwright-core), against the
 // static build served from a nested path. Screenshots of each view go to test-artifacts/ (not in git).
-// What they check comes from the workbench issue: a clean load with no outside request, a moving
-// field view, a WebM clip (EBML magic 1A 45 DF A3, the Matroska/WebM spec), CSV exports with the
-// CLI's columns and numbers, a refused import that keeps the stack, an edit that survives a reload.
+// What they check comes from the workbench issues: a clean load with no outside request, a moving
+// field view framed around the stack, zoom, clips whose containers carry their duration (read back
+// with mediabunny's demuxer; WebM's EBML magic 1A 45 DF A3 from the Matroska spec, MP4's "ftyp" box
+// from ISO/IEC 14496-12) and that start as the pulse reaches the stack, one zip export (read back with
+// fflate) whose CSVs equal the CLI's, chart readouts equal to the exact solver run in node, refused
+// input named by field, the preset menu's name after an import and a reload, the layout at 1024 px.
 
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Download, Page } from 'playwright-core';
+import { unzipSync } from 'fflate';
+import { ALL_FORMATS, BufferSource, Input } from 'mediabunny';
 import { buildApp, launch, removeDir, ROOT, serveStatic, type Browser, type StaticSite } from './harness.ts';
-import { parseStackText } from '../../src/stack/parse.ts';
-import { runReport } from '../../src/report/run.ts';
+import { parseStackObject, parseStackText } from '../../src/stack/parse.ts';
+import { runReport, type RunReport } from '../../src/report/run.ts';
 import { formatEchoesCsv } from '../../src/report/echo-table.ts';
-import { formatCsv } from '../../src/report/table.ts';
+import { findColumn, formatCsv } from '../../src/report/table.ts';
+import { solveTmm } from '../../src/tmm/solve.ts';
+import { stackThickness_m } from '../../src/stack/types.ts';
+import type { WorkbenchProbe, WorkbenchStats } from '../../src/app/stats.ts';
 
 const ARTIFACTS = join(ROOT, 'test-artifacts');
 const VIEWS = ['field-view', 'trace-view', 'spectrum-view', 'profile-view'] as const;
@@ -24,8 +32,47 @@ let page: Page;
 const consoleProblems: string[] = [];
 const outside: string[] = [];
 
-interface Stats { fieldRenders: number; renderer: string; step: number; playing: boolean; version: number; solvedVersion: number; reportVersion: number; lastEditToUpdate_ms: number | null }
+type Stats = WorkbenchStats;
 const stats = (): Promise<Stats> => page.evaluate(() => (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats);
+type Probe = WorkbenchProbe;
+/** Call the page's probe (chart and field-view geometry) with JSON-able arguments. */
+const probe = <K extends keyof Probe>(name: K, ...args: Parameters<Probe[K]>): Promise<ReturnType<Probe[K]>> =>
+  page.evaluate(([n, a]) => {
+    const p = (window as unknown as { slabecho: { probe: Record<string, (...x: unknown[]) => unknown> } }).slabecho.probe;
+    return p[n as string](...(a as unknown[]));
+  }, [name, args] as const) as Promise<ReturnType<Probe[K]>>;
+const C0 = 299_792_458;
+/** The engine's pulse envelope exp(−(t/τ)²) has its band edges 12 dB down: τ = √(12 ln 10 / 20) / (π Δf/2) (Gaussian spectrum, closed form). */
+const tauOfBand = (f1_GHz: number, f2_GHz: number): number => Math.sqrt((12 * Math.LN10) / 20) / (Math.PI * ((f2_GHz - f1_GHz) / 2) * 1e9);
+const DEFAULT_PRESET = JSON.parse(readFileSync(join(ROOT, 'presets', 'default.stack.json'), 'utf8')) as { title: string; band_GHz: [number, number] };
+/** The default preset's file name stem: its title with spaces as hyphens (the workbench's rule). */
+const DEFAULT_STEM = DEFAULT_PRESET.title.replace(/ /g, '-');
+
+/** runReport of a stack file's text, once per text (the CLI's pipeline, in node). */
+const reports = new Map<string, Promise<RunReport>>();
+function nodeReport(text: string): Promise<RunReport> {
+  let r = reports.get(text);
+  if (r === undefined) {
+    const parsed = parseStackText(text);
+    if (!parsed.ok) throw new Error(parsed.errors.join('; '));
+    r = runReport(parsed.stack, { inputWarnings: parsed.warnings });
+    reports.set(text, r);
+  }
+  return r;
+}
+
+async function choosePreset(name: string): Promise<void> {
+  await page.locator('[data-testid="preset"] select').selectOption(name);
+  await page.waitForFunction(() => {
+    const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+    return s.solvedVersion === s.version && s.field.grid;
+  });
+}
+
+const presetShown = (): Promise<string> => page.locator('[data-testid="preset"] select').evaluate((el) => {
+  const s = el as HTMLSelectElement;
+  return s.options[s.selectedIndex]?.text ?? '';
+});
 
 async function openPage(): Promise<Page> {
   const p = await browser.context.newPage();
@@ -96,7 +143,8 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(await page.title()).toContain('slabecho');
     const csp = await page.locator('meta[http-equiv="Content-Security-Policy"]').getAttribute('content');
     expect(csp).toContain("default-src 'self'");
-    for (const id of VIEWS) await expect(page.locator(`[data-testid="${id}"] canvas`).count()).resolves.toBe(1);
+    // One picture canvas per view (the charts' cursor overlay is a second, empty canvas).
+    for (const id of VIEWS) await expect(page.locator(`[data-testid="${id}"] canvas:not(.chart-overlay)`).count()).resolves.toBe(1);
     expect(site.log.filter((r) => r.status >= 400)).toEqual([]);
     expect(site.log.some((r) => r.path.endsWith('/favicon.svg') && r.status === 200)).toBe(true);
     expect(outside).toEqual([]);
@@ -128,35 +176,72 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await page.waitForFunction((n) => (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats.step > n, paused.step);
   });
 
-  it('records a WebM clip of the field view', async () => {
-    await page.click('[data-testid="reset"]');
-    const [clip] = await downloadsOf(async () => {
-      await page.click('[data-testid="record"]');
-      await page.waitForTimeout(2500);
-      await page.click('[data-testid="record"]');
-    }, 1);
-    expect(clip).toBeDefined();
-    const title = await page.locator('[data-testid="stack-title"]').textContent();
-    expect(clip.suggestedFilename()).toBe(`${title}.webm`);
-    const bytes = await saved(clip);
-    // EBML header magic of Matroska/WebM files.
-    expect([...bytes.subarray(0, 4)]).toEqual([0x1a, 0x45, 0xdf, 0xa3]);
-    expect(bytes.length).toBeGreaterThan(5_000);
-    expect(bytes.length).toBeLessThan(50_000_000);
+  it('records clips frame by frame (WebM/VP9 and MP4/H.264) that carry their duration and start as the pulse reaches the front face', async () => {
+    const length = page.locator('[data-testid="clip-length"] input').last();
+    await length.fill('2');
+    await length.press('Enter');
+    const fileText = JSON.stringify(DEFAULT_PRESET);
+    for (const [format, ext] of [['WebM (VP9)', 'webm'], ['MP4 (H.264)', 'mp4']] as const) {
+      await page.locator('[data-testid="clip-format"] select').selectOption(format);
+      const [clip] = await downloadsOf(() => page.click('[data-testid="record"]'), 1, 90_000);
+      expect(clip, format).toBeDefined();
+      expect(clip.suggestedFilename()).toBe(`${DEFAULT_STEM}.${ext}`);
+      const bytes = await saved(clip);
+      if (ext === 'webm') expect([...bytes.subarray(0, 4)]).toEqual([0x1a, 0x45, 0xdf, 0xa3]);
+      else expect(bytes.subarray(4, 8).toString('latin1')).toBe('ftyp');
+      // The container's own duration (what players show), read by an independent demuxer.
+      const input = new Input({ source: new BufferSource(bytes), formats: ALL_FORMATS });
+      const meta = await input.getDurationFromMetadata();
+      const s = await stats();
+      const c = s.lastClip!;
+      expect(c.frames).toBeGreaterThan(30);
+      expect(meta).not.toBeNull();
+      expect(meta!).toBeGreaterThan(0);
+      expect(Math.abs(meta! - c.frames / c.fps)).toBeLessThanOrEqual(1.5 / c.fps);
+      expect(Math.abs(c.duration_s - 2)).toBeLessThanOrEqual(0.2);
+      expect(await input.getMimeType()).toMatch(ext === 'webm' ? /vp09|vp8/ : /avc1/);
+      input.dispose();
+    }
+    // The clip starts within one pulse width before the incident pulse reaches the front face. The arrival is
+    // the energy centroid of the incident record at x = 0 that `slabecho run` writes (for a pulse with a
+    // symmetric envelope the centroid is the envelope's peak); the width is the envelope's FWHM, 2τ√ln 2.
+    const rep = await nodeReport(fileText);
+    const t = findColumn(rep.trace, 't_ns')!.data, inc = findColumn(rep.trace, 'E_incident')!.data;
+    let m0 = 0, m1 = 0;
+    for (let i = 0; i < t.length; i++) { m0 += inc[i] * inc[i]; m1 += t[i] * inc[i] * inc[i]; }
+    const arrival_ns = m1 / m0;
+    const fwhm_ns = 2 * tauOfBand(...DEFAULT_PRESET.band_GHz) * Math.sqrt(Math.LN2) * 1e9;
+    const c = (await stats()).lastClip!;
+    expect(c.start_ns).toBeLessThanOrEqual(arrival_ns);
+    expect(c.start_ns).toBeGreaterThanOrEqual(arrival_ns - fwhm_ns);
+    expect(c.end_ns).toBeGreaterThan(arrival_ns + fwhm_ns);
+    await expect(page.locator('[data-testid="msg-record"]').textContent()).resolves.toMatch(/Clip saved/);
   });
 
-  it('exports the CLI\'s tables (same columns, same numbers), the stack file, the summary and a PNG per view', async () => {
+  it('exports one zip named from the title and the date, holding the CLI\'s tables (same columns, same numbers), the summary, the stack file, a PNG per view and the clip', async () => {
     await page.waitForFunction(() => ['done', 'failed'].includes(document.querySelector<HTMLElement>('[data-testid="run-status"]')?.dataset.state ?? ''), undefined, { timeout: 150_000 });
     await expect(page.locator('[data-testid="run-status"]').getAttribute('data-state')).resolves.toBe('done');
     // The page says how far the three methods agree, with the targets (the figures come from the report).
     const agreement = await page.locator('[data-testid="agreement"]').textContent();
     expect(agreement).toMatch(/FEM vs exact.*met/s);
     expect(agreement).toMatch(/FDTD vs exact/);
-    const files = await downloadsOf(() => page.click('[data-testid="export"]'), 10);
+    const day = (d: Date): string => `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
+    const before = day(new Date());
+    const files = await downloadsOf(() => page.click('[data-testid="export"]'), 2, 3_000); // a second download would be a fault
+    expect(files).toHaveLength(1);
+    const zipName = files[0].suggestedFilename();
+    expect([`${DEFAULT_STEM}-${before}.zip`, `${DEFAULT_STEM}-${day(new Date())}.zip`]).toContain(zipName);
+    const folder = zipName.replace(/\.zip$/, '');
+    const unzipped = unzipSync(new Uint8Array(await saved(files[0])));
     const byName = new Map<string, Buffer>();
-    for (const d of files) byName.set(d.suggestedFilename(), await saved(d));
-    expect([...byName.keys()].sort()).toEqual(expect.arrayContaining(
-      ['spectrum.csv', 'profile.csv', 'echoes.csv', 'trace.csv', 'summary.json', ...VIEWS.map((v) => `${v}.png`)]));
+    for (const [path, data] of Object.entries(unzipped)) {
+      expect(path.startsWith(`${folder}/`), path).toBe(true);
+      byName.set(path.slice(folder.length + 1), Buffer.from(data));
+    }
+    expect([...byName.keys()].sort()).toEqual([
+      'README.txt', `${DEFAULT_STEM}.mp4`, `${DEFAULT_STEM}.stack.json`, 'echoes.csv', ...VIEWS.map((v) => `${v}.png`),
+      'profile.csv', 'spectrum.csv', 'summary.json', 'trace.csv',
+    ].sort());
     const text = (n: string): string => { const b = byName.get(n); expect(b, n).toBeDefined(); return b!.toString('utf8'); };
     const header = (n: string): string => text(n).split('\n')[0];
     expect(header('spectrum.csv')).toMatch(/^f_GHz,R_tmm_re,R_tmm_im,T_tmm_re,T_tmm_im/);
@@ -170,12 +255,9 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     // same tables: same header, same rows, same paths, numbers equal to 1e-9 (relative above 1). The
     // browser's and node's JavaScript engines may differ in the last bits of a few Math functions;
     // the echo fit's iterations amplify that, so echo delays and levels are held to 1e-6.
-    const stackName = [...byName.keys()].find((n) => n.endsWith('.stack.json'));
-    expect(stackName).toBeDefined();
-    const parsed = parseStackText(text(stackName!));
-    expect(parsed.ok).toBe(true);
-    if (!parsed.ok) return;
-    const cli = await runReport(parsed.stack, { inputWarnings: parsed.warnings });
+    const stackText = text(`${DEFAULT_STEM}.stack.json`);
+    expect(parseStackText(stackText).ok).toBe(true);
+    const cli = await nodeReport(stackText);
     const expected: Record<string, string> = {
       'spectrum.csv': formatCsv(cli.spectrum),
       'profile.csv': formatCsv(cli.profile),
@@ -188,12 +270,14 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
       expect(png, `${v}.png`).toBeDefined();
       expect([...png!.subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
     }
+    expect(byName.get(`${DEFAULT_STEM}.mp4`)!.subarray(4, 8).toString('latin1')).toBe('ftyp');
+    expect(text('README.txt')).toMatch(/licensed professional practice/);
     for (const v of VIEWS) await page.locator(`[data-testid="${v}"]`).screenshot({ path: join(ARTIFACTS, `${v}.png`) });
     await page.screenshot({ path: join(ARTIFACTS, 'workbench.png'), fullPage: true });
   });
 
   it('switches the spectrum to phase and group delay and the echoes to a dB envelope (each redraws the chart)', async () => {
-    const pixels = (id: string): Promise<string> => page.locator(`[data-testid="${id}"] canvas`).evaluate((c) => (c as HTMLCanvasElement).toDataURL());
+    const pixels = (id: string): Promise<string> => page.locator(`[data-testid="${id}"] canvas.chart-canvas`).evaluate((c) => (c as HTMLCanvasElement).toDataURL());
     const seen = new Set([await pixels('spectrum-view')]);
     for (const mode of ['phase', 'group delay', 'magnitude']) {
       await page.locator('[data-testid="spectrum-mode"] select').selectOption(mode);
@@ -208,6 +292,155 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await page.locator('[data-testid="trace-view"]').screenshot({ path: join(ARTIFACTS, 'trace-view-envelope.png') });
     await page.locator('[data-testid="envelope"] input').uncheck();
     await expect.poll(() => pixels('trace-view')).toBe(plain);
+  });
+
+  it('reads every series off the spectrum at the cursor (the exact solver in node gives the same values at 5.2 GHz), zooms to a dragged box and back, and switches to a log frequency axis and linear magnitudes', async () => {
+    const rows = async (): Promise<{ head: string; rows: Array<{ group: string; label: string; value: string }> }> =>
+      page.locator('[data-testid="spectrum-view-readout"]').evaluate((el) => {
+        let group = '';
+        const out: Array<{ group: string; label: string; value: string }> = [];
+        for (const c of Array.from(el.children)) {
+          if (c.classList.contains('readout-group')) group = c.textContent ?? '';
+          if (c.classList.contains('readout-row')) out.push({ group, label: c.querySelector('.readout-label')?.textContent ?? '', value: c.querySelector('.readout-value')?.textContent ?? '' });
+        }
+        return { head: el.querySelector('.readout-head')?.textContent ?? '', rows: out };
+      });
+    const hover = async (f_GHz: number, panel = 0): Promise<void> => {
+      const pt = await probe('chartPoint', 'spectrum-view', f_GHz, panel);
+      expect(pt).not.toBeNull();
+      await page.mouse.move(pt!.x, pt!.y);
+      await expect.poll(async () => (await rows()).head).toContain('f = ');
+    };
+    const num = (v: string): number => Number(v.replace('−', '-').replace(/\s*dB$/, ''));
+    // The exact solution in node, at the frequency under the cursor.
+    const parsed = parseStackObject(DEFAULT_PRESET);
+    if (!parsed.ok) throw new Error(parsed.errors.join('; '));
+    const exact = solveTmm(parsed.stack, Float64Array.of(5.2e9));
+    const dB = (re: number, im: number): number => 20 * Math.log10(Math.hypot(re, im));
+    await hover(5.2);
+    let r = await rows();
+    expect(r.head).toBe('f = 5.2 GHz');
+    const value = (group: RegExp, label: string): string => {
+      const row = r.rows.find((x) => group.test(x.group) && x.label === label);
+      expect(row, `${group} ${label}`).toBeDefined();
+      return row!.value;
+    };
+    // Shown to 3 decimals in dB: equal to the exact value to half a unit in the last place.
+    expect(Math.abs(num(value(/^\|R\|/, 'exact (TMM)')) - dB(exact.R_re[0], exact.R_im[0]))).toBeLessThanOrEqual(0.0005 + 1e-12);
+    expect(Math.abs(num(value(/^\|T\|/, 'exact (TMM)')) - dB(exact.T_re[0], exact.T_im[0]))).toBeLessThanOrEqual(0.0005 + 1e-12);
+    // Every series is read out: the FEM (within its 1e-5 target, so to the shown decimals) and the FDTD run.
+    expect(Math.abs(num(value(/^\|R\|/, 'FEM')) - dB(exact.R_re[0], exact.R_im[0]))).toBeLessThanOrEqual(0.0015);
+    expect(Number.isFinite(num(value(/^\|R\|/, 'FDTD')))).toBe(true);
+    expect(r.rows.some((x) => /difference/.test(x.group))).toBe(true);
+    await page.locator('[data-testid="spectrum-view"]').screenshot({ path: join(ARTIFACTS, 'spectrum-view-readout.png') });
+
+    // Box zoom: drag across 2–3 GHz in the |R| panel (a flat box, so only x zooms), then reset.
+    const a = (await probe('chartPoint', 'spectrum-view', 2, 0))!, b = (await probe('chartPoint', 'spectrum-view', 3, 0))!;
+    await page.mouse.move(a.x, a.y);
+    await page.mouse.down();
+    await page.mouse.move(b.x, b.y + 2, { steps: 4 });
+    await page.mouse.up();
+    await expect.poll(() => probe('chartRange', 'spectrum-view')).not.toEqual([1, 6]);
+    const zoomed = (await probe('chartRange', 'spectrum-view'))!;
+    const pxPerGHz = (b.x - a.x) / 1;
+    expect(Math.abs(zoomed[0] - 2) * pxPerGHz).toBeLessThanOrEqual(1.01);
+    expect(Math.abs(zoomed[1] - 3) * pxPerGHz).toBeLessThanOrEqual(1.01);
+    await page.click('[data-testid="spectrum-view-zoom-reset"]');
+    await expect.poll(() => probe('chartRange', 'spectrum-view')).toEqual([1, 6]);
+
+    // Log frequency: 2 GHz sits at log(2)/log(6) of the way from 1 to 6 GHz (linear: at 1/5).
+    const share = async (): Promise<number> => {
+      const [p1, p2, p6] = await Promise.all([1, 2, 6].map((f) => probe('chartPoint', 'spectrum-view', f, 0)));
+      return (p2!.x - p1!.x) / (p6!.x - p1!.x);
+    };
+    expect(await share()).toBeCloseTo(0.2, 6);
+    await page.locator('[data-testid="freq-scale"] select').selectOption('log');
+    await expect.poll(share).toBeCloseTo(Math.log(2) / Math.log(6), 6);
+    await page.locator('[data-testid="spectrum-view"]').screenshot({ path: join(ARTIFACTS, 'spectrum-view-log.png') });
+    await page.locator('[data-testid="freq-scale"] select').selectOption('linear');
+    await expect.poll(share).toBeCloseTo(0.2, 6);
+
+    // Linear magnitudes: |R| itself, 5 significant digits.
+    await page.locator('[data-testid="magnitude-scale"] select').selectOption('linear');
+    await page.mouse.move(0, 0);
+    await hover(5.2);
+    await expect.poll(async () => (await rows()).rows[0]?.group ?? '').toBe('|R|');
+    r = await rows();
+    const lin = Math.hypot(exact.R_re[0], exact.R_im[0]);
+    expect(Math.abs(num(value(/^\|R\|$/, 'exact (TMM)')) - lin)).toBeLessThanOrEqual(5e-5 * lin + 1e-12);
+    await page.locator('[data-testid="magnitude-scale"] select').selectOption('dB');
+    await page.mouse.move(0, 0);
+  });
+
+  it('frames the stack at about half the field view by default, with the whole incident pulse in front where the stack allows; zooms with the buttons and the wheel; resets', async () => {
+    const field = async (): Promise<Stats['field']> => (await stats()).field;
+    const width = (w: [number, number]): number => w[1] - w[0];
+    for (const preset of ['default', 'double-glazing']) {
+      await choosePreset(preset);
+      const f = await field();
+      expect(f.window_mm).toEqual(f.default_mm);
+      // About half: between 40 % and 50 % of the width (the workbench's framing rule).
+      const share = f.stack_mm / width(f.window_mm);
+      expect(share, preset).toBeGreaterThanOrEqual(0.4 - 1e-9);
+      expect(share, preset).toBeLessThanOrEqual(0.5 + 1e-9);
+      expect(f.window_mm[0]).toBeLessThan(0);
+      expect(f.window_mm[1]).toBeGreaterThan(f.stack_mm);
+    }
+    // Zoom in and out by the buttons (a factor 1.5 each) and back.
+    const f0 = await field();
+    await page.click('[data-testid="zoom-in"]');
+    await expect.poll(async () => width((await field()).window_mm)).toBeCloseTo(width(f0.window_mm) / 1.5, 6);
+    expect((await field()).zoomed).toBe(true);
+    await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-zoomed.png') });
+    await page.click('[data-testid="zoom-out"]');
+    await page.click('[data-testid="zoom-out"]');
+    await expect.poll(async () => width((await field()).window_mm)).toBeGreaterThan(width(f0.window_mm));
+    await page.click('[data-testid="zoom-reset"]');
+    await expect.poll(async () => (await field()).window_mm).toEqual(f0.default_mm);
+    // The wheel over the plot zooms in about the pointer.
+    const box = (await page.locator('[data-testid="field-view"] canvas').boundingBox())!;
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.mouse.wheel(0, -240);
+    await expect.poll(async () => width((await field()).window_mm)).toBeLessThan(width(f0.window_mm) * 0.9);
+    await page.click('[data-testid="zoom-reset"]');
+    await expect.poll(async () => (await field()).window_mm).toEqual(f0.default_mm);
+
+    // A stack thicker than the pulse: half the width, and in front the incident pulse's whole length
+    // (where its envelope exp(−(t/τ)²) is above 10 %: 2τ√ln 10 of time, at c in the air in front).
+    const thick = { title: 'Foam block for the framing check', band_GHz: [2, 8], layers: [{ material: 'foam', thickness_mm: 250 }], materials: { foam: { model: 'fixed', eps_r: 1.5 } } };
+    const path = join(ARTIFACTS, 'downloads', 'thick-foam.stack.json');
+    writeFileSync(path, JSON.stringify(thick));
+    await page.setInputFiles('[data-testid="import"]', path);
+    await page.waitForFunction(() => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return Math.abs(s.field.stack_mm - 250) < 1e-9 && s.field.grid && s.solvedVersion === s.version;
+    });
+    const ft = await field();
+    expect(ft.stack_mm / width(ft.window_mm)).toBeCloseTo(0.5, 9);
+    const pulse_mm = 2 * tauOfBand(2, 8) * Math.sqrt(Math.LN10) * C0 * 1e3;
+    expect(-ft.window_mm[0]).toBeGreaterThanOrEqual(pulse_mm);
+
+    // Two sheets, one of them at the same place as a third: three separate caps that do not overlap.
+    const sheets = {
+      title: 'Two-film absorber with a doubled film', band_GHz: [6, 14],
+      layers: [{ material: 'film-a' }, { material: 'spacer', thickness_mm: 5 }, { material: 'film-b' }, { material: 'film-a' }, { material: 'spacer', thickness_mm: 5 }],
+      back: 'pec',
+      materials: { 'film-a': { model: 'sheet', ohm_per_sq: 300 }, 'film-b': { model: 'sheet', ohm_per_sq: 900 }, spacer: { model: 'fixed', eps_r: 1.1 } },
+    };
+    writeFileSync(path, JSON.stringify(sheets));
+    await page.setInputFiles('[data-testid="import"]', path);
+    await page.waitForFunction(() => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return Math.abs(s.field.stack_mm - 10) < 1e-9 && s.field.grid && s.solvedVersion === s.version;
+    });
+    await expect.poll(async () => (await probe('fieldMarks')).plan.sheets.length).toBe(3);
+    const marks = await probe('fieldMarks');
+    const caps = marks.plan.sheets.map((m) => m.cap_px).sort((x, y) => x - y);
+    for (let i = 1; i < caps.length; i++) expect(caps[i] - caps[i - 1]).toBeGreaterThanOrEqual(marks.tagWidth);
+    // Each sheet's label is beside its cap or in the key, never dropped.
+    for (const m of marks.plan.sheets) expect(m.label !== null || marks.plan.key.some((k) => k.startsWith(`${m.number} `))).toBe(true);
+    await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-sheets.png') });
+    await choosePreset('default');
   });
 
   it('refuses a bad import with the parser’s field-named message and keeps the stack', async () => {
@@ -256,6 +489,66 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await expect(thickness.inputValue()).resolves.toBe(before);
   });
 
+  it('refuses text that is not a number in a number field, naming the field, and clears older errors (also on a preset switch)', async () => {
+    await choosePreset('default');
+    const thickness = page.locator('[data-testid="layer-0-thickness"] input');
+    const before = await thickness.inputValue();
+    const msg = page.locator('[data-testid="msg-edit"]');
+    await thickness.fill('-4');
+    await thickness.press('Enter');
+    await expect.poll(() => msg.textContent()).toContain('layers[0].thickness_mm');
+    const v1 = (await stats()).version;
+    await thickness.fill('abc');
+    await thickness.press('Enter');
+    // The newer refusal replaces the older one.
+    await expect.poll(() => msg.textContent()).toContain('"abc"');
+    expect(await msg.textContent()).toContain('layers[0].thickness_mm');
+    expect(await msg.textContent()).not.toContain('-4');
+    expect((await stats()).version).toBe(v1);
+    await expect(thickness.inputValue()).resolves.toBe(before);
+    // A decimal comma is not read as the number before it: refused, and the old value is back.
+    await thickness.fill('12,5');
+    await thickness.press('Enter');
+    await expect.poll(() => msg.textContent()).toContain('"12,5"');
+    await expect.poll(() => thickness.inputValue()).toBe(before);
+    await page.waitForFunction(() => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return s.solvedVersion === s.version;
+    });
+    // A view setting is refused with its name too.
+    const lambda = page.locator('[data-testid="lambda-GHz"] input');
+    await lambda.fill('abc');
+    await lambda.press('Enter');
+    await expect.poll(() => msg.textContent()).toContain('wavelengths at (GHz)');
+    // A preset switch clears it.
+    await choosePreset('meeting-room-partition');
+    expect(await msg.count()).toBe(0);
+  });
+
+  it('names an imported or edited stack in the preset menu, also after a reload', async () => {
+    const file = { title: 'Review panel', band_GHz: [2, 6], layers: [{ material: 'plywood', thickness_mm: 18 }] };
+    const path = join(ARTIFACTS, 'downloads', 'review-panel.stack.json');
+    writeFileSync(path, JSON.stringify(file));
+    await page.setInputFiles('[data-testid="import"]', path);
+    await expect.poll(presetShown).toBe('imported: review-panel.stack.json');
+    await page.reload();
+    await page.waitForFunction(() => (window as unknown as { slabecho?: { stats: Stats } }).slabecho?.stats.solvedVersion === 0);
+    await expect.poll(presetShown).toBe('imported: review-panel.stack.json');
+    await choosePreset('salisbury-absorber');
+    await expect.poll(presetShown).toBe('salisbury-absorber');
+    const t = page.locator('[data-testid="layer-1-thickness"] input');
+    await t.fill('7.5');
+    await t.press('Enter');
+    await expect.poll(presetShown).toBe('salisbury-absorber (edited)');
+    await page.reload();
+    await page.waitForFunction(() => (window as unknown as { slabecho?: { stats: Stats } }).slabecho?.stats.solvedVersion === 0);
+    await expect.poll(presetShown).toBe('salisbury-absorber (edited)');
+    // Choosing the preset again goes back to it.
+    await choosePreset('salisbury-absorber');
+    await expect.poll(presetShown).toBe('salisbury-absorber');
+    await expect(page.locator('[data-testid="layer-1-thickness"] input').inputValue()).resolves.toBe('7.32');
+  });
+
   it('cancels the background pulse run and starts it again', async () => {
     const state = (): Promise<string | null> => page.locator('[data-testid="run-status"]').getAttribute('data-state');
     await page.locator('[data-testid="preset"] select').selectOption('meeting-room-partition');
@@ -279,15 +572,68 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     const refusal = page.locator('[data-testid="msg-pulse"]');
     await refusal.waitFor();
     await expect(refusal.textContent()).resolves.toContain('incidence.polarization');
-    await expect.poll(state).toBe('done');
+    // The batch run ends saying the engine declined the stack, not that it finished.
+    await expect.poll(state).toBe('declined');
+    await expect(page.locator('[data-testid="run-status"]').textContent()).resolves.not.toMatch(/finished/);
+    // The empty echoes view says why it is empty.
+    await expect.poll(() => page.locator('[data-testid="trace-view"]').getAttribute('data-empty')).toMatch(/did not run.*incidence\.polarization/);
     // The refusal is not repeated among the warnings, and no FDTD row or echo is claimed.
-    await expect(page.locator('[data-testid="msg-warnings"]').textContent()).resolves.not.toContain('FDTD skipped');
+    // (With no other warning for this stack there may be no warnings box at all.)
+    expect(await page.locator('[data-testid="msg-warnings"]', { hasText: 'FDTD skipped' }).count()).toBe(0);
     const agreement = await page.locator('[data-testid="agreement"]').textContent();
     expect(agreement).toMatch(/FEM vs exact/);
     expect(agreement).not.toMatch(/FDTD/);
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-oblique-TM.png') });
     await page.locator('[data-testid="trace-view"]').screenshot({ path: join(ARTIFACTS, 'trace-view-oblique-TM.png') });
+    await page.locator('[data-testid="profile-view"]').screenshot({ path: join(ARTIFACTS, 'profile-view-oblique-TM.png') });
+  });
+
+  it('at 1024 px keeps the field view\'s title clear of its legend and shows the whole panel', async () => {
+    await page.setViewportSize({ width: 1024, height: 768 });
+    try {
+      await choosePreset('double-glazing'); // the longest title
+      await page.evaluate(() => window.scrollTo(0, 0));
+      const canvas = page.locator('[data-testid="field-view"] canvas');
+      await expect.poll(async () => (await canvas.boundingBox())?.width ?? 0).toBeLessThan(700);
+      await page.waitForTimeout(200);
+      const boxes = await probe('fieldBoxes');
+      const overlap = (a: { x: number; y: number; w: number; h: number }, b: typeof a): boolean =>
+        a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
+      expect(boxes.title.w).toBeGreaterThan(50);
+      expect(overlap(boxes.title, boxes.legend)).toBe(false);
+      expect(overlap(boxes.clock, boxes.legend)).toBe(false);
+      const cw = (await canvas.boundingBox())!.width;
+      expect(boxes.legend.x + boxes.legend.w).toBeLessThanOrEqual(cw);
+      // Nothing sticks out sideways, and every row of the panel lies inside it and can be scrolled to.
+      const m = await page.evaluate(() => {
+        const panel = document.querySelector('[data-testid="controls"]')!;
+        const r = panel.getBoundingClientRect();
+        const rows = [...panel.querySelectorAll('.lil-controller')].map((c) => c.getBoundingClientRect());
+        const view = document.querySelector('[data-testid="field-view"]')!.getBoundingClientRect();
+        const fieldCanvas = document.querySelector('[data-testid="field-view"] canvas')!.getBoundingClientRect();
+        return {
+          scrollW: document.documentElement.scrollWidth, innerW: window.innerWidth, panelLeft: r.left, panelRight: r.right,
+          worstRight: Math.max(...rows.map((x) => x.right)), worstLeft: Math.min(...rows.map((x) => x.left)),
+          canvasRight: fieldCanvas.right, viewRight: view.right, scrollable: panel.scrollHeight - panel.clientHeight,
+        };
+      });
+      expect(m.scrollW).toBeLessThanOrEqual(m.innerW);
+      expect(m.panelRight).toBeLessThanOrEqual(m.innerW + 0.5);
+      expect(m.worstRight).toBeLessThanOrEqual(m.panelRight + 0.5);
+      expect(m.worstLeft).toBeGreaterThanOrEqual(m.panelLeft - 0.5);
+      expect(m.canvasRight).toBeLessThanOrEqual(m.viewRight + 0.5);
+      if (m.scrollable > 0) {
+        await page.locator('[data-testid="controls"]').evaluate((p) => { p.scrollTop = p.scrollHeight; });
+        const last = page.locator('[data-testid="controls"] .lil-controller').last();
+        const lb = (await last.boundingBox())!;
+        expect(lb.y + lb.height).toBeLessThanOrEqual(768 + 0.5);
+        await page.locator('[data-testid="controls"]').evaluate((p) => { p.scrollTop = 0; });
+      }
+      await page.screenshot({ path: join(ARTIFACTS, 'workbench-1024.png') });
+    } finally {
+      await page.setViewportSize({ width: 1440, height: 1200 });
+    }
   });
 
   it('keeps an edit across a reload', async () => {

@@ -155,6 +155,21 @@ describe('materials', () => {
     const w = (JSON.parse((await cli('materials', '--json', '--at-GHz', '10')).stdout) as { name: string; eps_r: number }[]).find((x) => x.name === 'water-25c')!;
     expect(w.eps_r).toBeCloseTo(62.8, 1);
   });
+  it('--at-GHz 300 lists glass and ceiling board from their 220–450 GHz rows (ITU-R P.2040-3 Table 3: 5.79, 0.0004·f^1.658; 1.52, 0.0029·f^1.029)', async () => {
+    const rows = JSON.parse((await cli('materials', '--json', '--at-GHz', '300')).stdout) as { name: string; eps_r: number; sigma_S_per_m: number; valid_GHz: number[] }[];
+    expect(rows.filter((x) => x.name === 'glass')).toHaveLength(1);
+    const glass = rows.find((x) => x.name === 'glass')!, board = rows.find((x) => x.name === 'ceiling-board')!;
+    expect(glass.eps_r).toBe(5.79);
+    expect(glass.sigma_S_per_m / (0.0004 * 300 ** 1.658)).toBeCloseTo(1, 5);
+    expect(glass.valid_GHz).toEqual([220, 450]);
+    expect(board.eps_r).toBe(1.52);
+    expect(board.sigma_S_per_m / (0.0029 * 300 ** 1.029)).toBeCloseTo(1, 5);
+    // Without a frequency every range is its own row, and the edition is stated.
+    const all = await cli('materials');
+    expect(all.stdout.match(/^glass /gm)).toHaveLength(2);
+    expect(all.stdout).toContain('unchanged from P.2040-2');
+    expect(all.stdout).not.toMatch(/from memory, verify against the Recommendation/);
+  });
   it('--at-GHz must be a number > 0: exit 2 naming the option', async () => {
     for (const bad of ['abc', '0', '-1', '', '1e400', 'NaN']) {
       const r = await cli('materials', `--at-GHz=${bad}`);
@@ -208,17 +223,25 @@ describe('solve', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/exists and is not a directory/);
   });
-  it('oblique incidence: no profile.csv (a stale one is removed), a warning', async () => {
+  it('oblique incidence: profile.csv along the normal line, with the tangential H in TM, and no profile warning', async () => {
     const out = join(tmp.dir, 'out-oblique');
     mkdirSync(out);
     writeFileSync(join(out, 'profile.csv'), 'stale');
     const r = await cli('solve', file({ ...wall, incidence: { angle_deg: 30, polarization: 'TM' } }), '--out', out);
     expect(r.code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['spectrum.csv', 'summary.json']);
-    expect(r.stderr).toMatch(/warning: profile_GHz: .*normal incidence only/);
+    expect(readdirSync(out).sort()).toEqual(['profile.csv', 'spectrum.csv', 'summary.json']);
+    const pr = readCsv(readFileSync(join(out, 'profile.csv'), 'utf8'));
+    expect(pr.header).toEqual(['x_mm', 'E_tmm_re', 'E_tmm_im', 'H_tmm_re', 'H_tmm_im', 'E_fem_re', 'E_fem_im', 'H_fem_re', 'H_fem_im']);
+    // At x = 0: E_t = 1 + R and H_t = 1 − R over their incident values (superposition of the incident and
+    // reflected waves, common practice); R at the profile frequency 3.5 GHz is row 10 of the spectrum.
+    const sp = readCsv(readFileSync(join(out, 'spectrum.csv'), 'utf8'));
+    const R = sp.rows[10], at0 = pr.rows.find((row) => row[0] === 0)!;
+    expect(R[0]).toBe(3.5);
+    expect(Math.hypot(at0[1] - (1 + R[1]), at0[2] - R[2])).toBeLessThan(1e-9);
+    expect(Math.hypot(at0[3] - (1 - R[1]), at0[4] + R[2])).toBeLessThan(1e-9);
+    expect(r.stderr).not.toMatch(/profile_GHz/);
     const s = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
-    expect(s.profile_GHz).toBeNull();
-    expect(s.warnings.filter((w: string) => w.startsWith('profile_GHz: '))).toHaveLength(1);
+    expect(s.profile_GHz).toBe(3.5);
   });
   it('leaves no temporary files and replaces earlier results', async () => {
     const out = join(tmp.dir, 'out-twice');

@@ -38,15 +38,11 @@ describe('presets', () => {
         // Passive stack: |R| ≤ 1 (energy conservation, common practice).
         expect(Math.hypot(row[1], row[2])).toBeLessThanOrEqual(1 + 1e-9);
       }
-      const files = readdirSync(out).sort();
-      if (parsed.stack.incidence.angle_rad === 0) {
-        expect(files).toEqual(['profile.csv', 'spectrum.csv', 'summary.json']);
-        const pr = readCsv(readFileSync(join(out, 'profile.csv'), 'utf8'));
-        expect(pr.header.slice(0, 3)).toEqual(['x_mm', 'E_tmm_re', 'E_tmm_im']);
-        for (const row of pr.rows) for (const v of row) expect(Number.isFinite(v)).toBe(true);
-      } else {
-        expect(files).toEqual(['spectrum.csv', 'summary.json']);
-      }
+      expect(readdirSync(out).sort()).toEqual(['profile.csv', 'spectrum.csv', 'summary.json']);
+      const pr = readCsv(readFileSync(join(out, 'profile.csv'), 'utf8'));
+      const tm = parsed.stack.incidence.polarization === 'TM';
+      expect(pr.header.slice(0, tm ? 5 : 3)).toEqual(['x_mm', 'E_tmm_re', 'E_tmm_im', ...(tm ? ['H_tmm_re', 'H_tmm_im'] : [])]);
+      for (const row of pr.rows) for (const v of row) expect(Number.isFinite(v)).toBe(true);
       const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
       expect(summary.title).toBe(parsed.stack.title);
       expect(summary.layers).toHaveLength(parsed.stack.layers.length);

@@ -33,7 +33,7 @@ describe('slabecho run', () => {
     expect(r.stdout).toMatch(/fdtd vs tmm/);
   });
 
-  it('TM at an angle: the exact and FEM results, echoes.csv and trace.csv with their headers only, no profile.csv', async () => {
+  it('TM at an angle: the exact and FEM results with their profile, echoes.csv and trace.csv with their headers only', async () => {
     const tm = join(tmp.dir, 'tm.stack.json');
     writeFileSync(tm, JSON.stringify({ ...JSON.parse(readFileSync(slab, 'utf8')), incidence: { angle_deg: 30, polarization: 'TM' } }));
     const out = join(tmp.dir, 'out-tm');
@@ -41,7 +41,9 @@ describe('slabecho run', () => {
     writeFileSync(join(out, 'profile.csv'), 'stale');
     const r = await cli('run', tm, '--out', out);
     expect(r.code, r.stderr).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['echoes.csv', 'spectrum.csv', 'summary.json', 'trace.csv']);
+    expect(readdirSync(out).sort()).toEqual(['echoes.csv', 'profile.csv', 'spectrum.csv', 'summary.json', 'trace.csv']);
+    expect(readCsv(readFileSync(join(out, 'profile.csv'), 'utf8')).header).toEqual(
+      ['x_mm', 'E_tmm_re', 'E_tmm_im', 'H_tmm_re', 'H_tmm_im', 'E_fem_re', 'E_fem_im', 'H_fem_re', 'H_fem_im']);
     expect(readFileSync(join(out, 'echoes.csv'), 'utf8')).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path\n');
     expect(readFileSync(join(out, 'trace.csv'), 'utf8')).toBe('t_ns,E_incident,E_reflected,E_transmitted\n');
     expect(readCsv(readFileSync(join(out, 'spectrum.csv'), 'utf8')).header).toContain('R_fem_re');

@@ -33,10 +33,11 @@ describe('FEM in the report, every preset at defaults', () => {
       expect(row.within_target).toBe(true);
       expect((rep.summary.fem as { order: number }).order).toBeGreaterThanOrEqual(1);
       for (const c of ['R_fem_re', 'R_fem_im', 'T_fem_re', 'T_fem_im']) expect(findColumn(rep.spectrum, c)).toBeDefined();
-      if (stack.incidence.angle_rad !== 0) return; // the report's profile is normal incidence only
       const x = findColumn(rep.profile, 'x_mm')!.data;
       expect(findColumn(rep.profile, 'E_fem_re')).toBeDefined();
-      const mesh = planProfileMesh(stack, stack.profile_Hz, x[0] / 1e3, x[x.length - 1] / 1e3);
+      const tm = stack.incidence.polarization === 'TM';
+      expect(findColumn(rep.profile, 'H_fem_re') !== undefined).toBe(tm);
+      const mesh = planProfileMesh(stack, stack.profile_Hz, x[0] / 1e3, x[x.length - 1] / 1e3, {}, tm);
       for (let s = 0; s < mesh.segRegion.length; s++) {
         if (mesh.segRegion[s] < 0) continue;
         const a = mesh.segX0[s] * 1e3, b = a + mesh.segH[s] * 1e3;

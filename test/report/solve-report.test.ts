@@ -32,13 +32,14 @@ describe('solveReport', () => {
     expect(res.absorbed_fraction_max).toBeLessThan(1);
   });
 
-  it('carries the input warnings first and adds the profile warning at oblique incidence', () => {
+  it('carries the input warnings first; at oblique incidence the profile is there, without a warning', () => {
     const { stack } = stackOf({ band_GHz: [1, 3], layers: [], incidence: { angle_deg: 45, polarization: 'TE' }, points: 3 });
     const r = solveReport(stack, { inputWarnings: ['materials.x: defined but not used'] });
     expect(r.warnings[0]).toBe('materials.x: defined but not used');
-    expect(r.warnings.some((w) => w.startsWith('profile_GHz: '))).toBe(true);
-    expect(r.profile).toEqual([]);
-    expect(r.summary.profile_GHz).toBeNull();
+    expect(r.warnings.some((w) => w.startsWith('profile_GHz: '))).toBe(false);
+    // TE: E columns only (the tangential H is written in TM).
+    expect(r.profile.map((c) => c.name)).toEqual(['x_mm', 'E_tmm_re', 'E_tmm_im', 'E_fem_re', 'E_fem_im']);
+    expect(r.summary.profile_GHz).toBe(2);
     expect(r.summary.incidence).toEqual({ angle_deg: 45, polarization: 'TE' });
   });
 

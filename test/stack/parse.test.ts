@@ -308,9 +308,9 @@ describe('warnings (the stack stays valid)', () => {
     const r = ok(withBase({ materials: { f: { model: 'fixed', eps_r: 2, valid_GHz: [2, 4] } }, layers: [{ material: 'f', thickness_mm: 1 }] }));
     expect(r.warnings.some((w) => w.includes('"f", 2–4 GHz (user)'))).toBe(true);
   });
-  it('oblique incidence with a profile frequency', () => {
+  it('oblique incidence with a profile frequency: no warning (the profile is computed at any angle)', () => {
     const r = ok(withBase({ incidence: { angle_deg: 30 }, profile_GHz: 3 }));
-    expect(r.warnings.some((w) => w.startsWith('profile_GHz: ') && w.includes('normal incidence only'))).toBe(true);
+    expect(r.warnings).toEqual([]);
   });
   it('profile outside the band; unused material; lossy front', () => {
     expect(ok(withBase({ profile_GHz: 10 })).warnings.some((w) => w.startsWith('profile_GHz: ') && w.includes('outside the band'))).toBe(true);
@@ -353,5 +353,61 @@ describe('text that could mislead a terminal or break a file', () => {
       expect(errs).not.toMatch(/[\u202e]/);
       expect(errs).toContain('\\u{202E}');
     }
+  });
+});
+
+describe('magnetic blocks (permeability on a bulk material)', () => {
+  const mag = (magnetic: unknown, extra: Record<string, unknown> = {}) => withBase({
+    materials: { ferrite: { model: 'fixed', eps_r: 12, magnetic, ...extra } },
+    layers: [{ material: 'ferrite', thickness_mm: 2 }],
+  });
+  it('accepts the three models on any bulk model, fills mu_loss = 0, and round-trips through toStackFile', () => {
+    const r = ok(withBase({
+      materials: {
+        a: { model: 'fixed', eps_r: 12, magnetic: { model: 'fixed', mu_r: 3 } },
+        b: { model: 'debye', eps_inf: 4, poles: [{ delta_eps: 2, tau_ps: 5 }], magnetic: { model: 'debye', mu_inf: 1, poles: [{ delta_mu: 9, tau_ps: 80 }] } },
+        c: { model: 'power-law', a: 5, b: 0, c: 0.01, d: 1, magnetic: { model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 4, f0_GHz: 8, gamma_GHz: 0 }] } },
+      },
+      layers: [{ material: 'a', thickness_mm: 1 }, { material: 'b', thickness_mm: 1 }, { material: 'c', thickness_mm: 1 }],
+    }));
+    expect(r.file.materials.a).toEqual({ model: 'fixed', eps_r: 12, sigma_S_per_m: 0, magnetic: { model: 'fixed', mu_r: 3, mu_loss: 0 } });
+    const spec = r.stack.layers[1].material.spec;
+    expect(spec.model !== 'sheet' && spec.magnetic).toEqual({ model: 'debye', mu_inf: 1, poles: [{ delta_mu: 9, tau_ps: 80 }] });
+    const again = ok(toStackFile(r.stack));
+    expect(again.stack.layers).toEqual(r.stack.layers);
+    expect(toStackFile(again.stack)).toEqual(toStackFile(r.stack));
+  });
+  it('refuses a block that is not an object, an unknown or missing model, unknown and missing keys', () => {
+    expectError(mag(2), 'materials.ferrite.magnetic', /must be an object/);
+    expectError(mag({ mu_r: 2 }), 'materials.ferrite.magnetic.model', /required: one of fixed, debye, lorentz/);
+    expectError(mag({ model: 'drude', mu_r: 2 }), 'materials.ferrite.magnetic.model', /unknown permeability model "drude"/);
+    expectError(mag({ model: 'debey', mu_inf: 1, poles: [] }), 'materials.ferrite.magnetic.model', /did you mean "debye"/);
+    expectError(mag({ model: 'fixed', mu_r: 2, mu_los: 1 }), 'materials.ferrite.magnetic.mu_los', /did you mean "mu_loss"/);
+    expectError(mag({ model: 'fixed', mu_loss: 1 }), 'materials.ferrite.magnetic.mu_r', /required for the fixed permeability model/);
+    expectError(mag({ model: 'debye', mu_inf: 1 }), 'materials.ferrite.magnetic.poles', /required/);
+    expectError(mag({ model: 'debye', mu_inf: 1, poles: [] }), 'materials.ferrite.magnetic.poles', /1 to 16 poles/);
+    expectError(mag({ model: 'debye', mu_inf: 1, poles: [{ delta_eps: 1, tau_ps: 2 }] }), 'materials.ferrite.magnetic.poles[0].delta_eps', /unknown key/);
+    expectError(mag({ model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 1, f0_GHz: 2 }] }), 'materials.ferrite.magnetic.poles[0].gamma_GHz', /required/);
+  });
+  it('refuses what a passive medium cannot have, naming the field', () => {
+    expectError(mag({ model: 'fixed', mu_r: 0 }), 'materials.ferrite.magnetic.mu_r', /must be a number > 0 \(got 0\)/);
+    expectError(mag({ model: 'fixed', mu_r: -2 }), 'materials.ferrite.magnetic.mu_r', /> 0/);
+    expectError(mag({ model: 'fixed', mu_r: 2, mu_loss: -0.1 }), 'materials.ferrite.magnetic.mu_loss', /≥ 0/);
+    expectError(mag({ model: 'fixed', mu_r: '2' }), 'materials.ferrite.magnetic.mu_r', /got the string "2"/);
+    expectError(mag({ model: 'debye', mu_inf: 0.5, poles: [{ delta_mu: 1, tau_ps: 2 }] }), 'materials.ferrite.magnetic.mu_inf', /≥ 1/);
+    expectError(mag({ model: 'debye', mu_inf: 1, poles: [{ delta_mu: -1, tau_ps: 2 }] }), 'materials.ferrite.magnetic.poles[0].delta_mu', /≥ 0/);
+    expectError(mag({ model: 'debye', mu_inf: 1, poles: [{ delta_mu: 1, tau_ps: 0 }] }), 'materials.ferrite.magnetic.poles[0].tau_ps', /> 0/);
+    expectError(mag({ model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 1, f0_GHz: 0, gamma_GHz: 1 }] }), 'materials.ferrite.magnetic.poles[0].f0_GHz', /> 0/);
+    expectError(mag({ model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 1, f0_GHz: 3, gamma_GHz: -1 }] }), 'materials.ferrite.magnetic.poles[0].gamma_GHz', /≥ 0/);
+    // A lossless resonance inside the band (1–6 GHz) is singular there.
+    expectError(mag({ model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 1, f0_GHz: 3, gamma_GHz: 0 }] }), 'materials.ferrite.magnetic.poles[0].gamma_GHz', /inside the band/);
+    expectError(mag({ model: 'fixed', mu_r: Infinity }), 'materials.ferrite.magnetic.mu_r', /too large/);
+  });
+  it('reports a bad block together with the permittivity\'s own problems, and refuses one on a sheet', () => {
+    const errs = expectError(mag({ model: 'fixed', mu_r: 0 }, { eps_r: 0.5 }), 'materials.ferrite.eps_r', /≥ 1/);
+    expect(errs.some((e) => e.startsWith('materials.ferrite.magnetic.mu_r: '))).toBe(true);
+    expectError(withBase({ materials: { s: { model: 'sheet', ohm_per_sq: 100, magnetic: { model: 'fixed', mu_r: 2 } } }, layers: [{ material: 's' }] }),
+      'materials.s.magnetic', /a sheet has no thickness/);
+    expectError(mag({ model: 'fixed', mu_r: 2, __proto__x: 1, constructor: 1 }), 'materials.ferrite.magnetic.constructor', /not allowed anywhere/);
   });
 });

@@ -7,6 +7,10 @@ export const bulk = (spec: BulkModel, name: string = spec.model): BulkMaterial =
 export const dielectric = (eps_r: number, sigma_S_per_m = 0, name = `eps${eps_r}`): BulkMaterial =>
   bulk({ model: 'fixed', eps_r, sigma_S_per_m }, name);
 export const AIR = dielectric(1, 0, 'air');
+/** A fixed-model material with permeability μ_r = mu_r − j mu_loss. */
+export const magnetic = (eps_r: number, sigma_S_per_m: number, mu_r: number, mu_loss = 0,
+  name = `eps${eps_r}-mu${mu_r}-${mu_loss}`): BulkMaterial =>
+  bulk({ model: 'fixed', eps_r, sigma_S_per_m, magnetic: { model: 'fixed', mu_r, mu_loss } }, name);
 export const sheetMaterial = (ohm_per_sq: number): SheetMaterial =>
   ({ name: `sheet${ohm_per_sq}`, spec: { model: 'sheet', ohm_per_sq }, source: 'test', valid_GHz: null });
 

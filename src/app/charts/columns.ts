@@ -22,8 +22,9 @@ export function columnPolyline(width: number): ColumnPolyline {
 
 /**
  * Reduce samples (x ascending) to at most two vertices per pixel column. Columns are `width` pixels
- * over the data range [x0, x1]; the nearest sample beyond each end is kept (in a column just outside)
- * so a curve reaches the edge. Non-finite samples break the line.
+ * over the data range [x0, x1]. Where the line crosses an end of the range it is cut there, with the
+ * value interpolated linearly (one extra vertex at px 0 and at px `width`), so a curve reaches the
+ * edges at the right height however far the view is zoomed in. Non-finite samples break the line.
  */
 export function reduceColumns(
   x: ArrayLike<number>, y: ArrayLike<number>, n: number,
@@ -36,6 +37,11 @@ export function reduceColumns(
   if (!(span > 0) || n <= 0) return out;
   const scale = cols / span;
   let col = 0, lo = 0, hi = 0, iLo = 0, iHi = 0, open = false, broken = true;
+  const push = (px: number, v: number): void => {
+    if (broken) { out.starts[out.startCount++] = out.count; broken = false; }
+    const k = out.count++;
+    out.px[k] = px; out.y[k] = v;
+  };
   const flush = (): void => {
     if (!open) return;
     const c = col + 0.5;
@@ -44,24 +50,30 @@ export function reduceColumns(
     else { push(c, hi); push(c, lo); }
     open = false;
   };
-  const push = (px: number, v: number): void => {
-    const k = out.count++;
-    out.px[k] = px; out.y[k] = v;
-  };
+  const ok = (k: number): boolean => Number.isFinite(x[k]) && Number.isFinite(y[k]);
+  const lerp = (a: number, b: number, at: number): number => y[a] + ((y[b] - y[a]) * (at - x[a])) / (x[b] - x[a]);
   for (let i = 0; i < n; i++) {
     const xi = x[i], yi = y[i];
-    if (xi < x0 && i + 1 < n && x[i + 1] <= x0) continue;   // well before the range
-    if (!Number.isFinite(yi) || !Number.isFinite(xi)) { flush(); broken = true; continue; }
-    const c = xi < x0 ? -1 : xi >= x1 ? (xi === x1 ? cols - 1 : cols) : Math.floor((xi - x0) * scale);
-    if (!open || c !== col || broken) {
+    if (!ok(i)) { flush(); broken = true; continue; }
+    if (xi < x0) {
+      // Before the range: only the last such sample counts, where the line enters the range.
+      if (i + 1 < n && x[i + 1] > x0 && ok(i + 1)) push(0, lerp(i, i + 1, x0));
+      continue;
+    }
+    if (xi > x1) {
+      // The first sample past the range: the line leaves the range here.
       flush();
-      if (broken) { out.starts[out.startCount++] = out.count; broken = false; }
+      if (i > 0 && ok(i - 1)) push(cols, lerp(i - 1, i, x1));
+      break;
+    }
+    const c = xi === x1 ? cols - 1 : Math.floor((xi - x0) * scale);
+    if (!open || c !== col) {
+      flush();
       col = c; lo = hi = yi; iLo = iHi = i; open = true;
     } else {
       if (yi < lo) { lo = yi; iLo = i; }
       if (yi > hi) { hi = yi; iHi = i; }
     }
-    if (xi > x1) break;                                      // first sample past the range ends it
   }
   flush();
   return out;

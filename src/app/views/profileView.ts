@@ -1,5 +1,5 @@
 // Profile view: |E| and phase of the standing wave against position at one frequency, from every
-// method present, over shaded layer bands.
+// method present, over shaded layer bands. At an angle the field is the tangential E along one normal line.
 
 import { Chart, type ChartBand, type ChartSeries } from '../charts/chart.ts';
 import type { WireColumn } from '../protocol.ts';
@@ -12,7 +12,9 @@ export class ProfileView {
   readonly chart: Chart;
   constructor(host: HTMLElement) { this.chart = new Chart(host, 460); }
 
-  show(tables: Array<readonly WireColumn[] | null>, sketch: StackSketch | null, f_GHz: number, note: string, empty = 'solving…'): void {
+  show(tables: Array<readonly WireColumn[] | null>, sketch: StackSketch | null, f_GHz: number, note: string, empty = 'solving…',
+    incidence: { angle_deg: number; polarization: string } = { angle_deg: 0, polarization: 'TE' }): void {
+    const oblique = incidence.angle_deg !== 0;
     const absE: ChartSeries[] = [], phase: ChartSeries[] = [];
     const seen = new Set<string>();
     let xMin = Infinity, xMax = -Infinity;
@@ -50,12 +52,14 @@ export class ProfileView {
       .map((l) => ({ x: l.x0_m * 1e3, label: l.material, color: THEME.sheet }));
     this.chart.set({
       title: 'Standing wave',
-      subtitle: `${f_GHz} GHz${note ? ` · ${note}` : ''}`,
-      xLabel: 'position x (mm), front face at 0',
+      subtitle: `${f_GHz} GHz${oblique ? ` · ${incidence.polarization} at ${incidence.angle_deg}°` : ''}${note ? ` · ${note}` : ''}`,
+      xLabel: oblique ? 'depth x (mm) along one normal line, front face at 0' : 'position x (mm), front face at 0',
+      xName: 'x',
+      xUnit: 'mm',
       xRange: Number.isFinite(xMin) && xMax > xMin ? [xMin, xMax] : undefined,
       panels: [
-        { yLabel: '|E| / E₀', series: absE, bands, markers },
-        { yLabel: 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8 },
+        { yLabel: oblique ? '|E tangential| / E₀' : '|E| / E₀', series: absE, bands, markers },
+        { yLabel: oblique ? 'phase of E tangential (°)' : 'phase of E (°)', series: phase, bands, yRange: [-180, 180], weight: 0.8, unit: '°', decimals: 2 },
       ],
       empty,
     });

@@ -5,17 +5,27 @@ import { Chart, type ChartPanel, type ChartSeries } from '../charts/chart.ts';
 import { groupDelay } from '../../spectra/groupDelay.ts';
 import type { WireColumn } from '../protocol.ts';
 import type { SpectrumMode } from '../settings.ts';
-import { complexCol, diffDb, magDb, num, phaseDeg } from '../tables.ts';
+import type { Scale } from '../charts/axis.ts';
+import { complexCol, diffDb, mag, magDb, num, phaseDeg } from '../tables.ts';
 import { methodsIn, styleOf } from './methods.ts';
 
 type Cx = { re: Float64Array; im: Float64Array };
+
+export interface SpectrumLook {
+  mode: SpectrumMode;
+  /** Frequency axis. */
+  freqScale: Scale;
+  /** Magnitudes in dB or as plain ratios. */
+  magnitude: 'dB' | 'linear';
+}
 
 export class SpectrumView {
   readonly chart: Chart;
   constructor(host: HTMLElement) { this.chart = new Chart(host, 460); }
 
   /** `tables`: the exact/FEM table and, when current, the pulse run's table (its FDTD columns are added). */
-  show(tables: Array<readonly WireColumn[] | null>, mode: SpectrumMode, note: string): void {
+  show(tables: Array<readonly WireColumn[] | null>, look: SpectrumLook, note: string): void {
+    const mode = look.mode, dB = look.magnitude === 'dB';
     const series = new Map<string, { f: Float64Array; R: Cx; T: Cx | null }>();
     for (const t of tables) {
       const f = num(t, 'f_GHz');
@@ -29,13 +39,16 @@ export class SpectrumView {
     const exact = series.get('tmm');
     const hasT = exact?.T !== null && exact?.T !== undefined && exact.T.re.some((v, i) => v !== 0 || exact.T!.im[i] !== 0);
     const value = (z: Cx, f: Float64Array): Float64Array => {
-      if (mode === 'magnitude') return magDb(z);
+      if (mode === 'magnitude') return dB ? magDb(z) : mag(z);
       if (mode === 'phase') return phaseDeg(z);
       const fHz = f.map((v) => v * 1e9);
       return groupDelay(fHz, z.re, z.im).map((s) => s * 1e9);
     };
     const yLabel = (q: 'R' | 'T'): string =>
-      mode === 'magnitude' ? `|${q}| (dB)` : mode === 'phase' ? `phase of ${q} (°)` : `group delay of ${q} (ns)`;
+      mode === 'magnitude' ? (dB ? `|${q}| (dB)` : `|${q}|`) : mode === 'phase' ? `phase of ${q} (°)` : `group delay of ${q} (ns)`;
+    const unit = mode === 'magnitude' ? (dB ? 'dB' : '') : mode === 'phase' ? '°' : 'ns';
+    const decimals = mode === 'magnitude' ? (dB ? 3 : undefined) : mode === 'phase' ? 2 : undefined;
+    const floor = mode === 'magnitude' && dB ? -80 : undefined;
     const curves = (q: 'R' | 'T'): ChartSeries[] => {
       const out: ChartSeries[] = [];
       for (const [stem, s] of series) {
@@ -46,8 +59,8 @@ export class SpectrumView {
       }
       return out;
     };
-    const panels: ChartPanel[] = [{ yLabel: yLabel('R'), series: curves('R'), yFloor: mode === 'magnitude' ? -80 : undefined }];
-    if (hasT) panels.push({ yLabel: yLabel('T'), series: curves('T'), yFloor: mode === 'magnitude' ? -80 : undefined });
+    const panels: ChartPanel[] = [{ yLabel: yLabel('R'), series: curves('R'), yFloor: floor, unit, decimals }];
+    if (hasT) panels.push({ yLabel: yLabel('T'), series: curves('T'), yFloor: floor, unit, decimals });
     const diffs: ChartSeries[] = [];
     if (exact !== undefined) {
       for (const [stem, s] of series) {
@@ -59,11 +72,14 @@ export class SpectrumView {
         }
       }
     }
-    if (diffs.length > 0) panels.push({ yLabel: 'difference (dB)', series: diffs, weight: 0.75, yFloor: -160 });
+    if (diffs.length > 0) panels.push({ yLabel: 'difference (dB)', series: diffs, weight: 0.75, yFloor: -160, unit: 'dB', decimals: 1 });
     this.chart.set({
       title: 'Spectrum',
       subtitle: note,
-      xLabel: 'frequency (GHz)',
+      xLabel: look.freqScale === 'log' ? 'frequency (GHz, logarithmic)' : 'frequency (GHz)',
+      xScale: look.freqScale,
+      xName: 'f',
+      xUnit: 'GHz',
       panels,
       empty: 'solving…',
     });

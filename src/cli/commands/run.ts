@@ -61,15 +61,15 @@ export const run: Command = {
 Send a broadband pulse at the stack in FILE (leapfrog FDTD), and solve it exactly (and by FEM) at the
 same frequencies. Writes into DIR (created if needed), all files at once:
   spectrum.csv   f_GHz, the exact and FEM columns, then R_fdtd_re,R_fdtd_im,T_fdtd_re,T_fdtd_im
-  profile.csv    x_mm, E_tmm_re,E_tmm_im, FEM columns, E_fdtd_re,E_fdtd_im at profile_GHz
+  profile.csv    x_mm, the exact and FEM columns as for solve, then E_fdtd_re,E_fdtd_im at profile_GHz
   echoes.csv     t_ns,level_dB,amplitude,predicted_t_ns,path: one row per echo; t_ns after the
                  front-face echo (at 0), level relative to the incident pulse, path in plain words
   trace.csv      t_ns,E_incident,E_reflected,E_transmitted: the time records at x = 0 and the back face
   summary.json   as for solve, plus grid, run, pulse, echoes, power-law fits, agreement and timings
 The engine is one-dimensional. At an angle in TE it steps the equivalent normal-incidence problem (each
 medium's ε_r lowered by ε_front sin²θ; needs a lossless, non-dispersive front medium such as air). TM at an
-angle is not stepped: a warning, solve's results, and echoes.csv and trace.csv with only their headers.
-There is no profile.csv at oblique incidence.
+angle, and a magnetic material (μ_r ≠ 1), are not stepped yet: a warning, solve's results, and echoes.csv
+and trace.csv with only their headers.
 
 Options:
   --out DIR                   output directory (required)

@@ -46,8 +46,9 @@ export const solve: Command = {
 Solve the stack in FILE with the exact transfer-matrix method, cross-checked by the FEM, and write into DIR
 (created if needed):
   spectrum.csv   f_GHz,R_tmm_re,R_tmm_im,T_tmm_re,T_tmm_im,R_fem_re,R_fem_im,T_fem_re,T_fem_im: one row per frequency
-  profile.csv    x_mm,E_tmm_re,E_tmm_im,E_fem_re,E_fem_im: total field at profile_GHz, incident amplitude 1 at x = 0
-                 (normal incidence only; at oblique incidence it is not written)
+  profile.csv    x_mm,E_tmm_re,E_tmm_im,E_fem_re,E_fem_im: total tangential E along the normal line at
+                 profile_GHz, incident amplitude 1 at x = 0, at any angle; in TM also H_tmm_re,H_tmm_im
+                 after E_tmm and H_fem_re,H_fem_im after E_fem: the tangential H over its incident value
   summary.json   the stack as understood, methods run with timings, results in brief, warnings
 Files are written atomically: an interrupted run leaves the previous files or the new ones.
 The work is estimated first: a job over the limits below is refused before it starts.
