@@ -28,8 +28,21 @@ const log10Uniform = (lo: number, hi: number) =>
 
 type Json = Record<string, unknown>;
 
-/** A user material of each model, with parameters the parser accepts for the band (b, f0 checked against it). */
-const userMaterial = (band: [number, number]): fc.Arbitrary<Json> => fc.oneof(
+/** An optional permeability block of each model (fixed, Debye, Lorentz with damping). */
+const magneticBlock: fc.Arbitrary<Json | null> = fc.option(fc.oneof(
+  fc.record({ model: fc.constant('fixed'), mu_r: log10Uniform(0.1, 100), mu_loss: fc.oneof(fc.constant(0), log10Uniform(1e-6, 10)) }),
+  fc.record({ model: fc.constant('debye'), mu_inf: fc.double({ min: 1, max: 5, noNaN: true }),
+    poles: fc.array(fc.record({ delta_mu: fc.double({ min: 0, max: 50, noNaN: true }), tau_ps: log10Uniform(0.1, 1e4) }), { minLength: 1, maxLength: 2 }) }),
+  fc.record({ model: fc.constant('lorentz'), mu_inf: fc.double({ min: 1, max: 5, noNaN: true }),
+    poles: fc.array(fc.record({ delta_mu: fc.double({ min: 0, max: 5, noNaN: true }), f0_GHz: log10Uniform(0.01, 2000), gamma_GHz: log10Uniform(0.001, 100) }), { minLength: 1, maxLength: 2 }) }),
+), { freq: 4 });
+
+/** A user material of each model, with parameters the parser accepts for the band (b, f0 checked against it),
+ *  sometimes magnetic. */
+const userMaterial = (band: [number, number]): fc.Arbitrary<Json> => fc.tuple(bulkModel(band), magneticBlock)
+  .map(([m, magnetic]) => (magnetic === null ? m : { ...m, magnetic }));
+
+const bulkModel = (band: [number, number]): fc.Arbitrary<Json> => fc.oneof(
   fc.record({ model: fc.constant('fixed'), eps_r: fc.double({ min: 1, max: 80, noNaN: true }), sigma_S_per_m: fc.oneof(fc.constant(0), log10Uniform(1e-9, 1e7)) }),
   fc.record({
     model: fc.constant('debye'), eps_inf: fc.double({ min: 1, max: 10, noNaN: true }), sigma_S_per_m: fc.oneof(fc.constant(0), log10Uniform(1e-6, 10)),
