@@ -120,8 +120,8 @@ function poleTermUpdates(p: GridPlan): number {
   return n;
 }
 
-/** The pulse run, its spectra and its echoes at `steps` time steps. */
-function pulseStages(p: GridPlan, points: number, steps: number): StageEstimate[] {
+/** The pulse run, its spectra and its echoes at `steps` time steps (`worst`: echoes at their capped worst). */
+function pulseStages(p: GridPlan, points: number, steps: number, worst = false): StageEstimate[] {
   const cells = p.cells + p.nodes.auxTotal;
   return [
     {
@@ -137,7 +137,7 @@ function pulseStages(p: GridPlan, points: number, steps: number): StageEstimate[
     },
     {
       stage: 'echo extraction', memory_bytes: ECHO_BYTES_PER_FFT_POINT * nextPow2(2 * steps),
-      seconds: RATES.echoesFixed_s + steps * RATES.echoesPerSample_s,
+      seconds: RATES.echoesFixed_s + steps * RATES.echoesPerSample_s + (worst ? RATES.echoesRelaxCap_s : 0),
       detail: `${plainCount(steps)} samples`,
     },
   ];
@@ -168,7 +168,7 @@ export function estimateJob(stack: Stack, options: EstimateOptions & { withPulse
 
   const steps = grid ? grid.expectedSteps : 0, stepsWorst = grid ? grid.stepsLimit : 0;
   const pulse = grid ? pulseStages(grid, stack.points, steps) : [];
-  const pulseWorst = grid ? pulseStages(grid, stack.points, stepsWorst) : [];
+  const pulseWorst = grid ? pulseStages(grid, stack.points, stepsWorst, true) : [];
 
   // Outputs (with or without the FEM's columns), the profile stage, the writing.
   const plan = (withFem: boolean): { outputs: OutputPlan; stages: StageEstimate[] } => {

@@ -22,9 +22,11 @@ export const RATES = Object.freeze({
   fdtdPerPoleTermUpdate_s: 4e-9,
   /** Spectra from the records (DTFT): per sample and frequency, for each of the three records. */
   dtftPerSampleFrequency_s: 3e-9,
-  /** Echo extraction: fixed, and per record sample. */
+  /** Echo extraction: fixed, and per record sample (typical); its re-fitting may add up to echoesRelaxCap_s
+   *  (echoes/clean.ts caps that work) when many echoes overlap. */
   echoesFixed_s: 0.05,
-  echoesPerSample_s: 2e-6,
+  echoesPerSample_s: 3e-6,
+  echoesRelaxCap_s: 0.8,
   /** Formatting and writing CSV text, per byte. */
   csvPerByte_s: 20e-9,
 });
