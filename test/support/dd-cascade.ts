@@ -10,8 +10,10 @@
 
 import { permittivity } from '../../src/materials/permittivity.ts';
 import type { BulkModel } from '../../src/materials/types.ts';
-import type { Stack } from '../../src/stack/types.ts';
-import { C0_m_per_s, ETA0_ohm } from '../../src/units.ts';
+import type { Layer, Stack } from '../../src/stack/types.ts';
+import { tmmAt } from '../../src/tmm/solve.ts';
+import { C0_m_per_s, EPS0_F_per_m, ETA0_ohm, GHz } from '../../src/units.ts';
+import { AIR, bulk, dielectric, layer, makeStack, sheet } from './build-stack.ts';
 import {
   type CDD, cdd, cddAdd, cddCosSin, cddDiv, cddMul, cddNumber, cddScale, cddSqrt, cddSub, cddTimesJ,
   DD_TWO_PI, dd, ddAdd, ddDiv, ddMul, ddNeg,
@@ -101,4 +103,51 @@ export function phaseLimit(stack: Stack, f_Hz: number): number {
     sum += Math.max(complexDistance(up.R, dn.R), complexDistance(up.T, dn.T)) / (2 * h);
   }
   return 1e-16 * sum;
+}
+
+/**
+ * The solver's phases pass through about five roundings (2π f, / c0, × q, × d, and the square root that gives q),
+ * each ≤ 1.1e-16 relative, so its error may reach that many times the phase limit (measured: up to 3.5×).
+ */
+export const PHASE_ROUNDINGS = 6;
+
+/** The exact solver against the reference: worst of |ΔR|, |ΔT| over max(|R|, |T|), and the bound it must meet. */
+export function compareWithReference(stack: Stack, f_Hz: number): { err: number; bound: number; phase: number; loss: number } {
+  const got = tmmAt(stack, f_Hz), ref = referenceCascade(stack, f_Hz);
+  const size = Math.max(Math.hypot(ref.R.re, ref.R.im), Math.hypot(ref.T.re, ref.T.im));
+  const err = Math.max(complexDistance(got.R, ref.R), complexDistance(got.T, ref.T)) / size;
+  return { err, bound: Math.max(1e-12, (PHASE_ROUNDINGS * phaseLimit(stack, f_Hz)) / size), phase: ref.phase_rad, loss: ref.loss_np };
+}
+
+/**
+ * A random stack of low-loss layers (ε''/ε' from 1e-12 to 1e-4 at the frequency drawn, fixed, Debye, Lorentz and
+ * power-law models), sheets, a conductor or a dielectric behind, TE/TM at 0–80°, 1 MHz–1 THz, 1 µm–10 m.
+ */
+export function randomLowLossStack(rand: () => number): { stack: Stack; f_Hz: number } {
+  const f = 10 ** (6 + rand() * 6);
+  const w = 2 * Math.PI * f;
+  const layers: Layer[] = [];
+  const n = 1 + Math.floor(rand() * 5);
+  for (let i = 0; i < n; i++) {
+    if (rand() < 0.15) { layers.push(sheet(10 ** (1 + rand() * 3))); continue; }
+    const eps = 1 + rand() * 9, t = 10 ** (-12 + rand() * 8);
+    const sigma = t * eps * w * EPS0_F_per_m;
+    const pickModel = rand();
+    let spec: BulkModel;
+    if (pickModel < 0.4) spec = { model: 'fixed', eps_r: eps, sigma_S_per_m: sigma };
+    // A Debye pole far below f (ωτ ≫ 1): ε'' ≈ Δε/(ωτ), chosen to give the loss tangent drawn.
+    else if (pickModel < 0.6) spec = { model: 'debye', eps_inf: eps, poles: [{ delta_eps: 1, tau_ps: 1e12 / (w * t * eps) }], sigma_S_per_m: 0 };
+    // A Lorentz pole far above f with a small damping: ε'' ≈ Δε ωγ/ω0².
+    else if (pickModel < 0.8) {
+      const f0 = 10 * f, gamma = (t * eps * f0 * f0) / f;
+      spec = { model: 'lorentz', eps_inf: eps, poles: [{ delta_eps: 1, f0_GHz: f0 / GHz, gamma_GHz: gamma / GHz }], sigma_S_per_m: 0 };
+    } else spec = { model: 'power-law', a: eps, b: 0, c: sigma * (f / GHz) ** -0.5, d: 0.5 };
+    layers.push(layer(bulk(spec), 10 ** (-6 + rand() * 7)));
+  }
+  const front = rand() < 0.7 ? AIR : dielectric(1 + rand() * 3);
+  const stack = makeStack({
+    layers, front, back: rand() < 0.2 ? 'pec' : dielectric(1 + rand() * 5),
+    angle_deg: rand() < 0.4 ? 0 : rand() * 80, polarization: rand() < 0.5 ? 'TE' : 'TM',
+  });
+  return { stack, f_Hz: f };
 }

@@ -5,30 +5,16 @@
 
 import { describe, expect, it } from 'vitest';
 import { type Complex, decayingSqrtInto, sqrt } from '../../src/complex.ts';
-import type { BulkModel } from '../../src/materials/types.ts';
-import type { Layer, Stack } from '../../src/stack/types.ts';
-import { absorption, solveTmm, tmmAt } from '../../src/tmm/solve.ts';
-import { EPS0_F_per_m, GHz } from '../../src/units.ts';
-import { complexDistance, phaseLimit, referenceCascade } from '../support/dd-cascade.ts';
+import { absorption, solveTmm } from '../../src/tmm/solve.ts';
+import { GHz } from '../../src/units.ts';
+import { compareWithReference, randomLowLossStack, referenceCascade } from '../support/dd-cascade.ts';
 import {
   cdd, cddNumber, cddSqrt, DD_HALF_PI, DD_LN2, DD_PI, DD_TWO_PI, dd, ddExpSeries, ddMul, ddNumber, ddScale, ddSinCos,
   ddSinSeries, ddSub,
 } from '../support/double-double.ts';
-import { AIR, bulk, dielectric, layer, makeStack, prng, sheet } from '../support/build-stack.ts';
+import { dielectric, layer, makeStack, prng } from '../support/build-stack.ts';
 
-/**
- * The solver's phases pass through about five roundings (2π f, / c0, × q, × d, and the square root that gives q),
- * each ≤ 1.1e-16 relative, so its error may reach that many times the phase limit (measured: up to 3.5×).
- */
-const PHASE_ROUNDINGS = 6;
-
-/** Worst of |ΔR|, |ΔT| over max(|R|, |T|), and the bound the check allows. */
-function compare(stack: Stack, f_Hz: number): { err: number; bound: number; phase: number; loss: number } {
-  const got = tmmAt(stack, f_Hz), ref = referenceCascade(stack, f_Hz);
-  const size = Math.max(Math.hypot(ref.R.re, ref.R.im), Math.hypot(ref.T.re, ref.T.im));
-  const err = Math.max(complexDistance(got.R, ref.R), complexDistance(got.T, ref.T)) / size;
-  return { err, bound: Math.max(1e-12, (PHASE_ROUNDINGS * phaseLimit(stack, f_Hz)) / size), phase: ref.phase_rad, loss: ref.loss_np };
-}
+const compare = compareWithReference;
 
 describe('the double-double reference itself', () => {
   it('holds π, 2π, π/2 and ln 2 to 32 digits (checked by series that do not use them: sin²(π/4) = ½, e^{ln 2} = 2)', () => {
@@ -132,40 +118,15 @@ describe('exact solver vs the double-double cascade', () => {
 
   it('random low-loss stacks (ε\'\'/ε\' from 1e-12 to 1e-4, every bulk model, sheets, conductor, TE/TM, 1 MHz–1 THz, 1 µm–10 m)', () => {
     const rand = prng(2040);
-    const tanDelta = () => 10 ** (-12 + rand() * 8);
-    let tested = 0, worstRatio = 0;
-    while (tested < 400) {
-      const f = 10 ** (6 + rand() * 6);
-      const w = 2 * Math.PI * f;
-      const layers: Layer[] = [];
-      const n = 1 + Math.floor(rand() * 5);
-      for (let i = 0; i < n; i++) {
-        if (rand() < 0.15) { layers.push(sheet(10 ** (1 + rand() * 3))); continue; }
-        const eps = 1 + rand() * 9, t = tanDelta();
-        const sigma = t * eps * w * EPS0_F_per_m;
-        const pickModel = rand();
-        let spec: BulkModel;
-        if (pickModel < 0.4) spec = { model: 'fixed', eps_r: eps, sigma_S_per_m: sigma };
-        // A Debye pole far below f (ωτ ≫ 1): ε'' ≈ Δε/(ωτ), chosen to give the loss tangent drawn.
-        else if (pickModel < 0.6) spec = { model: 'debye', eps_inf: eps, poles: [{ delta_eps: 1, tau_ps: 1e12 / (w * t * eps) }], sigma_S_per_m: 0 };
-        // A Lorentz pole far above f with a small damping: ε'' ≈ Δε ωγ/ω0².
-        else if (pickModel < 0.8) {
-          const f0 = 10 * f, gamma = (t * eps * f0 * f0) / f;
-          spec = { model: 'lorentz', eps_inf: eps, poles: [{ delta_eps: 1, f0_GHz: f0 / GHz, gamma_GHz: gamma / GHz }], sigma_S_per_m: 0 };
-        } else spec = { model: 'power-law', a: eps, b: 0, c: sigma * (f / GHz) ** -0.5, d: 0.5 };
-        layers.push(layer(bulk(spec), 10 ** (-6 + rand() * 7)));
-      }
-      const front = rand() < 0.7 ? AIR : dielectric(1 + rand() * 3);
-      const stack = makeStack({
-        layers, front, back: rand() < 0.2 ? 'pec' : dielectric(1 + rand() * 5),
-        angle_deg: rand() < 0.4 ? 0 : rand() * 80, polarization: rand() < 0.5 ? 'TE' : 'TM',
-      });
-      const c = compare(stack, f);
+    let worstRatio = 0;
+    for (let tested = 0; tested < 400;) {
+      const { stack, f_Hz } = randomLowLossStack(rand);
+      const c = compare(stack, f_Hz);
       // The reference's matrix entries grow like e^{Σ|Im φ|}; keep to stacks where it stays far more precise than
       // the solver (total attenuation or evanescent decay below 30 Np).
       if (c.loss > 30) continue;
       tested++;
-      expect(c.err, `stack ${tested} at ${f} Hz`).toBeLessThanOrEqual(c.bound);
+      expect(c.err, `stack ${tested} at ${f_Hz} Hz`).toBeLessThanOrEqual(c.bound);
       worstRatio = Math.max(worstRatio, c.err / c.bound);
     }
     expect(worstRatio).toBeGreaterThan(0); // the comparison measured something
