@@ -3,9 +3,9 @@
 
 import { EPS0_F_per_m } from '../units.ts';
 import { type PmlGrading, PML_ORDER, PML_SIGMA_FACTOR, pmlRegion } from './cpml.ts';
-import { type DebyeArrays, type DispersiveSpan, type KernelState, type OscArrays, emptyKernelState } from './kernel.ts';
+import { type DispersiveSpan, type KernelState, type PoleGroup, emptyKernelState } from './kernel.ts';
 import { type StepModel, refractiveIndex, stepModelPermittivity } from './media.ts';
-import { SHEET_ALIGN_TOL } from './plan.ts';
+import { SHEET_ALIGN_TOL } from './grid-response.ts';
 import type { GridPlan } from './types.ts';
 
 /** α_max Δt/ε0 as a fraction of 2π f_min Δt (CFS term; small). */
@@ -16,14 +16,38 @@ interface Placed { x0: number; x1: number; model: StepModel }
 
 interface NodeMedium {
   epsInf: Float64Array; sigma: Float64Array;
-  debye: DebyeArrays[]; osc: OscArrays[];
-  debyeSum: Float64Array;
+  groups: PoleGroup[];
+  /** Σ b of the Debye poles and Σ ζ of the second-order poles per node (their shares of the Eⁿ⁺¹ coefficient). */
+  debyeSum: Float64Array; oscSum: Float64Array;
+}
+
+/** A material's poles over nodes [a, b) with the given fills (coefficients per kernel.ts). */
+function poleGroup(model: StepModel, a: number, fill: Float64Array, dt: number): PoleGroup {
+  const nd = model.debye.length, no = model.osc.length, n = fill.length;
+  const g: PoleGroup = {
+    lo: a, hi: a + n, fill,
+    nd, da: new Float64Array(nd), db: new Float64Array(nd), dEps: new Float64Array(nd), dState: new Float64Array(n * nd),
+    no, oa: new Float64Array(no), ox: new Float64Array(no), oz: new Float64Array(no), oc: new Float64Array(no), ow0sq: new Float64Array(no),
+    oState: new Float64Array(2 * n * no),
+  };
+  model.debye.forEach((p, q) => {
+    const denom = 2 * p.tau_s + dt;
+    g.da[q] = (2 * p.tau_s - dt) / denom; g.db[q] = (p.deps * dt) / denom; g.dEps[q] = p.deps;
+  });
+  model.osc.forEach((p, q) => {
+    // Trapezoidal second-order ADE: D = 1/Δt² + γ/(2Δt) + ω0²/4.
+    const D = 1 / (dt * dt) + p.gamma / (2 * dt) + p.w0sq / 4;
+    g.oa[q] = (2 / (dt * dt) - p.w0sq / 2) / D;
+    g.ox[q] = -(1 / (dt * dt) - p.gamma / (2 * dt) + p.w0sq / 4) / D;
+    g.oz[q] = p.c / (4 * D); g.oc[q] = p.c; g.ow0sq[q] = p.w0sq;
+  });
+  return g;
 }
 
 /** Fill per-node media of a grid of n nodes whose node i sits at x = (i − i0) dx. */
 function placeMedia(n: number, i0: number, dx: number, dt: number, placed: Placed[]): NodeMedium {
-  const epsInf = new Float64Array(n), sigma = new Float64Array(n), debyeSum = new Float64Array(n);
-  const debye: DebyeArrays[] = [], osc: OscArrays[] = [];
+  const epsInf = new Float64Array(n), sigma = new Float64Array(n), debyeSum = new Float64Array(n), oscSum = new Float64Array(n);
+  const groups: PoleGroup[] = [];
   for (const p of placed) {
     // Nodes whose cell [x − dx/2, x + dx/2] overlaps (x0, x1).
     const lo = Math.max(0, Math.floor((p.x0 / dx + i0 - 0.5)) );
@@ -44,23 +68,16 @@ function placeMedia(n: number, i0: number, dx: number, dt: number, placed: Place
       epsInf[i] += wi * p.model.epsInf;
       sigma[i] += wi * p.model.sigma;
     }
-    for (const pole of p.model.debye) {
-      const bb = new Float64Array(b - a);
-      const denom = 2 * pole.tau_s + dt;
-      for (let i = a; i < b; i++) { bb[i - a] = (w[i - lo] * pole.deps * dt) / denom; debyeSum[i] += bb[i - a]; }
-      debye.push({ lo: a, hi: b, a: (2 * pole.tau_s - dt) / denom, b: bb, p: new Float64Array(b - a) });
+    if (p.model.debye.length + p.model.osc.length === 0) continue;
+    const g = poleGroup(p.model, a, w.slice(a - lo, b - lo), dt);
+    for (let i = a; i < b; i++) {
+      const f = g.fill[i - a];
+      for (let q = 0; q < g.nd; q++) debyeSum[i] += f * g.db[q];
+      for (let q = 0; q < g.no; q++) oscSum[i] += f * g.oz[q];
     }
-    for (const pole of p.model.osc) {
-      const g = 1 + (pole.gamma * dt) / 2;
-      const zeta = new Float64Array(b - a);
-      for (let i = a; i < b; i++) zeta[i - a] = (w[i - lo] * pole.c * dt * dt) / g;
-      osc.push({
-        lo: a, hi: b, alpha: (2 - pole.w0sq * dt * dt) / g, xi: -(1 - (pole.gamma * dt) / 2) / g,
-        zeta, p: new Float64Array(b - a), pOld: new Float64Array(b - a),
-      });
-    }
+    groups.push(g);
   }
-  return { epsInf, sigma, debye, osc, debyeSum };
+  return { epsInf, sigma, groups, debyeSum, oscSum };
 }
 
 /** Coefficients of a state from its per-node media (walls at both ends stay zero). */
@@ -68,12 +85,11 @@ function fillCoefficients(s: KernelState, m: NodeMedium, courant: number, dt: nu
   const n = s.n;
   for (let i = 0; i < n - 1; i++) s.db[i] = courant;
   let dLo = n, dHi = 0;
-  for (const g of m.debye) { dLo = Math.min(dLo, g.lo); dHi = Math.max(dHi, g.hi); }
-  for (const g of m.osc) { dLo = Math.min(dLo, g.lo); dHi = Math.max(dHi, g.hi); }
+  for (const g of m.groups) { dLo = Math.min(dLo, g.lo); dHi = Math.max(dHi, g.hi); }
   const cp = dHi > dLo ? new Float64Array(dHi - dLo) : null;
   for (let i = 1; i < n - 1; i++) {
     const sg = (m.sigma[i] * dt) / (2 * EPS0_F_per_m);
-    const den = m.epsInf[i] + sg + m.debyeSum[i];
+    const den = m.epsInf[i] + sg + m.debyeSum[i] + m.oscSum[i];
     s.ca[i] = (m.epsInf[i] - sg - m.debyeSum[i]) / den;
     s.cb[i] = courant / den;
     if (cp && i >= dLo && i < dHi) cp[i - dLo] = 1 / den;
@@ -81,7 +97,7 @@ function fillCoefficients(s: KernelState, m: NodeMedium, courant: number, dt: nu
   if (cp) {
     const span: DispersiveSpan = {
       lo: dLo, hi: dHi, cp, eOld: new Float64Array(dHi - dLo), acc: new Float64Array(dHi - dLo),
-      debye: m.debye, osc: m.osc,
+      groups: m.groups,
     };
     s.disp = span;
   }

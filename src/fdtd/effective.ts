@@ -1,5 +1,6 @@
 // The stack as the engine steps it: power laws fitted, good conductors turned into a wall (thick)
-// or a resistive sheet (thin film), warnings saying so.
+// or a resistive sheet (thin film), warnings saying so. Fits are cached per stack (a fit is a small linear
+// program; a stack planned twice, as the command line does to refuse oversized runs early, fits once).
 
 import { isNonMagnetic } from '../materials/permeability.ts';
 import { effectiveConductivity, permittivity } from '../materials/permittivity.ts';
@@ -9,6 +10,7 @@ import { MU0_H_per_m } from '../units.ts';
 import { PlanError } from './errors.ts';
 import { type PowerLawFit, fitPowerLaw } from './fit-power-law.ts';
 import { type StepModel, stepModelOf } from './media.ts';
+import { probeWeights } from './probe-weights.ts';
 import type { EffectiveStack, GridSegment, GridSheet } from './types.ts';
 
 /** ε''/max(ε', 1) at the band top above which a medium is a conductor for the engine. */
@@ -26,22 +28,60 @@ const skinDepth_m = (m: BulkModel, f_Hz: number): number =>
 
 export interface Resolved { effective: EffectiveStack; fits: PowerLawFit[]; warnings: string[] }
 
+/** Fits warn when their worst error over the band exceeds these (ε' and ε'' separately). */
+export const FIT_WARN_RE = 0.01;
+export const FIT_WARN_IM = 0.03;
+
+/** A warning for each fit whose worst error over the band is above FIT_WARN_RE in ε' or FIT_WARN_IM in ε''. */
+export function fitWarnings(fits: readonly PowerLawFit[]): string[] {
+  const out: string[] = [];
+  for (const f of fits) {
+    const high = f.maxRelErr_re > FIT_WARN_RE || f.maxRelErr_im > FIT_WARN_IM;
+    const negative = f.minEpsRe_wide < 1;
+    if (!high && !negative) continue;
+    const below = negative ? `; ε' falls to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top` : '';
+    out.push(
+      `material "${f.material}": stepped by the pulse engine as a fitted causal model (a power law is not causal); ` +
+      `its worst error over the band is ${(100 * f.maxRelErr_re).toFixed(2)} % in ε' and ${(100 * f.maxRelErr_im).toFixed(2)} % in ε''${below} ` +
+      '(the fit favours the frequencies whose waves reach the probes). The agreement row "stepped media-tmm" shows what this does to R and T.',
+    );
+  }
+  return out;
+}
+
+/** Stacks resolved recently, by everything the result depends on. */
+const CACHE_SIZE = 16;
+const cache = new Map<string, Resolved>();
+
+const cacheKey = (stack: Stack): string =>
+  JSON.stringify([stack.band_Hz, stack.front, stack.layers, stack.back, stack.incidence]);
+
+/** The effective stack (cached); callers get their own copies of the warning and fit lists. */
 export function resolveStack(stack: Stack): Resolved {
+  const key = cacheKey(stack);
+  let hit = cache.get(key);
+  if (!hit) {
+    hit = resolveUncached(stack);
+    if (cache.size >= CACHE_SIZE) cache.delete(cache.keys().next().value as string);
+    cache.set(key, hit);
+  }
+  return { effective: hit.effective, fits: [...hit.fits], warnings: [...hit.warnings] };
+}
+
+function resolveUncached(stack: Stack): Resolved {
   const fits: PowerLawFit[] = [];
   const warnings: string[] = [];
   const band = stack.band_Hz;
-  const cache = new Map<string, StepModel>();
-  const thicknessOf = (name: string): number =>
-    stack.layers.reduce((d, l) => d + (l.kind === 'bulk' && l.material.name === name ? l.thickness_m : 0), 0);
+  const models = new Map<string, StepModel>();
   const modelOf = (mat: BulkMaterial): StepModel => {
     const spec = mat.spec;
     if (spec.model !== 'power-law') return stepModelOf(spec);
     const key = `${mat.name}|${spec.a}|${spec.b}|${spec.c}|${spec.d}`;
-    const hit = cache.get(key);
+    const hit = models.get(key);
     if (hit) return hit;
-    const fit = fitPowerLaw(spec, band, mat.name, thicknessOf(mat.name));
+    const fit = fitPowerLaw(spec, band, mat.name, { probeWeight: probeWeights(stack, mat.name) });
     fits.push(fit);
-    cache.set(key, fit.model);
+    models.set(key, fit.model);
     return fit.model;
   };
   const magnetic = [stack.front, ...stack.layers.map((l) => l.material), ...(stack.back === 'pec' ? [] : [stack.back])]
@@ -104,15 +144,7 @@ export function resolveStack(stack: Stack): Resolved {
       conductors++;
     } else back = modelOf(stack.back);
   }
-  for (const f of fits) {
-    if (f.maxRelErr_abs > 0.005) {
-      warnings.push(
-        `material "${f.material}": stepped by the pulse engine as a fitted causal model (a power law is not causal); ` +
-        `worst error over the band ${(100 * f.maxRelErr_abs).toFixed(2)} % in |ε| (${(100 * f.maxRelErr_re).toFixed(2)} % in ε', ` +
-        `${(100 * f.maxRelErr_im).toFixed(2)} % in ε''). The agreement row "stepped media vs tmm" shows what this does to R and T.`,
-      );
-    }
-  }
+  warnings.push(...fitWarnings(fits));
   const substitutions = fits.length + conductors;
   return { effective: { front, segments, sheets, back, thickness_m: x, substitutions }, fits, warnings };
 }

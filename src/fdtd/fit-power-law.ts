@@ -1,14 +1,27 @@
-// Fit an ITU-R P.2040 power-law material (ε' = a f^b, σ = c f^d, f in GHz) over a band with a causal
-// model the kernel can step: ε∞ + Σ Δε_k/(1 + jωτ_k) − jσ/(ωε0), all coefficients ≥ 0 and ε∞ ≥ 1,
-// with fixed log-spaced relaxation times (non-negative least squares, Lawson & Hanson).
-// The fit's worst relative error in ε' and ε'' over the band is reported beside the results.
+// Fit an ITU-R P.2040 power-law material (ε' = a f^b, σ = c f^d, f in GHz) with a causal model the kernel
+// can step:  ε∞ − jσ/(ωε0) + Σ c_k/(ω_k² − ω² + jωγ_k), every coefficient ≥ 0, ε∞ ≥ 1.
+// Each term is passive (its ε'' ≥ 0 at every frequency), so the sum is passive and obeys Kramers–Kronig
+// (common practice, no source). Heavily damped terms (Q ≪ 1) act as Debye relaxations, lightly damped ones
+// above the band let ε' rise with frequency as the table's flat ε' with falling ε'' needs, and with no
+// Drude term (ω_k = 0) the only static conductivity is σ, which is capped at the table's own σ at the
+// bottom of the fitted range: the fit invents no DC conduction the table lacks.
+//
+// The fit is a linear program (simplex.ts): minimize t subject to
+//   w'(f)·|ε'_fit − ε'|/ε' ≤ t  and  w''(f)·|ε''_fit − ε''|/ε'' ≤ t   (ε' and ε'' separately),
+//   ε'_fit ≥ 1 from half the band's bottom to twice its top,  σ ≤ σ_table(bottom of the fitted range),
+// over the band and the pulse's spectral support around it (weights there fall with the pulse's content,
+// gentler than in the band). The weights say how much R and T at the probes move for a relative change
+// of ε' and of ε'' at f (`probeWeight`, from the stack: a wall that swallows a wave does not make its
+// depth matter), floored so neither part is ignored. Kramers–Kronig forbids a flat ε' with a falling ε'',
+// so a residue remains; it is reported beside the results (worst errors over the band).
 
 import type { PowerLawModel } from '../materials/types.ts';
 import { permittivity } from '../materials/permittivity.ts';
-import { C0_m_per_s, EPS0_F_per_m } from '../units.ts';
+import { EPS0_F_per_m } from '../units.ts';
 import type { StepModel } from './media.ts';
 import { stepModelPermittivity } from './media.ts';
-import { nnls } from './nnls.ts';
+import { pulseForBand, pulseSpectrumRelative, type PulseShape } from './pulse.ts';
+import { minimizeLp } from './simplex.ts';
 
 export interface PowerLawFit {
   /** Material name (as the stack names it). */
@@ -21,115 +34,224 @@ export interface PowerLawFit {
   maxRelErr_im: number;
   /** max |ε_fit − ε| / |ε| over the band. */
   maxRelErr_abs: number;
+  /** Smallest ε'_fit from half the band's bottom to twice its top (≥ 1 by construction). */
+  minEpsRe_wide: number;
+  /** Frequencies the fit covered (the band and the pulse's support around it). */
+  fitRange_Hz: [number, number];
 }
 
-/** Broad resonances at these multiples of the fit's top frequency (Q = 1). */
-const OSC_ABOVE = [1.2, 1.5, 2.2, 3];
-/** Quality factors of those resonances. */
-const OSC_Q = [0.5, 1, 2];
-/** Drude-like terms with collision rates at these multiples of the fit's bottom frequency. */
-const DRUDE_BELOW = [0.05, 0.2, 0.6, 0.9];
-/** The fit covers the band widened by this factor at each end. */
-const FIT_MARGIN = 1.02;
-/** Rounds of minimax reweighting after the first least-squares fit. */
-const REWEIGHT_ROUNDS = 16;
-/** Evaluation points of the error report. */
-const CHECK_POINTS = 201;
+/** How much the probes see a relative change of ε' (re) and ε'' (im) at f; any positive scale. */
+export type ProbeWeight = (f_Hz: number) => { re: number; im: number };
 
-/**
- * @param thickness_m total thickness of this material in the stack (0 for a half-space): the fit then
- *   weights each frequency by the phase the material accumulates there, so the error it leaves in a
- *   thick wall's transmission is spread evenly over the band instead of piling up at the top.
- */
-export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', thickness_m = 0): PowerLawFit {
-  const [f1, f2] = band_Hz;
-  // Fit slightly beyond the band: the pulse carries some energy there too.
-  const lo = f1 / FIT_MARGIN, hi = f2 * FIT_MARGIN;
-  const decades = Math.log10(hi / lo);
-  const nPoles = Math.max(3, Math.ceil(2.5 * decades) + 3);
-  // Relaxation times from 1/(2π·3 hi) to 3/(2π lo), log-spaced.
-  const tMin = 1 / (2 * Math.PI * hi * 3), tMax = 3 / (2 * Math.PI * lo);
-  const taus: number[] = [];
-  for (let k = 0; k < nPoles; k++) taus.push(tMin * Math.pow(tMax / tMin, nPoles === 1 ? 0 : k / (nPoles - 1)));
-  // Second-order terms let ε' rise with frequency inside the band (Debye poles and σ can only make it
-  // fall), which a power law with constant ε' and falling ε'' needs: broad resonances above the band
-  // and Drude-like terms (ω0 = 0) with collision rates below it. All passive, all stable.
-  const osc: { w0sq: number; gamma: number }[] = [];
-  for (const k of OSC_ABOVE) for (const q of OSC_Q) { const w0 = 2 * Math.PI * hi * k; osc.push({ w0sq: w0 * w0, gamma: w0 / q }); }
-  for (const k of DRUDE_BELOW) osc.push({ w0sq: 0, gamma: 2 * Math.PI * lo * k });
-  const nOsc = osc.length;
-  const nf = 80;
-  const n = 2 + nPoles + nOsc; // x = [ε∞ − 1, σ, Δε_1 … Δε_K, c_1 … c_M]
-  const m = 2 * nf;
-  const A = new Float64Array(m * n), b = new Float64Array(m);
-  for (let i = 0; i < nf; i++) {
-    const f = lo * Math.pow(hi / lo, i / (nf - 1)), w = 2 * Math.PI * f;
-    const e = permittivity(pl, f);
-    const er = e.re, ei = -e.im; // ε', ε''
-    // Both parts weighted alike by 1/|ε| (a relative error in the complex ε, which is what sets the
-    // face's reflection) times 1 + ½ k0 n d (the phase a relative error in ε adds across the layer).
-    const g = 1 + (Math.PI * f * Math.sqrt(Math.max(er, 1)) * thickness_m) / C0_m_per_s;
-    const wr = g / Math.max(Math.hypot(er, ei), 1e-6);
-    const wi = wr;
-    const r = 2 * i, s = 2 * i + 1;
-    A[r * n + 0] = wr; b[r] = (er - 1) * wr;
-    A[s * n + 1] = wi / (w * EPS0_F_per_m); b[s] = ei * wi;
-    for (let k = 0; k < nPoles; k++) {
-      const wt = w * taus[k], d = 1 + wt * wt;
-      A[r * n + 2 + k] = wr / d;
-      A[s * n + 2 + k] = (wi * wt) / d;
-    }
-    for (let k = 0; k < nOsc; k++) {
-      const a = osc[k].w0sq - w * w, b = w * osc[k].gamma, d = a * a + b * b; // c/(a + jb)
-      A[r * n + 2 + nPoles + k] = (wr * a) / d;
-      A[s * n + 2 + nPoles + k] = (wi * b) / d;
-    }
-  }
-  // Column scaling for conditioning.
-  const cs = new Float64Array(n);
-  for (let j = 0; j < n; j++) {
-    let s2 = 0;
-    for (let i = 0; i < m; i++) s2 += A[i * n + j] ** 2;
-    cs[j] = s2 > 0 ? 1 / Math.sqrt(s2) : 1;
-    for (let i = 0; i < m; i++) A[i * n + j] *= cs[j];
-  }
-  // Least squares first, then a few rounds of Lawson's reweighting (row weights grow where the
-  // residual is large) to push the fit toward the smallest worst-case error the report quotes.
-  const u = new Float64Array(m).fill(1);
-  const Aw = new Float64Array(m * n), bw = new Float64Array(m);
-  let best: Float64Array | null = null, bestWorst = Infinity;
-  for (let round = 0; round < REWEIGHT_ROUNDS; round++) {
-    for (let i = 0; i < m; i++) {
-      const s = Math.sqrt(u[i]);
-      for (let j = 0; j < n; j++) Aw[i * n + j] = A[i * n + j] * s;
-      bw[i] = b[i] * s;
-    }
-    const xs = nnls(Aw, m, n, bw);
-    let worst = 0, total = 0;
-    const res = new Float64Array(m);
-    for (let i = 0; i < m; i++) {
-      let r = b[i];
-      for (let j = 0; j < n; j++) r -= A[i * n + j] * xs[j];
-      res[i] = Math.abs(r);
-      worst = Math.max(worst, res[i]);
-    }
-    if (worst < bestWorst) { bestWorst = worst; best = xs; }
-    for (let i = 0; i < m; i++) { u[i] *= res[i] + 1e-6 * worst; total += u[i]; }
-    for (let i = 0; i < m; i++) u[i] *= m / total;
-  }
-  const x = (best as Float64Array).map((v, j) => v * cs[j]);
-  const model: StepModel = {
-    epsInf: 1 + x[0], sigma: x[1],
-    debye: taus.map((tau_s, k) => ({ deps: x[2 + k], tau_s })).filter((p) => p.deps > 0),
-    osc: osc.map((o, k) => ({ c: x[2 + nPoles + k], w0sq: o.w0sq, gamma: o.gamma })).filter((o) => o.c > 0),
+export interface FitOptions {
+  /** Sensitivity of R and T to this material (default: all frequencies alike). */
+  probeWeight?: ProbeWeight;
+  /** The run's pulse (default: the engine's pulse for the band). */
+  pulse?: PulseShape;
+}
+
+/** Resonance frequencies of the terms: per decade, and how far beyond the fitted range they reach (decades). */
+const TERMS_PER_DECADE = 3;
+const TERMS_BELOW_DECADES = 2;
+const TERMS_ABOVE_DECADES = 2;
+/** Quality factors ω_k/γ_k of the terms (0.02: a Debye relaxation in all but name). */
+const TERM_Q = [0.02, 0.1, 0.3, 1, 3, 10];
+/** No term relaxes slower than this many periods of the bottom of the fitted range (the run waits for it). */
+const SLOWEST_RELAXATION_PERIODS = 10 / (2 * Math.PI);
+/** Samples per decade in the band (at least BAND_MIN_SAMPLES) and outside it. */
+const BAND_SAMPLES_PER_DECADE = 40;
+const BAND_MIN_SAMPLES = 40;
+const OUTSIDE_SAMPLES_PER_DECADE = 12;
+/** The fit covers the pulse's content down to this level relative to its peak … */
+const SUPPORT_LEVEL = 0.01;
+/** … but no lower than this fraction of the band's bottom and no higher than this multiple of its top. */
+const SUPPORT_LOW_LIMIT = 0.5;
+const SUPPORT_HIGH_LIMIT = 3;
+/** Outside the band, weights are this fraction of the band's at its edges, falling with the pulse's content. */
+const OUTSIDE_WEIGHT = 0.15;
+/** A part's weight never falls below this fraction of the largest in the band (neither ε' nor ε'' is ignored). */
+const WEIGHT_FLOOR = 0.15;
+/** ε' ≥ 1 is imposed at this many points from half the band's bottom to twice its top, then wherever it fails. */
+const EPS_RE_CHECKS = 40;
+const EPS_RE_ROUNDS = 4;
+/** Cost of a unit (scaled) coefficient beside the worst weighted error: keeps the simplex off degenerate vertices. */
+const COEFFICIENT_COST = 1e-9;
+/** Evaluation points of the error report and of the ε' ≥ 1 check. */
+const CHECK_POINTS = 201;
+const WIDE_CHECK_POINTS = 600;
+
+interface Sample { f: number; w: number; re: number; im: number }
+
+const logspace = (a: number, b: number, n: number): number[] =>
+  n <= 1 ? [a] : Array.from({ length: n }, (_, i) => a * Math.pow(b / a, i / (n - 1)));
+
+/** Band and out-of-band samples with their base weights (1 in the band, falling with the pulse outside). */
+function samples(pl: PowerLawModel, band: [number, number], pulse: PulseShape): { list: Sample[]; range: [number, number] } {
+  const [f1, f2] = band;
+  const edge = Math.min(pulseSpectrumRelative(pulse, f1), pulseSpectrumRelative(pulse, f2));
+  const peak = pulseSpectrumRelative(pulse, pulse.f0_Hz);
+  let lo = f1, hi = f2;
+  while (lo > f1 * SUPPORT_LOW_LIMIT && pulseSpectrumRelative(pulse, lo / 1.05) > SUPPORT_LEVEL * peak) lo /= 1.05;
+  while (hi < f2 * SUPPORT_HIGH_LIMIT && pulseSpectrumRelative(pulse, hi * 1.05) > SUPPORT_LEVEL * peak) hi *= 1.05;
+  const fs: { f: number; w: number }[] = [];
+  const decades = (a: number, b: number) => Math.log10(b / a);
+  const nBand = Math.max(BAND_MIN_SAMPLES, Math.ceil(BAND_SAMPLES_PER_DECADE * decades(f1, f2)));
+  // Log and linear spacing together: the bottom of a wide band and its top both get samples.
+  for (const f of logspace(f1, f2, nBand)) fs.push({ f, w: 1 });
+  for (let i = 1; i < nBand - 1; i += 2) fs.push({ f: f1 + ((f2 - f1) * i) / (nBand - 1), w: 1 });
+  const outside = (a: number, b: number, skipFirst: boolean): void => {
+    const n = Math.ceil(OUTSIDE_SAMPLES_PER_DECADE * decades(a, b)) + 1;
+    if (n < 2) return;
+    logspace(a, b, n).forEach((f, i) => {
+      if ((skipFirst && i === 0) || (!skipFirst && i === n - 1)) return;
+      fs.push({ f, w: OUTSIDE_WEIGHT * Math.min(1, pulseSpectrumRelative(pulse, f) / edge) });
+    });
   };
+  if (lo < f1) outside(lo, f1, false);
+  if (hi > f2) outside(f2, hi, true);
+  const list = fs.map(({ f, w }) => {
+    const e = permittivity(pl, f);
+    return { f, w, re: e.re, im: -e.im };
+  });
+  return { list, range: [lo, hi] };
+}
+
+interface Term { w0sq: number; gamma: number }
+
+function dictionary(range: [number, number]): Term[] {
+  const a = range[0] / 10 ** TERMS_BELOW_DECADES, b = range[1] * 10 ** TERMS_ABOVE_DECADES;
+  const n = Math.ceil(TERMS_PER_DECADE * Math.log10(b / a)) + 1;
+  const out: Term[] = [];
+  for (const f of logspace(a, b, n)) {
+    const w0 = 2 * Math.PI * f;
+    for (const q of TERM_Q) {
+      // Slowest time constant of the term: 2Q/ω0 when it rings, 1/(Qω0) when overdamped.
+      const tau = Math.max(2 * q, 1 / q) / w0;
+      if (tau <= SLOWEST_RELAXATION_PERIODS / range[0]) out.push({ w0sq: w0 * w0, gamma: w0 / q });
+    }
+  }
+  return out;
+}
+
+/** ε' and ε'' of each unknown at angular frequency w: [ε∞ − 1, σ, c_1 … c_K] (unit coefficients). */
+function columns(terms: Term[], w: number, outRe: Float64Array, outIm: Float64Array): void {
+  outRe[0] = 1; outIm[0] = 0;
+  outRe[1] = 0; outIm[1] = 1 / (w * EPS0_F_per_m);
+  for (let k = 0; k < terms.length; k++) {
+    const t = terms[k], a = t.w0sq - w * w, b = w * t.gamma, d = a * a + b * b;
+    outRe[2 + k] = a / d; outIm[2 + k] = b / d;
+  }
+}
+
+export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', options: FitOptions = {}): PowerLawFit {
+  const [f1, f2] = band_Hz;
+  const { list, range } = samples(pl, band_Hz, options.pulse ?? pulseForBand(band_Hz));
+  const terms = dictionary(range);
+  const weights = errorWeights(list, options.probeWeight);
+  // σ ≤ σ of the table at the bottom of the fitted range (no invented DC conduction).
+  const sigmaMax = Math.max(0, pl.c * Math.pow(range[0] / 1e9, pl.d));
+  // ε' ≥ 1: imposed at fixed points, then (cutting planes) wherever the fit still dips below 1.
+  const checks = logspace(f1 / 2, 2 * f2, EPS_RE_CHECKS);
+  let model = solveFit(list, weights, terms, checks, sigmaMax);
+  for (let round = 0; round < EPS_RE_ROUNDS; round++) {
+    const dips = epsReDips(model, [f1 / 2, 2 * f2]);
+    if (dips.length === 0) break;
+    checks.push(...dips);
+    model = solveFit(list, weights, terms, checks, sigmaMax);
+  }
+  return { material, band_Hz: [f1, f2], model, ...fitErrors(pl, model, band_Hz), fitRange_Hz: range };
+}
+
+/** Weights on the relative errors of ε' and ε'': the probes' sensitivity, floored, times the sample's base weight. */
+function errorWeights(list: Sample[], probeWeight?: ProbeWeight): { re: number[]; im: number[] } {
+  const pw = list.map((s) => probeWeight?.(s.f) ?? { re: 1, im: 1 });
+  let top = 1e-300;
+  list.forEach((s, i) => { if (s.w === 1) top = Math.max(top, pw[i].re, pw[i].im); });
+  return {
+    re: list.map((s, i) => s.w * Math.max(pw[i].re / top, WEIGHT_FLOOR)),
+    im: list.map((s, i) => s.w * Math.max(pw[i].im / top, WEIGHT_FLOOR)),
+  };
+}
+
+/** Frequencies where ε'_fit dips below 1: local minima of a fine grid, refined by golden-section search. */
+function epsReDips(model: StepModel, [a, b]: [number, number]): number[] {
+  const fs = logspace(a, b, WIDE_CHECK_POINTS), re = (f: number) => stepModelPermittivity(model, f).re;
+  const v = fs.map(re);
+  const out: number[] = [];
+  for (let i = 0; i < fs.length; i++) {
+    if ((i > 0 && v[i] > v[i - 1]) || (i < fs.length - 1 && v[i] > v[i + 1])) continue;
+    // Golden-section search for the minimum between the neighbours (in log f).
+    let lo = Math.log(fs[Math.max(0, i - 1)]), hi = Math.log(fs[Math.min(fs.length - 1, i + 1)]);
+    const g = (Math.sqrt(5) - 1) / 2;
+    for (let it = 0; it < 40; it++) {
+      const x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo);
+      if (re(Math.exp(x1)) < re(Math.exp(x2))) hi = x2; else lo = x1;
+    }
+    const f = Math.exp((lo + hi) / 2);
+    if (re(f) < 1) out.push(f);
+  }
+  return out;
+}
+
+/** The linear program of the header comment, solved; its unknowns as a step model. */
+function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms: Term[], checks: number[], sigmaMax: number): StepModel {
+  const lossless = list.every((s) => s.im === 0);
+  const nx = 2 + terms.length, n = nx + 1; // unknowns, then t
+  const m = 4 * list.length + checks.length + 1;
+  const G = new Float64Array(m * n), h = new Float64Array(m);
+  const cr = new Float64Array(nx), ci = new Float64Array(nx);
+  // Column scales: each unknown's largest relative contribution over the samples becomes 1 (conditioning).
+  const scale = new Float64Array(nx);
+  for (const s of list) {
+    columns(terms, 2 * Math.PI * s.f, cr, ci);
+    for (let j = 0; j < nx; j++) scale[j] = Math.max(scale[j], Math.abs(cr[j]) / s.re, s.im > 0 ? Math.abs(ci[j]) / s.im : 0);
+  }
+  for (let j = 0; j < nx; j++) scale[j] = scale[j] > 0 ? 1 / scale[j] : 0;
+  let row = 0;
+  const put = (coefRe: number, coefIm: number, rhs: number, tCoef: number): void => {
+    for (let j = 0; j < nx; j++) G[row * n + j] = (coefRe * cr[j] + coefIm * ci[j]) * scale[j];
+    G[row * n + nx] = tCoef;
+    h[row] = rhs;
+    row++;
+  };
+  list.forEach((s, i) => {
+    columns(terms, 2 * Math.PI * s.f, cr, ci);
+    const ar = weights.re[i] / s.re;
+    put(ar, 0, ar * (s.re - 1), 1); //  w'(ε'_fit − ε')/ε' ≥ −t
+    put(-ar, 0, -ar * (s.re - 1), 1); // w'(ε'_fit − ε')/ε' ≤ t
+    const ai = weights.im[i] / (lossless ? s.re : s.im); // a lossless table: ε'' relative to ε'
+    put(0, ai, ai * s.im, 1);
+    put(0, -ai, -ai * s.im, 1);
+  });
+  for (const f of checks) { columns(terms, 2 * Math.PI * f, cr, ci); put(1, 0, 0, 0); } // ε'_fit − 1 ≥ 0
+  cr.fill(0); ci.fill(0); cr[1] = -1;
+  put(1, 0, -sigmaMax, 0); // −σ ≥ −σ_max
+  const c = new Float64Array(n);
+  for (let j = 0; j < nx; j++) c[j] = COEFFICIENT_COST * (1 + j / nx); // distinct costs: no ties
+  c[nx] = 1;
+  const sol = minimizeLp(c, G, h, m, n);
+  const x = Array.from({ length: nx }, (_, j) => sol.x[j] * scale[j]);
+  return {
+    epsInf: 1 + x[0], sigma: x[1], debye: [],
+    osc: terms.map((t, k) => ({ c: x[2 + k], w0sq: t.w0sq, gamma: t.gamma })).filter((o) => o.c > 0),
+  };
+}
+
+/** Worst relative errors over the band and the smallest ε' from half its bottom to twice its top. */
+export function fitErrors(pl: PowerLawModel, model: StepModel, band: [number, number]): Omit<PowerLawFit, 'material' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
+  const [f1, f2] = band;
   let eRe = 0, eIm = 0, eAbs = 0;
   for (let i = 0; i < CHECK_POINTS; i++) {
-    const f = f1 + ((f2 - f1) * i) / (CHECK_POINTS - 1);
-    const t = permittivity(pl, f), g = stepModelPermittivity(model, f);
-    eRe = Math.max(eRe, Math.abs(g.re - t.re) / Math.abs(t.re));
-    if (t.im !== 0) eIm = Math.max(eIm, Math.abs(g.im - t.im) / Math.abs(t.im));
-    eAbs = Math.max(eAbs, Math.hypot(g.re - t.re, g.im - t.im) / Math.hypot(t.re, t.im));
+    // Linear and logarithmic spacing (a wide band's bottom decade gets points too).
+    for (const f of [f1 + ((f2 - f1) * i) / (CHECK_POINTS - 1), f1 * Math.pow(f2 / f1, i / (CHECK_POINTS - 1))]) {
+      const t = permittivity(pl, f), g = stepModelPermittivity(model, f);
+      eRe = Math.max(eRe, Math.abs(g.re - t.re) / Math.abs(t.re));
+      if (t.im !== 0) eIm = Math.max(eIm, Math.abs(g.im - t.im) / Math.abs(t.im));
+      eAbs = Math.max(eAbs, Math.hypot(g.re - t.re, g.im - t.im) / Math.hypot(t.re, t.im));
+    }
   }
-  return { material, band_Hz: [f1, f2], model, maxRelErr_re: eRe, maxRelErr_im: eIm, maxRelErr_abs: eAbs };
+  let minRe = Infinity;
+  for (const f of logspace(f1 / 2, 2 * f2, WIDE_CHECK_POINTS)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
+  for (const f of epsReDips(model, [f1 / 2, 2 * f2])) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
+  return { maxRelErr_re: eRe, maxRelErr_im: eIm, maxRelErr_abs: eAbs, minEpsRe_wide: minRe };
 }

@@ -9,12 +9,23 @@
 //   ε∞ (Eⁿ⁺¹ − Eⁿ) + σΔt/(2ε0) (Eⁿ⁺¹ + Eⁿ) + (P̃ⁿ⁺¹ − P̃ⁿ) = S·curl,  P̃ = P/ε0.
 // Nodes 0 and n − 1 are conductor walls (never updated).
 //
-// Dispersive media, auxiliary differential equations (Taflove & Hagness ch. 9):
-//   Debye   τ dP̃/dt + P̃ = Δε E, trapezoidal: P̃ⁿ⁺¹ = a P̃ⁿ + b (Eⁿ⁺¹ + Eⁿ), a = (2τ−Δt)/(2τ+Δt),
-//           b = Δε Δt/(2τ+Δt). Its b enters ca/cb/cp (semi-implicit, unconditionally stable pole).
-//   2nd order (Lorentz, Drude)  P̃'' + γP̃' + ω0²P̃ = c E, central differences, explicit:
-//           P̃ⁿ⁺¹ = α P̃ⁿ + ξ P̃ⁿ⁻¹ + ζ Eⁿ.
-// Subcell averaging weights every pole's strength by the fraction of the cell the material fills.
+// Dispersive media, auxiliary differential equations (Taflove & Hagness ch. 9), every one discretized
+// with the trapezoidal rule (the bilinear map s → (2/Δt)(z − 1)/(z + 1)), like σ:
+//   Debye   τ dP̃/dt + P̃ = Δε E:  P̃ⁿ⁺¹ = a P̃ⁿ + b (Eⁿ⁺¹ + Eⁿ), a = (2τ−Δt)/(2τ+Δt), b = Δε Δt/(2τ+Δt).
+//   2nd order (Lorentz, Drude)  P̃'' + γP̃' + ω0²P̃ = c E:
+//           (P̃ⁿ⁺¹ − 2P̃ⁿ + P̃ⁿ⁻¹)/Δt² + γ(P̃ⁿ⁺¹ − P̃ⁿ⁻¹)/(2Δt) + ω0²(P̃ⁿ⁺¹ + 2P̃ⁿ + P̃ⁿ⁻¹)/4 = c(Eⁿ⁺¹ + 2Eⁿ + Eⁿ⁻¹)/4,
+//           P̃ⁿ⁺¹ = α P̃ⁿ + ξ P̃ⁿ⁻¹ + ζ (Eⁿ⁺¹ + 2Eⁿ + Eⁿ⁻¹).
+// Each pole's b or ζ multiplies Eⁿ⁺¹ and enters the denominator of the E update (semi-implicit), so no pole
+// is ever stepped explicitly. Stability: with every term bilinear, the von Neumann polynomial of the coupled
+// scheme is s²(ε(s) − S² sin²(k̃Δx/2)) + 4 S² sin²(k̃Δx/2)/Δt² = 0 in s = (2/Δt)(z − 1)/(z + 1); for S² ≤ ε∞
+// the left side is s times a positive-real admittance (s(ε − S²κ) plus an inductor), which has no zero with
+// Re s > 0, so |z| ≤ 1 for every passive pole, however far above or below the band (plan.ts, courantLimit).
+// Subcell averaging weights every pole's strength by the fraction of the cell the material fills (`fill`).
+//
+// Pole state is kept node-major per material (PoleGroup), and each pole's update is done in one pass before
+// the E update: what it still needs of Eⁿ⁺¹ is its b·Eⁿ⁺¹ or ζ·Eⁿ⁺¹, which is already in the denominator, so
+// the state holds P̃ⁿ⁺¹ less that term and completes itself at the next step from the E it finds there:
+//   Debye: v = P̃ⁿ⁺¹ − bEⁿ⁺¹;   second order: u = P̃ⁿ⁺¹ − ζEⁿ⁺¹ and P̃ⁿ (with Eⁿ kept in eOld for the next step).
 //
 // CPML (Roden & Gedney, Microwave Opt. Tech. Lett. 27(5), 2000) with κ = 1 (1D needs no stretching):
 //   ψ ← b ψ + c·(difference), b = exp(−(σ+α)Δt/ε0), c = σ/(σ+α)·(b − 1). The curl is replaced by curl + ψ,
@@ -29,12 +40,17 @@ export interface PmlRegion {
   bh: Float64Array; ch: Float64Array; psiH: Float64Array;
 }
 
-/** One Debye pole over the E nodes [lo, hi). */
-export interface DebyeArrays { lo: number; hi: number; a: number; b: Float64Array; p: Float64Array }
-/** One second-order pole over the E nodes [lo, hi). */
-export interface OscArrays {
-  lo: number; hi: number; alpha: number; xi: number;
-  zeta: Float64Array; p: Float64Array; pOld: Float64Array;
+/**
+ * The poles of one material over the E nodes [lo, hi). Per-pole coefficients are for a full cell; node k
+ * carries fill[k] of them. State, node-major: Debye v[k·nd + q]; second order u, P̃ⁿ at oState[k·2no + 2q], [+1].
+ */
+export interface PoleGroup {
+  lo: number; hi: number;
+  fill: Float64Array;
+  /** Debye poles: a, b; Δε (for the energy). */
+  nd: number; da: Float64Array; db: Float64Array; dEps: Float64Array; dState: Float64Array;
+  /** Second-order poles: α, ξ, ζ; c and ω0² (for the energy). */
+  no: number; oa: Float64Array; ox: Float64Array; oz: Float64Array; oc: Float64Array; ow0sq: Float64Array; oState: Float64Array;
 }
 
 /** The span of E nodes that carry any pole, with per-node scratch. */
@@ -42,10 +58,9 @@ export interface DispersiveSpan {
   lo: number; hi: number;
   /** Coefficient of the polarization terms (1 / denominator). */
   cp: Float64Array;
-  /** Eⁿ saved for the Debye update; polarization accumulator. */
+  /** Eⁿ⁻¹ when a step begins (for the second-order poles); polarization accumulator. */
   eOld: Float64Array; acc: Float64Array;
-  debye: DebyeArrays[];
-  osc: OscArrays[];
+  groups: PoleGroup[];
 }
 
 export interface KernelState {
@@ -110,39 +125,43 @@ export function updateE(s: KernelState): void {
   if (d !== null) dispersivePost(d, e);
 }
 
-/** Before the E update: advance the second-order poles (they need Eⁿ), gather the polarization terms. */
+/** Before the E update: every pole advanced but for its Eⁿ⁺¹ term, the polarization terms gathered, Eⁿ saved. */
 function dispersivePre(d: DispersiveSpan, e: Float64Array): void {
   const lo = d.lo, len = d.hi - d.lo, acc = d.acc, eOld = d.eOld;
-  for (let k = 0; k < len; k++) { acc[k] = 0; eOld[k] = e[lo + k]; }
-  const osc = d.osc;
-  for (let q = 0; q < osc.length; q++) {
-    const o = osc[q], p = o.p, pOld = o.pOld, zeta = o.zeta, alpha = o.alpha, xi = o.xi;
-    const off = o.lo - lo, n = o.hi - o.lo;
+  for (let k = 0; k < len; k++) acc[k] = 0;
+  const groups = d.groups;
+  for (let g = 0; g < groups.length; g++) {
+    const G = groups[g], fill = G.fill, n = G.hi - G.lo, off = G.lo - lo;
+    const nd = G.nd, da = G.da, db = G.db, v = G.dState;
+    const no = G.no, oa = G.oa, ox = G.ox, oz = G.oz, st = G.oState;
     for (let k = 0; k < n; k++) {
-      const pNew = alpha * p[k] + xi * pOld[k] + zeta[k] * e[o.lo + k];
-      acc[off + k] -= pNew - p[k];
-      pOld[k] = p[k];
-      p[k] = pNew;
+      const E = e[G.lo + k], f = fill[k];
+      let sum = 0;
+      for (let q = 0, j = k * nd; q < nd; q++, j++) {
+        const bE = db[q] * f * E;
+        const P = v[j] + bE; // P̃ⁿ
+        sum += (1 - da[q]) * P;
+        v[j] = da[q] * P + bE;
+      }
+      const E2 = 2 * E + eOld[off + k];
+      for (let q = 0, j = 2 * k * no; q < no; q++, j += 2) {
+        const z = oz[q] * f;
+        const P = st[j] + z * E; // P̃ⁿ
+        const partial = oa[q] * P + ox[q] * st[j + 1] + z * E2;
+        sum -= partial - P;
+        st[j] = partial;
+        st[j + 1] = P;
+      }
+      acc[off + k] += sum;
     }
   }
-  const deb = d.debye;
-  for (let q = 0; q < deb.length; q++) {
-    const g = deb[q], p = g.p, oneMinusA = 1 - g.a;
-    const off = g.lo - lo, n = g.hi - g.lo;
-    for (let k = 0; k < n; k++) acc[off + k] += oneMinusA * p[k];
-  }
+  for (let k = 0; k < len; k++) eOld[k] = e[lo + k];
 }
 
-/** After the E update: add the polarization terms, then advance the Debye poles (they need Eⁿ⁺¹). */
+/** After the E update: add the polarization terms. */
 function dispersivePost(d: DispersiveSpan, e: Float64Array): void {
-  const lo = d.lo, len = d.hi - d.lo, acc = d.acc, cp = d.cp, eOld = d.eOld;
+  const lo = d.lo, len = d.hi - d.lo, acc = d.acc, cp = d.cp;
   for (let k = 0; k < len; k++) e[lo + k] += cp[k] * acc[k];
-  const deb = d.debye;
-  for (let q = 0; q < deb.length; q++) {
-    const g = deb[q], p = g.p, b = g.b, a = g.a;
-    const off = g.lo - lo, n = g.hi - g.lo;
-    for (let k = 0; k < n; k++) p[k] = a * p[k] + b[k] * (e[g.lo + k] + eOld[off + k]);
-  }
 }
 
 /** A bare state of n E nodes (all coefficients zero); builders fill the coefficients. */

@@ -38,10 +38,13 @@ export function atIncidence(eff: EffectiveStack, incidence: Incidence): Effectiv
   const shifted = (m: StepModel, where: string): StepModel => {
     const epsInf = m.epsInf - shift;
     if (!(epsInf > 0)) {
+      // The highest angle whose shift leaves this medium's ε∞ positive.
+      const limit_deg = (Math.asin(Math.min(1, Math.sqrt(m.epsInf / eff.front.epsInf))) * 180) / Math.PI;
       throw new PlanError(
-        `${where}: at ${angle_deg.toFixed(2)}° the wave is evanescent there (ε∞ ≤ ε_front sin²θ); the pulse engine cannot step it — use the exact solver or the FEM`,
+        `${where}: at ${angle_deg.toFixed(2)}° the pulse engine would step this medium with ε∞ − ε_front sin²θ = ${epsInf.toPrecision(3)} ` +
+        `(ε∞ = ${m.epsInf.toPrecision(4)}, ε_front sin²θ = ${shift.toPrecision(4)}), which it cannot; use an angle below ${limit_deg.toFixed(1)}°, or the exact solver and the FEM`,
         'unsupported',
-        { angle_deg },
+        { angle_deg, limit_deg },
       );
     }
     return { ...m, epsInf };

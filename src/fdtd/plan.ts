@@ -1,332 +1,232 @@
-// Grid planning: cell size, time step, layout, step limit, cost, all before anything is allocated.
+// Grid planning: cell size, time step, layout, step limit, cost, all before anything is allocated, and fast
+// (a few milliseconds once the power-law fits are made; fits are cached per stack).
 //
-// Cell size. The slowest medium (largest Re √ε over the band, layers and half-spaces) sets the
-// shortest wavelength λ_min at the band top; Δx = λ_min / N. Unless the caller fixes N
-// (cellsPerWavelength), N is the smallest value (≥ MIN_CELLS_PER_WAVELENGTH) whose predicted error
-// stays within half the accuracy target, where the predicted error is
-//   Σ_layers  2 d |k̃ − k| · bounce factor · attenuation in front of the layer
-// with k̃ from the 1D Yee dispersion relation (dispersion.ts): a phase error of δ radians on an
-// echo of amplitude a moves R by about a·δ. Δx is then trimmed down so the stack's thickness is a
-// whole number of cells: the front face (x = 0) and the back face fall exactly on E nodes. A stack of
-// a few microns (a film) is instead stepped within the cell at x = 0, when that errs by less than half
-// the accuracy target (`lumped` below).
-//
-// Time step: S = c0 Δt / Δx, default 1 (exact propagation in an air front medium), lowered to
-// √(min ε∞) when a medium has ε∞ < 1.
+// Cell size (plan-cells.ts): the coarsest grid whose predicted engine error (the exact response of the grid
+// itself against that of the stepped media) is within GRID_SHARE of the accuracy target.
+// Time step: S = c0 Δt/Δx = 1 (exact propagation in an air front medium), or √(min ε∞) when a medium's
+// high-frequency permittivity is below 1 (oblique TE lowers it). Every pole is stepped with the trapezoidal
+// rule, which keeps the scheme stable for S ≤ √ε∞ whatever the poles (kernel.ts), so no pole ever demands a
+// smaller step. Steps (plan-steps.ts): source, the transits the probes can see, ring-down, slowest relaxation.
+// Refusals (PlanError) say in words what is too big, by how much, and what to change.
 
-import { C0_m_per_s, ETA0_ohm } from '../units.ts';
+import { C0_m_per_s } from '../units.ts';
 import type { Stack } from '../stack/types.ts';
 import { PlanError } from './errors.ts';
 import { resolveStack } from './effective.ts';
 import { atIncidence } from './oblique.ts';
-import { yeePhaseErrorPerMetre } from './dispersion.ts';
-import { type StepModel, extinctionIndex, refractiveIndex, stepModelPermittivity } from './media.ts';
+import { decayingRoot, discreteWave } from './discrete.ts';
+import { type StepModel, refractiveIndex, stepModelPermittivity } from './media.ts';
+import { chooseCells } from './plan-cells.ts';
+import { SHEET_ALIGN_TOL } from './grid-response.ts';
+import { estimateSteps } from './plan-steps.ts';
 import { pulseForBand } from './pulse.ts';
-import type { GridNodes, GridPlan, LayerGridFigures, PulseOptions } from './types.ts';
+import type { EffectiveStack, GridNodes, GridPlan, LayerGridFigures, PulseOptions } from './types.ts';
 
+export { MIN_CELLS_PER_WAVELENGTH } from './plan-cells.ts';
+export { SHEET_ALIGN_TOL } from './grid-response.ts';
 export const DEFAULT_ACCURACY = 0.01;
-export const MIN_CELLS_PER_WAVELENGTH = 20;
+/** Targets below this are accepted but not promised (the stepped media and round-off set a floor). */
+export const FINEST_ACCURACY = 1e-4;
 export const DEFAULT_PML_CELLS = 24;
 export const DEFAULT_DECAY_dB = 60;
 export const DEFAULT_MAX_CELLS = 2e7;
 export const DEFAULT_MAX_WORK = 3e10;
-/** Fraction of the accuracy target the grid-dispersion error may use (the rest: interfaces, fits, truncation). */
-const DISPERSION_SHARE = 0.5;
+/** Share of the accuracy target the grid's predicted error may use (the rest: interfaces inside cells,
+ *  truncation of the records, boundaries), so the engine's measured error stays within 0.3 × target. */
+export const GRID_SHARE = 0.2;
+/** The front gap is at most this many wavelengths (at the profile frequency) when the stack is thicker. */
+const FRONT_GAP_WAVELENGTHS = 6;
 /** Cells between the front PML and the TF/SF plane (the scattered-field probe sits in the middle). */
 const SF_CELLS = 4;
-/** Sheets are put within this fraction of a cell of a node when a grid up to SHEET_ALIGN_RANGE× finer allows;
- *  the builder then steps such a sheet on that node (build.ts). */
-export const SHEET_ALIGN_TOL = 0.02;
-const SHEET_ALIGN_RANGE = 3;
-/** For the bounce estimate, a sheet this close to a face (in shortest wavelengths) acts at that face. */
-const SHEET_NEAR_FACE = 0.01;
-/** Frequencies sampled across the band for the slowest medium and the worst phase error. */
-const BAND_SAMPLES = 33;
-/** Per-round-trip amplitude retention is capped here when estimating bounces (keeps factors finite). */
-const MAX_RETENTION = 0.98;
+/** Prediction frequencies: at least this many, and this many per resonance of the stack's longest round trip. */
+const MIN_BUDGET_FREQUENCIES = 33;
+const MAX_BUDGET_FREQUENCIES = 257;
+const SAMPLES_PER_RESONANCE = 6;
 
-const sampleBand = ([f1, f2]: [number, number]): number[] =>
-  Array.from({ length: BAND_SAMPLES }, (_, i) => f1 + ((f2 - f1) * i) / (BAND_SAMPLES - 1));
-
-/** Complex refractive index n − jκ of a model at f (e^{+jωt}). */
-function index(m: StepModel, f: number): { n: number; k: number } {
-  const e = stepModelPermittivity(m, f);
-  return { n: refractiveIndex(e), k: extinctionIndex(e) };
+interface CheckedOptions {
+  accuracy: number; pmlCells: number; decay_dB: number; maxCells: number; maxWork: number;
+  courant?: number; cellsPerWavelength?: number; maxSteps?: number;
 }
 
-/** |r| looking from medium a into admittance Y (normalized to free space), both complex. */
-function reflectionMagnitude(a: { n: number; k: number }, yRe: number, yIm: number): number {
-  const nr = a.n - yRe, ni = -a.k - yIm, dr = a.n + yRe, di = -a.k + yIm;
-  return Math.hypot(nr, ni) / Math.hypot(dr, di);
-}
-
-/** Largest stable S for the media on a grid of cell dx (a 0.5 % margin below the von Neumann bound); `courant` is not needed (kept for callers). */
-export function stabilityCap(media: StepModel[], dx: number, courant: number): number {
-  let cap = Math.sqrt(Math.min(1, ...media.map((m) => m.epsInf)));
-  for (const m of media) {
-    if (m.osc.length === 0) continue;
-    // ε_Nyq depends on Δt = S Δx / c0 and falls as S grows (and an oscillator needs ω0 Δt < 2 at all), so the
-    // stable S form an interval [0, S*]: find S* by bisection (a fixed-point iteration can oscillate between 0
-    // and 1 when ω0 Δt passes 2, and so end on an unstable S).
-    const stable = (S: number): boolean => {
-      const dt = (S * dx) / C0_m_per_s;
-      let epsNyq = m.epsInf;
-      for (const o of m.osc) {
-        const w = o.w0sq * dt * dt;
-        if (w >= 4) return false;
-        epsNyq -= (o.c * dt * dt) / (4 - w);
-      }
-      return epsNyq > 0 && S <= 0.995 * Math.sqrt(epsNyq);
-    };
-    let lo = 0, hi = 1;
-    if (stable(hi)) lo = hi;
-    else for (let it = 0; it < 60; it++) { const mid = (lo + hi) / 2; if (stable(mid)) lo = mid; else hi = mid; }
-    cap = Math.min(cap, lo);
+function checkedOptions(o: PulseOptions): CheckedOptions {
+  const positive = (v: number | undefined, name: string, what: string): void => {
+    if (v !== undefined && !(v > 0 && Number.isFinite(v))) throw new PlanError(`${name}: must be ${what} (got ${v})`, 'bad-input');
+  };
+  positive(o.accuracy, 'accuracy', 'a number > 0, e.g. 0.01');
+  positive(o.decay_dB, 'decay_dB', 'a number of dB > 0, e.g. 60');
+  positive(o.courant, 'courant', 'a number in (0, 1]');
+  if (o.cellsPerWavelength !== undefined && !(o.cellsPerWavelength >= 4 && Number.isFinite(o.cellsPerWavelength))) {
+    throw new PlanError(`cellsPerWavelength: must be a number ≥ 4 (got ${o.cellsPerWavelength})`, 'bad-input');
   }
-  return cap;
+  const pmlCells = Math.round(o.pmlCells ?? DEFAULT_PML_CELLS);
+  if (!(pmlCells >= 4)) throw new PlanError(`pmlCells: must be ≥ 4 (got ${o.pmlCells})`, 'bad-input');
+  return {
+    accuracy: o.accuracy ?? DEFAULT_ACCURACY, pmlCells, decay_dB: o.decay_dB ?? DEFAULT_DECAY_dB,
+    maxCells: o.maxCells ?? DEFAULT_MAX_CELLS, maxWork: o.maxWork ?? DEFAULT_MAX_WORK,
+    courant: o.courant, cellsPerWavelength: o.cellsPerWavelength, maxSteps: o.maxSteps,
+  };
 }
+
+const mediaOf = (e: EffectiveStack): StepModel[] =>
+  [e.front, ...e.segments.map((s) => s.model), ...(e.back === 'pec' ? [] : [e.back])];
+
+/** The largest stable Courant number for these media: √(min ε∞), at most 1 (kernel.ts, stability). */
+export function courantLimit(media: StepModel[]): number {
+  return Math.min(1, Math.sqrt(Math.min(...media.map((m) => m.epsInf))));
+}
+
+function chooseCourant(media: StepModel[], asked?: number): number {
+  const limit = courantLimit(media);
+  if (asked === undefined) return limit;
+  if (asked > 1 + 1e-12 || asked > limit + 1e-12) {
+    const minEps = Math.min(...media.map((m) => m.epsInf));
+    const why = limit < 1 ? `the smallest high-frequency permittivity of these media is ε∞ = ${minEps.toPrecision(4)}, and stability needs S ≤ √ε∞` : 'the 1D leapfrog scheme needs S ≤ 1';
+    throw new PlanError(`courant: ${asked} is above the stability limit ${limit.toPrecision(4)} (${why}); use at most ${limit.toPrecision(4)}, or leave it unset`, 'bad-input', { courant: asked, max: limit });
+  }
+  return asked;
+}
+
+/** Band frequencies for the prediction: both ends, and enough points to follow the stack's resonances. */
+function budgetFrequencies(band: [number, number], eff: EffectiveStack): number[] {
+  let trip = 0;
+  for (const s of eff.segments) {
+    const r = decayingRoot(stepModelPermittivity(s.model, band[1]));
+    trip += (2 * (s.x1_m - s.x0_m) * Math.hypot(r.re, r.im)) / C0_m_per_s;
+  }
+  const n = Math.min(MAX_BUDGET_FREQUENCIES, Math.max(MIN_BUDGET_FREQUENCIES, Math.ceil(SAMPLES_PER_RESONANCE * (band[1] - band[0]) * trip) + 1));
+  return Array.from({ length: n }, (_, i) => band[0] + ((band[1] - band[0]) * i) / (n - 1));
+}
+
+const fmt = (x: number): string => (x >= 1e5 ? x.toExponential(2) : String(Math.round(x)));
+
+/** What to change when a run is too big; at a grazing angle the small time step is the cause. */
+function remedy(stack: Stack, courant: number): string {
+  const base = 'narrow the band or lower its top frequency, ask for a coarser accuracy, or make the stack thinner';
+  if (stack.incidence.angle_rad === 0 || courant >= 0.5) return base;
+  const deg = (stack.incidence.angle_rad * 180) / Math.PI;
+  return `${base}; at ${deg.toFixed(1)}° the time step is ${courant.toPrecision(2)} of normal incidence's (each medium's ε∞ is lowered by ε_front sin²θ), so a smaller angle shortens the run`;
+}
+const times = (a: number, b: number): string => `${(a / b).toPrecision(2)}×`;
 
 export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   const band = stack.band_Hz;
   if (!(band[0] > 0 && band[1] > band[0])) throw new PlanError('band: must satisfy 0 < min < max', 'bad-input');
-  const accuracy = options.accuracy ?? DEFAULT_ACCURACY;
-  if (!(accuracy > 0)) throw new PlanError('accuracy: must be > 0', 'bad-input');
-  const pmlCells = Math.round(options.pmlCells ?? DEFAULT_PML_CELLS);
-  if (!(pmlCells >= 4)) throw new PlanError('pmlCells: must be ≥ 4', 'bad-input');
-  const decay_dB = options.decay_dB ?? DEFAULT_DECAY_dB;
-  if (!(decay_dB > 0)) throw new PlanError('decay_dB: must be > 0', 'bad-input');
-  const maxCells = options.maxCells ?? DEFAULT_MAX_CELLS;
-  const maxWork = options.maxWork ?? DEFAULT_MAX_WORK;
-
+  const o = checkedOptions(options);
   const resolved = resolveStack(stack);
-  const { fits, warnings } = resolved;
+  const warnings = [...resolved.warnings];
   const effective = atIncidence(resolved.effective, stack.incidence);
-  const freqs = sampleBand(band);
-  const fTop = band[1], fMid = (band[0] + band[1]) / 2;
-  const media: StepModel[] = [effective.front, ...effective.segments.map((s) => s.model)];
-  if (effective.back !== 'pec') media.push(effective.back);
-
-  // Courant number.
-  let minEpsInf = Infinity;
-  for (const m of media) minEpsInf = Math.min(minEpsInf, m.epsInf);
-  const sMax = Math.min(1, Math.sqrt(Math.max(minEpsInf, 1e-12)));
-  let courant = options.courant ?? sMax;
-  if (!(courant > 0 && courant <= sMax + 1e-12)) {
-    throw new PlanError(`courant: must be in (0, ${sMax.toPrecision(4)}] for these media (1D Yee stability)`, 'bad-input', { courant, max: sMax });
-  }
-
-  // A stack of a few microns is stepped inside the cell of the node at x = 0 (subcell averaging; its sheets on
-  // that node) and T is read there, when that costs at most half the accuracy target: moving T's reference
-  // plane by d errs by about k d in the media around it, a conductor behind moved to x = 0 by 2 k d, and
-  // lumping the stack by about (k d)² inside it. Forcing Δx down to its thickness would ask for millions of cells.
-  const thickness = effective.thickness_m;
-  const maxWavenumber = (m: StepModel): number => {
-    let k = 0;
-    for (const f of freqs) k = Math.max(k, (2 * Math.PI * f * index(m, f).n) / C0_m_per_s);
-    return k;
-  };
-  const kOut = Math.max(maxWavenumber(effective.front), effective.back === 'pec' ? 0 : maxWavenumber(effective.back));
-  const kIn = Math.max(0, ...effective.segments.map((s) => maxWavenumber(s.model)));
-  const lumped = thickness > 0 && 2 * kOut * thickness <= accuracy / 2 && (kIn * thickness) ** 2 <= accuracy / 2;
-  // Shortest wavelength over the band in any medium the grid resolves.
-  const lambdaMin = (2 * Math.PI) / (lumped ? kOut : Math.max(kOut, kIn));
-
-  // Per-layer reflection environment (for the bounce factors), at band centre.
-  const segs = effective.segments;
-  const admittanceAt = (j: number, f: number): { re: number; im: number } | 'pec' => {
-    if (j < 0) { const a = index(effective.front, f); return { re: a.n, im: -a.k }; }
-    if (j >= segs.length) {
-      if (effective.back === 'pec') return 'pec';
-      const a = index(effective.back, f); return { re: a.n, im: -a.k };
-    }
-    const a = index(segs[j].model, f); return { re: a.n, im: -a.k };
-  };
-  // Normalized conductance of the sheets just outside a face (dir −1: in front of x, +1: behind it). Sheets
-  // within a hundredth of the shortest wavelength count: a conductor film's sheet sits at the film's centre,
-  // microns behind the face of the layer in front, and still closes that layer.
-  const sheetAdmittance = (x: number, dir: -1 | 1): number => {
-    let g = 0;
-    for (const s of effective.sheets) {
-      const beyond = dir * (s.x_m - x); // ≥ 0 on the outer side of the face
-      if (beyond >= -1e-12 && beyond <= SHEET_NEAR_FACE * lambdaMin) g += s.conductance_S * ETA0_ohm;
-    }
-    return g;
-  };
-  const k0Mid = (2 * Math.PI * fMid) / C0_m_per_s;
-  const bounce: number[] = [], atten: number[] = [];
-  let attAcc = 1;
-  for (let i = 0; i < segs.length; i++) {
-    const s = segs[i], me = index(s.model, fMid);
-    const side = (j: number, x: number, dir: -1 | 1): number => {
-      const y = admittanceAt(j, fMid);
-      if (y === 'pec') return 1;
-      return reflectionMagnitude(me, y.re + sheetAdmittance(x, dir), y.im);
-    };
-    const d = s.x1_m - s.x0_m;
-    const loss = Math.exp(-2 * me.k * k0Mid * d);
-    const rho = Math.min(MAX_RETENTION, side(i - 1, s.x0_m, -1) * side(i + 1, s.x1_m, 1) * loss);
-    bounce.push((1 + rho) / (1 - rho));
-    atten.push(attAcc);
-    attAcc *= loss;
-  }
-
-  // Sheets inside the stack: a resistive sheet is exact on an E node and only approximate between
-  // two (its current is shared), so among slightly finer grids pick one that puts them on nodes.
-  const innerSheets = effective.sheets.map((sh) => sh.x_m).filter((x) => x > 0 && x < thickness);
-  const misalignment = (cells: number): number => {
-    let worst = 0;
-    for (const x of innerSheets) { const u = (x / thickness) * cells; worst = Math.max(worst, Math.abs(u - Math.round(u))); }
-    return worst;
-  };
-  const cellsFor = (N: number): { dx: number; stackCells: number } => {
-    const target = lambdaMin / N;
-    if (thickness <= 0 || lumped) return { dx: target, stackCells: 0 };
-    let stackCells = Math.max(1, Math.ceil(thickness / target - 1e-9));
-    if (innerSheets.length > 0) {
-      let best = stackCells, bestMis = misalignment(stackCells);
-      for (let c = stackCells + 1; c <= Math.ceil(stackCells * SHEET_ALIGN_RANGE) && bestMis > SHEET_ALIGN_TOL; c++) {
-        const m = misalignment(c);
-        if (m < bestMis - 1e-12) { best = c; bestMis = m; }
-      }
-      stackCells = best;
-    }
-    return { dx: thickness / stackCells, stackCells };
-  };
-  const phaseErrors = (dx: number): number[] => {
-    const dt = (courant * dx) / C0_m_per_s;
-    if (lumped) return segs.map(() => 0); // no wave crosses a lumped stack on the grid
-    return segs.map((s) => {
-      let worst = 0;
-      for (const f of freqs) worst = Math.max(worst, 2 * (s.x1_m - s.x0_m) * yeePhaseErrorPerMetre(f, index(s.model, f).n, dx, dt));
-      return worst;
-    });
-  };
-  const predicted = (pe: number[]): number => pe.reduce((acc, p, i) => acc + p * bounce[i] * atten[i], 0);
-
-  let N: number;
-  if (options.cellsPerWavelength !== undefined) {
-    N = options.cellsPerWavelength;
-    if (!(N >= 4)) throw new PlanError('cellsPerWavelength: must be ≥ 4', 'bad-input');
-  } else {
-    N = MIN_CELLS_PER_WAVELENGTH;
-    for (;;) {
-      const { dx } = cellsFor(N);
-      if (predicted(phaseErrors(dx)) <= DISPERSION_SHARE * accuracy) break;
-      if (cellsFor(N).stackCells > maxCells || N > 1e7) break; // refused below
-      N *= 1.05;
-    }
-  }
-  const { dx, stackCells } = cellsFor(N);
-  // Second-order poles are stepped explicitly: they lower the permittivity the grid sees near the
-  // Nyquist frequency, ε_Nyq = ε∞ − Σ c Δt² / (4 − ω0² Δt²); stability needs S² ≤ ε_Nyq
-  // (von Neumann analysis of the coupled update; for Drude it is S² ≤ ε∞ − (ωp Δt / 2)²).
-  const cap = stabilityCap(media, dx, courant);
-  if (courant > cap) {
-    if (options.courant !== undefined) {
-      throw new PlanError(
-        `courant: ${courant} is unstable with these dispersive media at Δx = ${(dx * 1e3).toPrecision(3)} mm; use at most ${cap.toPrecision(4)}`,
-        'bad-input', { courant, max: cap },
-      );
-    }
-    courant = cap;
-  }
+  const media = mediaOf(effective);
+  const courant = chooseCourant(media, o.courant);
+  const freqs = budgetFrequencies(band, effective);
+  const cells = chooseCells({
+    effective, freqs, courant, budget: GRID_SHARE * o.accuracy, accuracy: o.accuracy,
+    cellsPerWavelength: o.cellsPerWavelength, maxCells: o.maxCells,
+  });
+  const { dx_m: dx, stackCells } = cells;
   const dt = (courant * dx) / C0_m_per_s;
-  const pe = phaseErrors(dx);
-  const predictedError = predicted(pe);
+  const nodes = layout(stack, effective, dx, stackCells, o.pmlCells);
+  if (cells.overLimit || nodes.total > o.maxCells) {
+    const need = cells.overLimit ? Math.max(nodes.total, stackCells) : nodes.total;
+    throw new PlanError(
+      `the grid would need more than ${fmt(need)} cells of ${(dx * 1e3).toPrecision(3)} mm (the limit is ${fmt(o.maxCells)}, ${times(need, o.maxCells)} over) ` +
+      `to keep the engine's error within ${o.accuracy}: ${remedy(stack, courant)}`,
+      'too-many-cells', { cells: need, limit: o.maxCells, dx_m: dx, cellsPerWavelength: cells.N },
+    );
+  }
 
-  // Layout.
-  const lambdaAt = (m: StepModel | 'pec', f: number): number => (m === 'pec' ? 0 : C0_m_per_s / (f * Math.max(index(m, f).n, 1e-6)));
-  const gapFront = Math.max(10, Math.ceil(Math.max(1.5 * lambdaAt(effective.front, stack.profile_Hz), thickness) / dx) + 2);
-  const gapBack = effective.back === 'pec' ? 0 : Math.max(10, Math.ceil((0.5 * lambdaAt(effective.back, stack.profile_Hz)) / dx) + 2);
-  const P = pmlCells;
+  const pulse = pulseForBand(band, dt);
+  const steps = estimateSteps({
+    effective, band_Hz: band, pulse, accuracy: o.accuracy, decay_dB: o.decay_dB,
+    frontGap_m: (nodes.front - nodes.tfsf + SF_CELLS) * dx,
+    backGap_m: effective.back === 'pec' ? 0 : (nodes.pmlBackStart - nodes.back) * dx,
+    lambdaMin_m: cells.lambdaMin_m,
+  });
+  const perStep = nodes.total + nodes.auxTotal;
+  const minSteps = Math.ceil(steps.minimum_s / dt);
+  if (perStep * minSteps > o.maxWork) {
+    const work = perStep * minSteps;
+    throw new PlanError(
+      `the run would need at least ${work.toExponential(2)} cell-updates (${nodes.total} cells × ${minSteps} steps; the limit is ${o.maxWork.toExponential(1)}, ${times(work, o.maxWork)} over): ` +
+      remedy(stack, courant),
+      'too-much-work', { cells: nodes.total, steps: minSteps, work, limit: o.maxWork },
+    );
+  }
+  const expectedSteps = Math.ceil(steps.expected_s / dt) + 100;
+  let stepsLimit = o.maxSteps ?? Math.ceil(steps.limit_s / dt) + 500;
+  if (perStep * stepsLimit > o.maxWork) {
+    stepsLimit = Math.floor(o.maxWork / perStep);
+    warnings.push(`the step limit was capped at ${stepsLimit} steps by the work budget; a slowly ringing stack may be cut short (see the run's warnings).`);
+  }
+
+  if (innerSheetWarning(effective, cells.sheetMisalignment)) {
+    warnings.push(
+      `a resistive sheet lies ${cells.sheetMisalignment.toFixed(2)} of a cell off the nearest grid node (no grid up to 3× finer puts every sheet on a node); its current is shared between two nodes, which may cost accuracy for low-resistance sheets.`,
+    );
+  }
+  if (cells.lumped) {
+    warnings.push(
+      `the stack is ${(effective.thickness_m * 1e6).toPrecision(3)} µm thick, much less than a cell (${(dx * 1e6).toPrecision(3)} µm): the pulse engine steps it within the cell at x = 0 and reads T there (error of order 2 k d = ${cells.lumpedError.toPrecision(2)}).`,
+    );
+  }
+  if (cells.predicted > o.accuracy) {
+    warnings.push(`predicted engine error ${cells.predicted.toPrecision(2)} exceeds the accuracy target ${o.accuracy} at ${cells.N.toFixed(1)} cells per wavelength; raise the cells per wavelength or leave the grid to the accuracy target.`);
+  }
+  if (o.accuracy < FINEST_ACCURACY) {
+    warnings.push(`accuracy ${o.accuracy} is below ${FINEST_ACCURACY}: the grid is planned for it, but round-off and the boundaries may leave a larger error.`);
+  }
+
+  return {
+    dx_m: dx, dt_s: dt, courant, cells: nodes.total, stepsLimit, expectedSteps,
+    cellsPerWavelength: cells.lambdaMin_m / dx,
+    layers: layerFigures(effective, band, dx, dt, courant),
+    predictedError: cells.predicted, accuracyTarget: o.accuracy, pmlCells: o.pmlCells, decay_dB: o.decay_dB,
+    memory_bytes: memoryBytes(effective, nodes, dx), work_cell_updates: perStep * stepsLimit,
+    slowestRelaxation_s: steps.slowestRelaxation_s,
+    nodes, pulse, fits: resolved.fits, effective, profile_Hz: stack.profile_Hz, warnings,
+  };
+}
+
+const innerSheetWarning = (eff: EffectiveStack, mis: number): boolean =>
+  eff.sheets.some((s) => s.x_m > 0 && s.x_m < eff.thickness_m) && mis > 0.05 && mis > SHEET_ALIGN_TOL;
+
+/** [wall | CPML | SF cells (probe) | TF/SF plane | front gap | stack | back gap | CPML | wall]. */
+function layout(stack: Stack, eff: EffectiveStack, dx: number, stackCells: number, P: number): GridNodes {
+  const lambdaAt = (m: StepModel, f: number): number => C0_m_per_s / (f * Math.max(refractiveIndex(stepModelPermittivity(m, f)), 1e-6));
+  // In front: 1.5 wavelengths at the profile frequency, or the stack's thickness (the field view shows the
+  // reflected pulse beside the stack) up to FRONT_GAP_WAVELENGTHS of them; a thick wall's air costs steps.
+  const lambdaFront = lambdaAt(eff.front, stack.profile_Hz);
+  const gapFront = Math.max(10, Math.ceil(Math.max(1.5 * lambdaFront, Math.min(eff.thickness_m, FRONT_GAP_WAVELENGTHS * lambdaFront)) / dx) + 2);
+  const gapBack = eff.back === 'pec' ? 0 : Math.max(10, Math.ceil((0.5 * lambdaAt(eff.back, stack.profile_Hz)) / dx) + 2);
   const tfsf = P + SF_CELLS;
   const front = tfsf + gapFront;
   const back = front + stackCells;
-  const pmlBackStart = effective.back === 'pec' ? back + 1 : back + gapBack;
-  const total = effective.back === 'pec' ? back + 1 : pmlBackStart + P + 1;
+  const pmlBackStart = eff.back === 'pec' ? back + 1 : back + gapBack;
+  const total = eff.back === 'pec' ? back + 1 : pmlBackStart + P + 1;
   const auxOffset = tfsf - 2;
-  const auxEnd = (effective.back === 'pec' ? back + 10 : pmlBackStart) - auxOffset; // aux PML face
-  const auxTotal = auxEnd + P + 1;
-  const nodes: GridNodes = { total, pmlFrontEnd: P + 1, sfProbe: P + SF_CELLS / 2, tfsf, front, back, pmlBackStart, auxOffset, auxTotal };
+  const auxEnd = (eff.back === 'pec' ? back + 10 : pmlBackStart) - auxOffset; // aux PML face
+  return { total, pmlFrontEnd: P + 1, sfProbe: P + SF_CELLS / 2, tfsf, front, back, pmlBackStart, auxOffset, auxTotal: auxEnd + P + 1 };
+}
 
-  if (total > maxCells) {
-    throw new PlanError(
-      `the grid would need ${total.toExponential(2)} cells (limit ${maxCells.toExponential(1)}) at Δx = ${(dx * 1e3).toPrecision(3)} mm; narrow the band, lower its top frequency, or ask for a coarser accuracy`,
-      'too-many-cells',
-      { cells: total, limit: maxCells, dx_m: dx, cellsPerWavelength: N },
-    );
-  }
-
-  // Step limit from the source, transits and ring-down.
-  const pulse = pulseForBand(band, dt);
-  const frontN = index(effective.front, fMid).n;
-  let transit = ((gapFront + SF_CELLS) * dx * frontN) / C0_m_per_s;
-  let stackTrip = 0, ring = 0, worstRho = 0;
-  segs.forEach((s, i) => {
-    const t = ((s.x1_m - s.x0_m) * index(s.model, fMid).n) / C0_m_per_s;
-    stackTrip += 2 * t;
-    const rho = (bounce[i] - 1) / (bounce[i] + 1);
-    worstRho = Math.max(worstRho, rho);
-    if (rho > 0) ring = Math.max(ring, ((decay_dB + 10) / (-20 * Math.log10(rho))) * 2 * t);
+function layerFigures(eff: EffectiveStack, band: [number, number], dx: number, dt: number, courant: number): LayerGridFigures[] {
+  const fTop = band[1];
+  return eff.segments.map((s) => {
+    const r = decayingRoot(stepModelPermittivity(s.model, fTop));
+    const nTop = Math.hypot(r.re, r.im);
+    const d = s.x1_m - s.x0_m;
+    let worst = 0;
+    for (const f of [band[0], (band[0] + band[1]) / 2, fTop]) {
+      const k = discreteWave(s.model, f, dx, dt, courant).k;
+      const root = decayingRoot(stepModelPermittivity(s.model, f)), k0 = (2 * Math.PI * f) / C0_m_per_s;
+      worst = Math.max(worst, 2 * d * Math.hypot(k.re - k0 * root.re, k.im - k0 * root.im));
+    }
+    return { index: s.layer, name: s.name, n_top: nTop, cellsPerWavelength: C0_m_per_s / (fTop * nTop) / dx, cells: d / dx, phaseError_rad: worst };
   });
-  if (worstRho > 0) ring = Math.max(ring, ((decay_dB + 10) / (-20 * Math.log10(worstRho))) * stackTrip);
-  transit += stackTrip / 2;
-  if (effective.back !== 'pec') transit += (gapBack * dx * index(effective.back, fMid).n) / C0_m_per_s;
-  const expectedTime = pulse.end_s + 2 * transit + ring;
-  const expectedSteps = Math.ceil(expectedTime / dt) + 100;
-  let stepsLimit = options.maxSteps ?? 3 * expectedSteps + 500;
-  const perStep = total + auxTotal;
-  const minSteps = Math.ceil((pulse.end_s + 2 * transit) / dt);
-  if (perStep * minSteps > maxWork) {
-    throw new PlanError(
-      `the run would need at least ${(perStep * minSteps).toExponential(2)} cell-updates (limit ${maxWork.toExponential(1)}): ${total} cells × ${minSteps} steps; narrow the band or ask for a coarser accuracy`,
-      'too-much-work',
-      { cells: total, steps: minSteps, work: perStep * minSteps, limit: maxWork },
-    );
-  }
-  if (perStep * stepsLimit > maxWork) {
-    stepsLimit = Math.floor(maxWork / perStep);
-    warnings.push(`the step limit was capped at ${stepsLimit} by the work budget; a slowly ringing stack may be cut short (see the run's warnings).`);
-  }
+}
 
-  const layers: LayerGridFigures[] = segs.map((s, i) => {
-    const nTop = index(s.model, fTop).n;
-    return {
-      index: s.layer, name: s.name,
-      n_top: nTop,
-      cellsPerWavelength: C0_m_per_s / (fTop * nTop) / dx,
-      cells: (s.x1_m - s.x0_m) / dx,
-      phaseError_rad: pe[i],
-      bounceFactor: bounce[i],
-    };
-  });
-  if (innerSheets.length > 0 && misalignment(stackCells) > 0.05) {
-    warnings.push(
-      `a resistive sheet lies ${misalignment(stackCells).toFixed(2)} of a cell off the nearest grid node (no grid up to ${SHEET_ALIGN_RANGE}× finer puts every sheet on a node); its current is shared between two nodes, which may cost accuracy for low-resistance sheets.`,
-    );
-  }
-  if (lumped) {
-    warnings.push(
-      `the stack is ${(thickness * 1e6).toPrecision(3)} µm thick, much less than a cell (${(dx * 1e6).toPrecision(3)} µm): the pulse engine steps it within the cell at x = 0 and reads T there (error of order 2 k d = ${(2 * kOut * thickness).toPrecision(2)}).`,
-    );
-  }
-  if (predictedError > accuracy) {
-    warnings.push(
-      `predicted grid-dispersion error ${predictedError.toPrecision(2)} exceeds the accuracy target ${accuracy} at ${N.toFixed(1)} cells per wavelength; raise the cells per wavelength.`,
-    );
-  }
-
+function memoryBytes(eff: EffectiveStack, nodes: GridNodes, dx: number): number {
+  const arrays = (m: StepModel | 'pec'): number => (m === 'pec' ? 0 : m.debye.length * 2 + m.osc.length * 3);
   let poleCells = 0;
-  for (const s of segs) poleCells += (s.model.debye.length * 2 + s.model.osc.length * 3) * ((s.x1_m - s.x0_m) / dx + 2);
-  const halfPoles = (m: StepModel | 'pec'): number => (m === 'pec' ? 0 : m.debye.length * 2 + m.osc.length * 3);
-  poleCells += halfPoles(effective.front) * (front + auxTotal) + halfPoles(effective.back) * (total - back);
-  const memory_bytes = 8 * (6 * total + 5 * auxTotal + 2 * (total - tfsf) + poleCells + 3 * total);
-
-  return {
-    dx_m: dx, dt_s: dt, courant, cells: total, stepsLimit, expectedSteps,
-    cellsPerWavelength: lambdaMin / dx,
-    layers, predictedError, accuracyTarget: accuracy, pmlCells: P, decay_dB,
-    memory_bytes, work_cell_updates: perStep * stepsLimit,
-    nodes, pulse, fits, effective, profile_Hz: stack.profile_Hz, warnings,
-  };
+  for (const s of eff.segments) poleCells += arrays(s.model) * ((s.x1_m - s.x0_m) / dx + 2);
+  poleCells += arrays(eff.front) * (nodes.front + nodes.auxTotal) + arrays(eff.back) * (nodes.total - nodes.back);
+  return 8 * (6 * nodes.total + 5 * nodes.auxTotal + 2 * (nodes.total - nodes.tfsf) + poleCells + 3 * nodes.total);
 }

@@ -15,13 +15,17 @@ import type { PowerLawFit } from './fit-power-law.ts';
 export interface PulseOptions {
   /** Cells per wavelength at the band top in the slowest medium; overrides the accuracy-driven choice. */
   cellsPerWavelength?: number;
-  /** Target for max |R_fdtd − R_tmm| and |T_fdtd − T_tmm| over the band (default 0.01). */
+  /**
+   * Target for the engine's error, max |R_fdtd − R| and |T_fdtd − T| over the band against the exact solution
+   * of the stepped media (default 0.01; honoured down to 1e-4). The planner keeps its predicted grid error
+   * within a fifth of it and the run stops when its spectra have settled to a small fraction of it.
+   */
   accuracy?: number;
-  /** Courant number S = c0 Δt / Δx (default 1 when every medium has ε∞ ≥ 1, i.e. exact in air). */
+  /** Courant number S = c0 Δt / Δx (default 1 when every medium has ε∞ ≥ 1, i.e. exact in air; at most √(min ε∞)). */
   courant?: number;
   /** CPML thickness in cells at each open end (default 24). */
   pmlCells?: number;
-  /** Stop once the grid energy is this many dB below its peak (default 60). */
+  /** The stored energy (fields and pole states) must fall this many dB below its peak before the run may stop (default 60). */
   decay_dB?: number;
   /** Hard cap on time steps (default derived from round-trip times and losses). */
   maxSteps?: number;
@@ -36,16 +40,14 @@ export interface LayerGridFigures {
   /** Index into stack.layers. */
   index: number;
   name: string;
-  /** Re √ε_r at the band top (the model the engine steps). */
+  /** |√ε_r| at the band top (the model the engine steps; sets the wavenumber the grid must resolve, evanescent media included). */
   n_top: number;
   /** Cells per wavelength inside the layer at the band top. */
   cellsPerWavelength: number;
   /** Cells across the layer (fractional: interfaces need not fall on nodes). */
   cells: number;
-  /** Predicted phase error over one round trip through the layer at the band top, radians (Yee dispersion). */
+  /** Largest |k̃ − k|·2d over the band (one round trip through the layer, the grid's wavenumber against the medium's). */
   phaseError_rad: number;
-  /** Weight for multiple bounces (1 for a matched layer; larger for a resonant one). */
-  bounceFactor: number;
 }
 
 /** Where things sit on the main grid (E-node indices). */
@@ -99,15 +101,17 @@ export interface GridPlan {
   courant: number;
   /** E nodes of the main grid. */
   cells: number;
-  /** Step limit of the run (it usually stops earlier, when the energy has decayed). */
+  /** Step limit of the run (it usually stops earlier, when it has converged). */
   stepsLimit: number;
-  /** Steps the run is expected to need (source, transit, ring-down estimate). */
+  /** Steps the run is expected to need (source, visible transits, ring-down, slowest relaxation). */
   expectedSteps: number;
+  /** Slowest amplitude time constant of any pole of the stepped media, s (Infinity for a lossless pole). */
+  slowestRelaxation_s: number;
   /** Cells per wavelength at the band top in the slowest medium. */
   cellsPerWavelength: number;
   /** Per bulk layer figures. */
   layers: LayerGridFigures[];
-  /** Predicted worst amplitude error of R and T over the band from grid dispersion. */
+  /** Predicted engine error: max |ΔR|, |ΔT| over the band between the grid's exact response and the stepped media's. */
   predictedError: number;
   accuracyTarget: number;
   pmlCells: number;
@@ -118,7 +122,7 @@ export interface GridPlan {
   work_cell_updates: number;
   nodes: GridNodes;
   pulse: PulseShape;
-  /** Power-law materials replaced by a fitted σ + Debye model. */
+  /** Power-law materials replaced by a fitted causal model. */
   fits: PowerLawFit[];
   effective: EffectiveStack;
   /** Profile frequency (the stack's profile_Hz). */
@@ -126,7 +130,11 @@ export interface GridPlan {
   warnings: string[];
 }
 
-export type DoneReason = 'decayed' | 'step-limit' | 'stopped';
+/**
+ * Why a run ended: 'converged' (the running spectra settled at every check frequency and the stored energy,
+ * pole states included, decayed), 'step-limit', or 'stopped' (by the caller).
+ */
+export type DoneReason = 'converged' | 'step-limit' | 'stopped';
 
 /** Probe records, sampled every dt_s from t = 0 (sample k at t = k dt_s); views of length count. */
 export interface PulseRunRecords {
@@ -143,7 +151,7 @@ export interface PulseRunRecords {
 }
 
 export interface EnergyReading {
-  /** Field energy now (normalized units: Σ ε∞ E² + (η0 H)² over the main grid). */
+  /** Stored energy now (normalized units: Σ ε∞ E² + (η0 H)² over the main grid, plus the pole states' energy). */
   current: number;
   peak: number;
   /** 10 log10(current / peak), −Infinity at zero. */

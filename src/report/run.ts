@@ -53,6 +53,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const job = options.job ?? estimateRun(stack, { fem: options.fem, pulse: options.pulse, budget: options.budget });
   if (job.refusal !== undefined) throw new WorkRefused(job.refusal);
   const base = solveReport(stack, { ...options, job, onProgress: (f) => progress(0.1 * f) });
+  const stepped = (options.media ?? 'tables') === 'stepped';
   const warnings = [...base.warnings];
   const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
   const summary: Record<string, unknown> = { ...base.summary };
@@ -121,10 +122,11 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   // When the engine steps other media than the stack names (power laws fitted, metal as a wall or a
   // sheet), split the figure: the engine against the exact solution of what it stepped (its own
   // numerical error), and that exact solution against the original (the material model's share).
-  if (tmm && run.plan.effective.substitutions > 0) {
-    const stepped = solveEffective(run.plan.effective, f_Hz);
-    agreement.push(agreementRow('fdtd-tmm as stepped', fdtd, stepped, target));
-    agreement.push(agreementRow('stepped media-tmm', stepped, tmm));
+  // With --media stepped the tmm columns already are the stepped media, and solve's report has the share.
+  if (tmm && !stepped && run.plan.effective.substitutions > 0) {
+    const exactStepped = solveEffective(run.plan.effective, f_Hz);
+    agreement.push(agreementRow('fdtd-tmm as stepped', fdtd, exactStepped, target));
+    agreement.push(agreementRow('stepped media-tmm', exactStepped, tmm));
   }
   const allAgreement = [...base.agreement, ...agreement];
   summary.agreement = allAgreement.map(roundedRow);
@@ -137,9 +139,10 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     steps: run.stepIndex,
     simulated_ns: r6(run.time_s * 1e9),
     end: run.doneReason,
+    end_rule: endRule(run),
     residual_energy_dB: Number.isFinite(energy.level_dB) ? r3(energy.level_dB) : null,
     decay_target_dB: -run.plan.decay_dB,
-    truncated: run.doneReason !== 'decayed',
+    truncated: run.doneReason !== 'converged',
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
     trace_every_nth_step: stride,
   };
@@ -149,6 +152,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     max_rel_error_eps_re: r3(f.maxRelErr_re),
     max_rel_error_eps_im: r3(f.maxRelErr_im),
     max_rel_error_eps: r3(f.maxRelErr_abs),
+    min_eps_re_half_to_twice_band: r3(f.minEpsRe_wide),
+    fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
     model: fittedModel(f.model),
   }));
   summary.pulse = {
@@ -205,6 +210,15 @@ function spectrumFromColumns(cols: readonly Column[], tag: string, f_Hz: Float64
   return { f_Hz, R_re, R_im, T_re, T_im };
 }
 
+/** Which rule ended the run, in words. */
+function endRule(run: PulseRun): string {
+  switch (run.doneReason) {
+    case 'converged': return `converged: R and T settled at every check frequency across the band (its bottom included) and the stored energy, pole states included, fell ${run.plan.decay_dB} dB below its peak`;
+    case 'step-limit': return `step limit: ${run.plan.stepsLimit} steps reached before the run converged (see the warnings)`;
+    default: return 'stopped before the run converged';
+  }
+}
+
 function gridSummary(p: GridPlan): Record<string, unknown> {
   return {
     cell_mm: r6(p.dx_m * 1e3),
@@ -214,6 +228,7 @@ function gridSummary(p: GridPlan): Record<string, unknown> {
     cells_per_wavelength: r3(p.cellsPerWavelength),
     pml_cells: p.pmlCells,
     predicted_error: r3(p.predictedError),
+    slowest_relaxation_ns: Number.isFinite(p.slowestRelaxation_s) ? r3(p.slowestRelaxation_s * 1e9) : null,
     accuracy_target: p.accuracyTarget,
     steps_limit: p.stepsLimit,
     memory_MB: r3(p.memory_bytes / 1e6),

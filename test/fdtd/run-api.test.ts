@@ -50,14 +50,17 @@ describe('grid plan', () => {
     expect(p.warnings.some((w) => w.includes('perfect conductor'))).toBe(true);
   });
 
-  it('a thin conductor film closes the layer in front of it for the bounce estimate, like the sheet it is stepped as', () => {
+  it('a thin conductor film closes the layer in front of it, like the sheet it is stepped as', () => {
     // Bookkeeping (common practice, no source): the film becomes a sheet of 1/(σd) = 0.2 Ω at its centre,
-    // 0.25 µm behind the slab's back face; the slab's bounce factor must be that of a slab closed by that sheet.
+    // 0.25 µm behind the slab's back face; the slab must then ring like a slab closed by that sheet (long
+    // ring-down, the same run length) and the grid's predicted error must be that of the bare sheet.
     const metal = material('metal', { model: 'fixed', eps_r: 1, sigma_S_per_m: 1e7 });
     const film = planGrid(stackOf([bulk(fixed(4), 5), bulk(metal, 0.0005)]));
     const bare = planGrid(stackOf([bulk(fixed(4), 5), sheet(1 / (1e7 * 0.5e-6))]));
-    expect(bare.layers[0].bounceFactor).toBeGreaterThan(1.9);
-    expect(film.layers[0].bounceFactor).toBeCloseTo(bare.layers[0].bounceFactor, 4); // the film's own medium behind differs
+    const open = planGrid(stackOf([bulk(fixed(4), 5)]));
+    expect(bare.expectedSteps).toBeGreaterThan(open.expectedSteps);
+    expect(Math.abs(film.expectedSteps - bare.expectedSteps)).toBeLessThan(0.1 * bare.expectedSteps);
+    expect(Math.abs(film.predictedError - bare.predictedError)).toBeLessThan(0.2 * bare.predictedError);
   });
 });
 
@@ -93,7 +96,7 @@ describe('guards', () => {
     expect(err).toBeInstanceOf(FdtdInstabilityError);
     const fe = err as FdtdInstabilityError;
     expect(fe.step).toBeGreaterThan(40);
-    expect(fe.step).toBeLessThanOrEqual(44);
+    expect(fe.step).toBeLessThanOrEqual(40 + 32); // the energy is summed every 32 steps
     expect(fe.message).toMatch(/step \d+/);
     expect(Number.isFinite(fe.x_m)).toBe(true);
     expect(run.done).toBe(true);
@@ -164,7 +167,7 @@ describe('steppable run', () => {
     expect(seen.every((f) => f >= 0 && f <= 1)).toBe(true);
     const run2 = createPulseRun(stackOf([bulk(fixed(4), 20)]));
     await runToEnd(run2, { chunk: 200 });
-    expect(run2.doneReason).toBe('decayed');
+    expect(run2.doneReason).toBe('converged');
     expect(run2.energy().level_dB).toBeLessThanOrEqual(-60);
   });
 

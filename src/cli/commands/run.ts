@@ -13,7 +13,7 @@ import { csvChunks } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
-import { loadOrExplain, writeReport } from './solve.ts';
+import { loadOrExplain, MEDIA_ARG_OPTIONS, MEDIA_ARG_USAGE, mediaFromArgs, writeReport } from './solve.ts';
 import { estimateRun, WorkRefused } from '../../report/estimate.ts';
 import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
 import type { WriteOptions } from '../io.ts';
@@ -73,10 +73,12 @@ and trace.csv with only their headers.
 
 Options:
   --out DIR                   output directory (required)
-  --accuracy X                target for max |R_fdtd - R_tmm| and |T_fdtd - T_tmm| (default 0.01)
+  --accuracy X                target for the engine's error, max |R_fdtd - R| and |T_fdtd - T| against the exact
+                              solution of the media it steps (default 0.01, honoured down to 0.0001)
   --cells-per-wavelength N    fix the grid density at the band top in the slowest medium (overrides --accuracy)
   --courant S                 Courant number c dt / dx (default 1 in an air front medium)
 ${FEM_ARG_USAGE}
+${MEDIA_ARG_USAGE}
 ${BUDGET_ARG_USAGE}
   -h, --help                  show this help
 
@@ -90,6 +92,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       'cells-per-wavelength': { type: 'string' },
       courant: { type: 'string' },
       ...FEM_ARG_OPTIONS,
+      ...MEDIA_ARG_OPTIONS,
       ...BUDGET_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
@@ -97,6 +100,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho run --help)');
     const pulse = pulseOptionsFromArgs(a.values);
     const fem = femOptionsFromArgs(a.values);
+    const media = mediaFromArgs(a.values);
     const { budget, limitNames } = budgetFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
@@ -109,9 +113,9 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     process.once('SIGINT', onSigint);
     let report: RunReport;
     try {
-      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, job, onProgress: progressPrinter(io), shouldStop: () => interrupted });
+      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, job, onProgress: progressPrinter(io), shouldStop: () => interrupted });
     } catch (e) {
-      // The engine's own words (they carry the figures and what to change); its internal figures stay out.
+      // The message says what is too big, by how much and what to change; the figures stay in the error.
       if (e instanceof PlanError || e instanceof WorkRefused) throw new CliError(`${e.message}; nothing was written`, 2);
       if (e instanceof FdtdInstabilityError) throw new CliError(`${e.message}; nothing was written`, 1);
       throw e;
@@ -130,7 +134,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       const g = report.summary.grid as { cell_mm: number; time_step_ps: number; cells: number };
       const r = report.summary.run as { steps: number; end: string; residual_energy_dB: number | null };
       io.out(`FDTD: ${g.cells} cells of ${g.cell_mm} mm, ${r.steps} steps of ${g.time_step_ps} ps, ended ${r.end}` +
-        (r.residual_energy_dB !== null ? ` at ${r.residual_energy_dB} dB` : ''));
+        (r.residual_energy_dB !== null ? ` (stored energy ${r.residual_energy_dB} dB)` : ''));
       const e = report.echoes;
       const t = e.columns[0].data, lv = e.columns[1].data;
       io.out(`echoes: ${e.path.length}${e.path.length ? ': ' : ''}${e.path.slice(0, 4).map((p, i) => `${t[i].toFixed(3)} ns ${lv[i].toFixed(1)} dB ${p}`).join('; ')}${e.path.length > 4 ? '; …' : ''}`);

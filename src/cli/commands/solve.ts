@@ -1,17 +1,40 @@
 // slabecho solve FILE --out DIR: exact frequency-domain results (spectrum, profile, summary) into DIR.
 
 import { join } from 'node:path';
-import { solveReport, type Report } from '../../report/solve.ts';
+import { solveReport, type Media, type Report } from '../../report/solve.ts';
+import { PlanError } from '../../fdtd/errors.ts';
 import { csvChunks } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import type { Stack } from '../../stack/types.ts';
-import type { Command, Io } from '../command.ts';
-import { InputError, readArgs, UsageError } from '../command.ts';
+import type { Command, Io, ParsedArgs } from '../command.ts';
+import { CliError, InputError, readArgs, UsageError } from '../command.ts';
 import { ensureDir, loadStackFile, removeIfPresent, textFile, writeFilesAtomic, type OutputFile, type WriteOptions } from '../io.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
 import { estimateSolve } from '../../report/estimate.ts';
 import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
+
+/** --media, shared by solve, run and converge. */
+export const MEDIA_ARG_OPTIONS = { media: { type: 'string' } } as const;
+export const MEDIA_ARG_USAGE = `  --media M    tables (default): every method solves the media as the stack names them; stepped: the
+               exact solver and the FEM solve the media as the pulse engine steps them (power laws as their
+               fitted causal models, conductors as walls or sheets); the row "stepped media-tmm" keeps the difference`;
+
+/** --media, or 'tables'; a UsageError (exit 2) for anything else. */
+export function mediaFromArgs(values: ParsedArgs['values']): Media {
+  const m = values.media;
+  if (m === undefined) return 'tables';
+  if (m === 'tables' || m === 'stepped') return m;
+  throw new UsageError(`--media: must be tables or stepped (got "${String(m)}")`);
+}
+
+/** A PlanError met while preparing the stepped media is the stack's problem: exit 2, the message as it is. */
+export function planErrorAsInput<T>(work: () => T): T {
+  try { return work(); } catch (e) {
+    if (e instanceof PlanError) throw new CliError(`${e.message}; nothing was written`, 2);
+    throw e;
+  }
+}
 
 /** Load FILE, or print its problems (one line each) and throw InputError (exit 2). */
 export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: string[] } {
@@ -41,7 +64,7 @@ export function writeReport(dir: string, report: Report, extra: readonly OutputF
 export const solve: Command = {
   name: 'solve',
   summary: 'exact R, T spectra and standing-wave profile of a stack into a directory',
-  usage: `Usage: slabecho solve FILE --out DIR [--fem-order P] [--fem-density N]
+  usage: `Usage: slabecho solve FILE --out DIR [--fem-order P] [--fem-density N] [--media tables|stepped]
 
 Solve the stack in FILE with the exact transfer-matrix method, cross-checked by the FEM, and write into DIR
 (created if needed):
@@ -56,22 +79,24 @@ The work is estimated first: a job over the limits below is refused before it st
 Options:
   --out DIR          output directory (required)
 ${FEM_ARG_USAGE}
+${MEDIA_ARG_USAGE}
 ${BUDGET_ARG_USAGE}
   -h, --help         show this help
 
 Exit: 0 done, 2 invalid stack, usage, or a job over its limits (nothing written), 1 internal error.`,
   async run(args, io) {
-    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...BUDGET_ARG_OPTIONS }, [1, 1]);
+    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...MEDIA_ARG_OPTIONS, ...BUDGET_ARG_OPTIONS }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho solve --help)');
     const fem = femOptionsFromArgs(a.values);
+    const media = mediaFromArgs(a.values);
     const { budget, limitNames } = budgetFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
     const job = estimateSolve(stack, { fem, budget, limitNames });
     if (job.refusal !== undefined) throw new InputError(`${job.refusal}; nothing was written`);
-    const report = solveReport(stack, { inputWarnings: warnings, fem, job });
+    const report = planErrorAsInput(() => solveReport(stack, { inputWarnings: warnings, fem, media, job }));
     for (const w of report.warnings) io.err(`warning: ${w}`);
     const written = writeReport(out, report, [], { maxBytes: budget.maxOutput_bytes, limitName: limitNames.output });
     const s = report.summary as { results: Record<string, number | null>; methods: { name: string; time_ms: number }[] };
