@@ -12,6 +12,7 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { STACK_LIMITS } from '../stack/file.ts';
 import { parseStackText, type ParseResult } from '../stack/parse.ts';
 import { InputError } from './command.ts';
+import { withSigintHeld } from './signals.ts';
 
 /**
  * The file-system calls this module makes, gathered so tests can stand in for a full disk or a read-only file
@@ -173,17 +174,6 @@ function writeTemp(target: string, file: OutputFile, budget: { left: number; nam
   }
   fsOps.closeSync(fd);
   return { tmp, bytes };
-}
-
-/**
- * Run `write` with SIGINT held: a Ctrl-C arriving while a finished result is written cannot stop the process
- * between two files (or leave temporary files behind); the result is complete by then, so all of it is written.
- */
-export function withSigintHeld<T>(write: () => T): T {
-  if (typeof process === 'undefined' || typeof process.on !== 'function') return write();
-  const hold = () => {};
-  process.on('SIGINT', hold);
-  try { return write(); } finally { process.removeListener('SIGINT', hold); }
 }
 
 /**

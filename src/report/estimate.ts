@@ -18,6 +18,7 @@ import { nextPow2 } from '../spectra/fft.ts';
 import { DEFAULT_BUDGET, plainBytes, plainCount, plainDuration, type WorkBudget } from './budget.ts';
 import { planOutputs, type OutputPlan, type ProfileLevel } from './output-plan.ts';
 import { profileHasH } from './profile-columns.ts';
+import { QUANTITY_NAMES, quantitiesUnavailable } from '../studies/quantities.ts';
 import { ECHO_BYTES_PER_FFT_POINT, FEM_BYTES_PER_ELEMENT, PROFILE_BYTES_PER_ROW, RATES, RECORD_BYTES_PER_STEP } from './rates.ts';
 
 /** A job refused by its estimate, before anything heavy was allocated; the message says why and what to change. */
@@ -55,7 +56,12 @@ export interface EstimateOptions {
   budget?: WorkBudget;
   /** How the user sets the output limit and the time limit, for messages (default: plain figures). */
   limitNames?: { output?: string; seconds?: string };
+  /** A Touchstone file is written beside the spectrum (solve --touchstone). */
+  touchstone?: boolean;
 }
+
+/** Numbers per row of a Touchstone file (frequency and four complex S-parameters; a one-port needs fewer). */
+const TOUCHSTONE_COLUMNS = 9;
 
 /** Frequencies the estimate sizes meshes on: the stack's own, or this many spread over the band (ends included). */
 const SIZING_SAMPLES = 257;
@@ -176,8 +182,11 @@ export function estimateJob(stack: Stack, options: EstimateOptions & { withPulse
     const femForProfile = withFem ? femOptions : null;
     // Profile columns: x, then E (and H in TM) of the exact solution and the FEM, then E of the pulse run.
     const perMethod = profileHasH(stack) ? 4 : 2;
+    // Spectrum columns: f, R and T of every method, then the engineering quantities when they are defined.
+    const quantities = quantitiesUnavailable(stack) === null ? QUANTITY_NAMES.length : 0;
     const outputs = planOutputs({
-      points: stack.points, spectrumColumns: 1 + 4 * methods,
+      points: stack.points, spectrumColumns: 1 + 4 * methods + quantities,
+      extraTables: options.touchstone ? [{ rows: stack.points, columns: TOUCHSTONE_COLUMNS }] : [],
       profile: { rowsAt: (level) => profileRows(stack, femForProfile, level), columns: 1 + perMethod * (1 + (withFem ? 1 : 0)) + (grid ? 2 : 0) },
       trace: options.withPulse ? { rows: stepsWorst + 1, columns: 4 } : null,
       layers: stack.layers.length, maxBytes: budget.maxOutput_bytes, limitName: limitOut,

@@ -28,6 +28,8 @@ export interface OutputRequest {
   profile: { rowsAt: (level: ProfileLevel) => number; columns: number } | null;
   /** Most rows the traces could have (the run's step limit + 1) and their columns; null without a pulse run. */
   trace: { rows: number; columns: number } | null;
+  /** Other files of a fixed size (a Touchstone file), as tables of rows × numbers. */
+  extraTables?: readonly { rows: number; columns: number }[];
   /** Layers in the stack (summary.json grows with them). */
   layers: number;
   /** The limit on all files together, bytes, and how the user sets it (for messages). */
@@ -36,7 +38,7 @@ export interface OutputRequest {
 }
 
 export interface OutputPlan {
-  /** Upper bounds, bytes. */
+  /** Upper bounds, bytes: the spectrum; summary.json, echoes.csv and any extra file (Touchstone). */
   spectrum_bytes: number;
   reserve_bytes: number;
   /** The profile's sampling and its bound; null when there is none (oblique incidence) or it does not fit. */
@@ -59,14 +61,18 @@ const tableBytes = (rows: number, columns: number): number => (rows + 1) * colum
 
 export function planOutputs(q: OutputRequest): OutputPlan {
   const spectrum_bytes = tableBytes(q.points, q.spectrumColumns);
-  const reserve_bytes = RESERVE_FIXED_BYTES + RESERVE_PER_LAYER_BYTES * q.layers;
+  const reserve_bytes = RESERVE_FIXED_BYTES + RESERVE_PER_LAYER_BYTES * q.layers
+    + (q.extraTables ?? []).reduce((n, t) => n + tableBytes(t.rows, t.columns), 0);
   const base = { spectrum_bytes, reserve_bytes, maxBytes: q.maxBytes, limitName: q.limitName, notes: [] as string[] };
   const room = q.maxBytes - spectrum_bytes - reserve_bytes;
   if (room < 0) {
-    const fit = Math.floor((q.maxBytes - reserve_bytes) / (q.spectrumColumns * CSV_CHARS_PER_NUMBER)) - 1;
+    // Per point: the spectrum's numbers and those of any extra file with a row per point.
+    const perPoint = q.spectrumColumns + (q.extraTables ?? []).filter((t) => t.rows === q.points).reduce((n, t) => n + t.columns, 0);
+    const fixed = RESERVE_FIXED_BYTES + RESERVE_PER_LAYER_BYTES * q.layers;
+    const fit = Math.floor((q.maxBytes - fixed) / (perPoint * CSV_CHARS_PER_NUMBER)) - 2;
     return {
       ...base, profile: null, traceRowsCap: q.trace ? 0 : null,
-      refusal: `spectrum.csv and summary.json alone could take ${plainBytes(spectrum_bytes + reserve_bytes)} ` +
+      refusal: `spectrum.csv and summary.json${q.extraTables?.length ? ' (and the Touchstone file)' : ''} alone could take ${plainBytes(spectrum_bytes + reserve_bytes)} ` +
         `(${plainCount(q.points)} points × ${q.spectrumColumns} columns), over the output limit (${q.limitName}); ` +
         (fit >= 2 ? `lower "points" to at most ${plainCount(fit)}, or raise the limit` : 'raise the limit'),
     };

@@ -17,9 +17,9 @@ import { loadOrExplain, MEDIA_ARG_OPTIONS, MEDIA_ARG_USAGE, mediaFromArgs, write
 import { estimateRun, WorkRefused } from '../../report/estimate.ts';
 import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
 import type { WriteOptions } from '../io.ts';
+import { EXIT_INTERRUPTED } from '../signals.ts';
 
-/** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
-export const EXIT_INTERRUPTED = 130;
+export { EXIT_INTERRUPTED };
 
 /** Pulse options from the command line; UsageError (exit 2) naming the option. */
 export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions {
