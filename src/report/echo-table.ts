@@ -52,12 +52,16 @@ export function formatEchoRow(t: EchoColumns, i: number): string {
   return [...nums, quote(t.path[i]), quote(t.nearest_path[i] ?? ''), t.resolved[i] ?? 'yes'].join(',');
 }
 
-/** CSV text: header, then one line per echo. */
-export function formatEchoesCsv(t: EchoColumns): string {
+/** An echo table's CSV as text chunks, each with its "\n" (header, then the rows), for streaming. */
+export function* echoCsvChunks(t: EchoColumns): Generator<string> {
   if (t.path.length > 0) assertTable(t.columns);
-  const lines = [ECHO_CSV_HEADER];
-  for (let i = 0; i < t.path.length; i++) lines.push(formatEchoRow(t, i));
-  return lines.join('\n') + '\n';
+  yield `${ECHO_CSV_HEADER}\n`;
+  for (let i = 0; i < t.path.length; i++) yield `${formatEchoRow(t, i)}\n`;
+}
+
+/** CSV text in one string: header, then one line per echo. */
+export function formatEchoesCsv(t: EchoColumns): string {
+  return [...echoCsvChunks(t)].join('');
 }
 
 /** Delays in ns, for summaries. */
