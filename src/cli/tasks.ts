@@ -3,7 +3,7 @@
 // beside the pulse run, the echo analysis beside the spectra). To add one: a function here and its entry in
 // TASKS; the result must survive structured cloning (typed arrays and plain objects do).
 
-import { echoTable, type EchoTable } from '../echoes/table.ts';
+import { analyseEchoes, type EchoAnalysis, type EchoOptions } from '../echoes/table.ts';
 import type { PulseRunRecords } from '../fdtd/types.ts';
 import { solveReport, type Report, type SolveOptions } from '../report/solve.ts';
 import type { Stack } from '../stack/types.ts';
@@ -13,7 +13,7 @@ export type CloneableSolveOptions = Omit<SolveOptions, 'onProgress'>;
 
 export const TASKS = {
   solve: (a: { stack: Stack; options: CloneableSolveOptions }): Report => solveReport(a.stack, a.options),
-  echoes: (a: { stack: Stack; records: PulseRunRecords }): EchoTable => echoTable(a.stack, a.records),
+  echoes: (a: { stack: Stack; records: PulseRunRecords; options: EchoOptions }): EchoAnalysis => analyseEchoes(a.stack, a.records, a.options),
 };
 
 export type TaskName = keyof typeof TASKS;

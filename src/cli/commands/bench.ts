@@ -12,8 +12,10 @@ import { solveFem } from '../../fem/solve.ts';
 import type { Stack } from '../../stack/types.ts';
 import { loadStackFile } from '../io.ts';
 import type { Command } from '../command.ts';
-import { numberOption, readArgs, UsageError, type ParsedArgs } from '../command.ts';
+import { InputError, numberOption, readArgs, UsageError, type ParsedArgs } from '../command.ts';
 import { loadOrExplain } from './solve.ts';
+import { estimateBench } from '../../report/estimate-study.ts';
+import { budgetFromArgs } from '../budget-args.ts';
 
 const DEFAULT_CELLS = 200_000;
 const DEFAULT_STEPS = 5_000;
@@ -53,6 +55,16 @@ function engineOption(values: ParsedArgs['values']): EngineKind | undefined {
   return e;
 }
 
+/**
+ * Refuse (exit 2) a benchmark estimated to pass the time limit; poles are counted as about half a cell-update
+ * each (a second-order one as two), which is what they cost the TypeScript kernel.
+ */
+function refuseLongBench(values: ParsedArgs['values'], cells: number, steps: number, debye: number, lorentz: number): void {
+  const { budget, limitNames } = budgetFromArgs(values);
+  const est = estimateBench(Math.ceil(cells * (1 + 0.5 * (debye + 2 * lorentz))), steps, budget, limitNames.seconds);
+  if (est.refusal !== undefined) throw new InputError(est.refusal);
+}
+
 interface Timing { run: PulseRun; steps: number; seconds: number }
 
 /** Warm the engine up (JIT, WebAssembly tier-up; not timed), then time `steps` production steps. */
@@ -89,11 +101,13 @@ Options:
   --lorentz-poles L    second-order poles per node (0 to ${MAX_POLES})
   --stack FILE         time the planned grid of this stack instead
   --engine E           js or wasm-simd (default: wasm-simd where WebAssembly SIMD runs)
+  --max-seconds S      refuse a benchmark estimated to take longer than S seconds (default 30)
   --json               print one JSON object {"cells","steps","seconds","mcells_per_s","engine",...,"fem"}`,
   async run(args, io) {
     const parsed = readArgs(bench, args, io, {
       cells: { type: 'string' }, steps: { type: 'string' }, json: { type: 'boolean' },
       'debye-poles': { type: 'string' }, 'lorentz-poles': { type: 'string' }, stack: { type: 'string' }, engine: { type: 'string' },
+      'max-seconds': { type: 'string' },
     }, [0, 0]);
     if (parsed === null) return 0;
     const v = parsed.values;
@@ -106,11 +120,13 @@ Options:
         throw new UsageError('--stack FILE sets the grid: leave out --cells, --debye-poles and --lorentz-poles');
       }
       run = stackBenchRun(loadOrExplain(file, io).stack, steps, engine);
+      refuseLongBench(v, cellsPerStep(run), steps, 0, 0);
     } else {
       const cells = countOption(v, 'cells', DEFAULT_CELLS, 20_000_000);
       if (cells < BENCH_MIN_CELLS) throw new UsageError(`--cells: must be a whole number from ${BENCH_MIN_CELLS} to 20000000`);
       debye = poleOption(v, 'debye-poles');
       lorentz = poleOption(v, 'lorentz-poles');
+      refuseLongBench(v, cells, steps, debye, lorentz);
       run = uniformBenchRun(cells, debye, lorentz, steps, engine);
     }
     const t = timeSteps(run, steps);
