@@ -10,6 +10,7 @@ export default defineConfig({
   worker: { format: 'es' },
   test: {
     include: ['test/**/*.test.ts'],
+    globalSetup: ['test/support/global-setup.ts'],
     environment: 'node',
     testTimeout: 60_000,
   },

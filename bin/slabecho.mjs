@@ -33,6 +33,6 @@ else {
   register();
   cli = await import('../src/cli/main.ts');
 }
-// A study runs its cases on worker threads started from this same file.
+// Studies and the task pool (src/cli/pool.ts, from the sources) start worker threads from this same file.
 if (isMainThread) process.exitCode = await cli.main(process.argv.slice(2));
-else cli.studyWorkerMain();
+else cli.workerMain();

@@ -15,7 +15,15 @@ import { tolerance } from './commands/tolerance.ts';
 import { merge } from './commands/merge.ts';
 import { provideCliStepModule } from './step-module.ts';
 
-export { studyWorkerMain } from './studies/worker.ts';
+import { studyWorkerMain } from './studies/worker.ts';
+import { isPoolWorker } from './pool.ts';
+
+export { studyWorkerMain };
+
+/** Entry of a worker thread started through bin/slabecho.mjs: a study's, or the task pool's (already serving). */
+export function workerMain(): void {
+  if (!isPoolWorker()) studyWorkerMain();
+}
 
 export const COMMANDS: readonly Command[] = [
   check,

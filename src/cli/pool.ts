@@ -1,7 +1,7 @@
 // A small pool of worker threads for the command line's independent work (tasks.ts). Every worker loads this
 // same module: the compiled CLI (build/cli.mjs) as a whole, so a worker costs one module load. From the sources
 // (tsx) workers would have to compile everything again, so there the tasks run in the calling thread unless
-// SLABECHO_WORKERS=1; SLABECHO_WORKERS=0 keeps everything in one thread anywhere, SLABECHO_WORKERS=N (N > 1)
+// SLABECHO_WORKERS is set: 0 keeps everything in one thread anywhere, 1 allows workers (one per idle core), N > 1
 // asks for N workers whatever the load. Results are the same either way.
 //
 //   const pool = new TaskPool();          // workers start at once (their module load overlaps the caller's work)
@@ -21,8 +21,8 @@ const FROM_SOURCES = import.meta.url.endsWith('.ts');
 /** Whether tasks go to worker threads here (see the head of this file). */
 export function workersEnabled(): boolean {
   const v = process.env.SLABECHO_WORKERS;
-  if (v === '0') return false;
-  return !FROM_SOURCES || v === '1';
+  if (v === undefined || v === '') return !FROM_SOURCES;
+  return v !== '0';
 }
 
 /**
@@ -54,10 +54,9 @@ export class TaskPool {
   get size(): number { return this.slots.length; }
 
   private spawn(): Slot {
-    const worker = new Worker(new URL(import.meta.url), {
-      workerData: { slabechoPool: true },
-      execArgv: FROM_SOURCES ? ['--import', 'tsx'] : [],
-    });
+    // The compiled CLI starts itself; the sources start through bin/slabecho.mjs, which registers tsx first.
+    const entry = FROM_SOURCES ? new URL('../../bin/slabecho.mjs', import.meta.url) : new URL(import.meta.url);
+    const worker = new Worker(entry, { workerData: { slabechoPool: true } });
     const slot: Slot = { worker, busy: false };
     worker.on('message', (r: Reply) => this.settle(slot, r));
     worker.on('error', (e) => this.failAll(slot, e));
@@ -110,8 +109,15 @@ export class TaskPool {
   }
 }
 
-/** The worker side: answer every job with its task's result. */
+/** Whether this thread is a pool worker. */
+export const isPoolWorker = (): boolean => !isMainThread && (workerData as { slabechoPool?: boolean } | null)?.slabechoPool === true;
+
+let serving = false;
+
+/** The worker side: answer every job with its task's result (once per thread, whoever asks first). */
 function serve(): void {
+  if (serving) return;
+  serving = true;
   provideCliStepModule();
   parentPort!.on('message', (job: Job) => {
     let reply: Reply;
@@ -124,4 +130,4 @@ function serve(): void {
   });
 }
 
-if (!isMainThread && (workerData as { slabechoPool?: boolean } | null)?.slabechoPool === true) serve();
+if (isPoolWorker()) serve();

@@ -96,7 +96,7 @@ N = ${DEFAULT_CELLS}, T = ${DEFAULT_STEPS}, P = L = 0. Beside it, the time of a 
 
 Options:
   --cells N            E nodes stepped per step, both grids together (${BENCH_MIN_CELLS} to 20000000)
-  --steps T            time steps (1 to 2000000)
+  --steps T            time steps (1 to 10000000)
   --debye-poles P      first-order poles per node (0 to ${MAX_POLES})
   --lorentz-poles L    second-order poles per node (0 to ${MAX_POLES})
   --stack FILE         time the planned grid of this stack instead
@@ -111,7 +111,7 @@ Options:
     }, [0, 0]);
     if (parsed === null) return 0;
     const v = parsed.values;
-    const steps = countOption(v, 'steps', DEFAULT_STEPS, 2_000_000);
+    const steps = countOption(v, 'steps', DEFAULT_STEPS, 10_000_000);
     const engine = engineOption(v);
     const file = typeof v.stack === 'string' ? v.stack : null;
     let debye = 0, lorentz = 0, run: PulseRun;
