@@ -7,28 +7,39 @@ import { type DispersiveSpan, type KernelState, updateE, updateH } from './kerne
 /**
  * Energy held by the poles (normalized like the field energy): P̃²/Δε for a Debye pole, (P̃'² + ω0²P̃²)/c for a
  * second-order one (their stored energies, dropping ε0/2 as the field energy does). `e` is the E of the same
- * step, which completes the state (kernel.ts).
+ * step, which completes the state (kernel.ts). Summed as the WebAssembly engine does, in two running sums (nodes
+ * of even and odd place in each group, its two lanes) added at the end, so the two engines agree to the bit.
  */
 export function poleEnergy(d: DispersiveSpan | null, e: Float64Array, dt: number): number {
   if (d === null) return 0;
-  let W = 0;
+  const W = [0, 0];
   for (const g of d.groups) {
     for (let k = 0; k < g.hi - g.lo; k++) {
-      const f = g.fill[k], E = e[g.lo + k], fE = f * E;
+      const f = g.fill[k], E = e[g.lo + k], fE = f * E, lane = k & 1;
       if (!(f > 0)) continue;
       for (let q = 0; q < g.nd; q++) {
         const P = g.dState[k * g.nd + q] + g.db[q] * fE;
-        W += (P * P) / (f * g.dEps[q]);
+        W[lane] += (P * P) / (f * g.dEps[q]);
       }
       for (let q = 0; q < g.no; q++) {
         const j = 2 * (k * g.no + q);
         const P = g.oState[j] + g.oz[q] * fE, Pold = g.oState[j + 1];
         const rate = (P - Pold) / dt, mean = (P + Pold) / 2;
-        W += (rate * rate + g.ow0sq[q] * mean * mean) / (f * g.oc[q]);
+        W[lane] += (rate * rate + g.ow0sq[q] * mean * mean) / (f * g.oc[q]);
       }
     }
   }
-  return W;
+  return W[0] + W[1];
+}
+
+/** Σ w·E² over the E nodes plus Σ h² (w = ε∞ per node), in two running sums (even and odd nodes) added at the end. */
+export function fieldEnergy(e: Float64Array, h: Float64Array, w: Float64Array): number {
+  let even = 0, odd = 0, i = 0;
+  for (; i + 1 < e.length; i += 2) { even += w[i] * e[i] * e[i]; odd += w[i + 1] * e[i + 1] * e[i + 1]; }
+  if (i < e.length) even += w[i] * e[i] * e[i];
+  for (i = 0; i + 1 < h.length; i += 2) { even += h[i] * h[i]; odd += h[i + 1] * h[i + 1]; }
+  if (i < h.length) even += h[i] * h[i];
+  return even + odd;
 }
 
 export class JsEngine implements StepEngine {
@@ -94,10 +105,7 @@ export class JsEngine implements StepEngine {
   incidentDft(): [number, number] { return [this.incRe, this.incIm]; }
 
   energy(): number {
-    const e = this.main.e, h = this.main.h, w = this.epsInf;
-    let W = 0;
-    for (let i = 0; i < e.length; i++) W += w[i] * e[i] * e[i];
-    for (let i = 0; i < h.length; i++) W += h[i] * h[i];
-    return W + poleEnergy(this.main.disp, e, this.input.setup.dt_s);
+    const e = this.main.e;
+    return fieldEnergy(e, this.main.h, this.epsInf) + poleEnergy(this.main.disp, e, this.input.setup.dt_s);
   }
 }
