@@ -17,6 +17,10 @@ import { parseStackObject } from '../src/stack/parse.ts';
 import type { Stack } from '../src/stack/types.ts';
 import { solveTmm } from '../src/tmm/solve.ts';
 import { linspace } from '../src/units.ts';
+import { useWasmStep } from '../test/support/wasm.ts';
+
+// The runs step with the WebAssembly kernel, as the CLI's do (the TypeScript one gives the same figures, slower).
+await useWasmStep();
 
 const { values } = parseArgs({ options: { only: { type: 'string' }, accuracy: { type: 'string' }, set: { type: 'string' }, json: { type: 'boolean' } } });
 const accuracy = values.accuracy ? Number(values.accuracy) : undefined;
