@@ -2,11 +2,12 @@
 // directory, and writing results atomically (temporary file in the same directory, then rename).
 
 import { closeSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, statSync, unlinkSync, writeSync } from 'node:fs';
-import { readFileSync } from 'node:fs';
+import { readFileSync, realpathSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
-import { basename, dirname, join } from 'node:path';
+import { basename, dirname, isAbsolute, join, relative, resolve, sep } from 'node:path';
 import { STACK_LIMITS } from '../stack/file.ts';
 import { parseStackText, type ParseResult } from '../stack/parse.ts';
+import type { TableFileReader } from '../stack/parse-table.ts';
 import { InputError } from './command.ts';
 
 const code = (e: unknown): string | undefined => (e as { code?: string } | null)?.code;
@@ -36,7 +37,31 @@ export function readStackFile(path: string): string {
 
 /** Read and validate a stack file. Problems are returned (not thrown) so every one can be listed. */
 export function loadStackFile(path: string): ParseResult {
-  return parseStackText(readStackFile(path));
+  return parseStackText(readStackFile(path), { readTableFile: tableFileReader(dirname(path)) });
+}
+
+/**
+ * Reads a table material's `file` relative to the stack file's folder. A name that leads outside that folder
+ * (an absolute path, "..", or a link pointing out) is refused: a stack file names only what lies beside it.
+ */
+export function tableFileReader(folder: string): TableFileReader {
+  return (name) => {
+    if (isAbsolute(name)) return { ok: false, error: `"${name}" is an absolute path; name a file beside the stack file, relative to its folder` };
+    let root: string, real: string;
+    try { root = realpathSync(folder); } catch (e) { return { ok: false, error: `the stack file's folder ${folder}: ${fsReason(e)}` }; }
+    const outside = (p: string) => { const r = relative(root, p); return r === '..' || r.startsWith(`..${sep}`) || isAbsolute(r); };
+    if (outside(resolve(root, name))) return { ok: false, error: `"${name}" lies outside the stack file's folder; put the table beside the stack file (or in a folder under it)` };
+    try { real = realpathSync(resolve(root, name)); } catch (e) { return { ok: false, error: `"${name}": ${fsReason(e)} beside the stack file` }; }
+    if (outside(real)) return { ok: false, error: `"${name}" is a link to a file outside the stack file's folder; copy the table beside the stack file` };
+    try {
+      const st = statSync(real);
+      if (st.isDirectory()) return { ok: false, error: `"${name}" is a directory, not a CSV file` };
+      if (st.size > STACK_LIMITS.maxTextBytes) return { ok: false, error: `"${name}": ${st.size} bytes is over the ${STACK_LIMITS.maxTextBytes / 1e6} MB limit for a table file` };
+      return { ok: true, text: new TextDecoder('utf-8', { fatal: true }).decode(readFileSync(real)) };
+    } catch (e) {
+      return { ok: false, error: e instanceof TypeError ? `"${name}": not UTF-8 text (a table file is CSV text)` : `"${name}": ${fsReason(e)}` };
+    }
+  };
 }
 
 function fsReason(e: unknown): string {
