@@ -6,14 +6,15 @@ import { type Complex, exp, mul, add } from '../complex.ts';
 import { echoTable, type EchoTable } from '../echoes/table.ts';
 import { PlanError } from '../fdtd/errors.ts';
 import { createPulseRun, runToEnd } from '../fdtd/run.ts';
-import { solveEffective } from '../fdtd/stepped-exact.ts';
 import type { GridPlan, PulseOptions, PulseRun } from '../fdtd/types.ts';
 import type { Profile, Spectrum } from '../results.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
 import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
-import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
+import { roundedRow } from './format-agreement.ts';
+import { fdtdAgreementRows } from './fdtd-agreement.ts';
+import { QUANTITY_NAMES } from '../studies/quantities.ts';
 import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
 import { fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
@@ -83,7 +84,11 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const fdtd = spectrumFromRecords(rec, f_Hz);
   for (const w of fdtd.warnings) warn(w);
   const spectrum_ms = now() - t1;
-  const spectrum = [...base.spectrum, ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im)];
+  // The pulse columns go after the other methods' and before the engineering quantities, which stay last.
+  const isQuantity = (c: Column) => (QUANTITY_NAMES as readonly string[]).includes(c.name);
+  const spectrum = [...base.spectrum.filter((c) => !isQuantity(c)),
+    ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im),
+    ...base.spectrum.filter(isQuantity)];
 
   // Profile: the FDTD phasor interpolated onto the report's x grid.
   let profile = base.profile;
@@ -106,22 +111,9 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     { name: 'E_transmitted', data: rec.transmitted.slice() },
   ];
 
-  // Agreement rows: fdtd against the exact solution, and against the FEM when its columns are there.
-  const agreement: AgreementRow[] = [];
-  const tmm = spectrumFromColumns(spectrum, 'tmm', f_Hz);
-  const target = run.plan.accuracyTarget;
-  if (tmm) agreement.push(agreementRow('fdtd-tmm', fdtd, tmm, target));
-  const fem = spectrumFromColumns(spectrum, 'fem', f_Hz);
-  if (fem) agreement.push(agreementRow('fdtd-fem', fdtd, fem, target));
-  // When the engine steps other media than the stack names (power laws fitted, metal as a wall or a
-  // sheet), split the figure: the engine against the exact solution of what it stepped (its own
-  // numerical error), and that exact solution against the original (the material model's share).
-  // With --media stepped the tmm columns already are the stepped media, and solve's report has the share.
-  if (tmm && !stepped && run.plan.effective.substitutions > 0) {
-    const exactStepped = solveEffective(run.plan.effective, f_Hz);
-    agreement.push(agreementRow('fdtd-tmm as stepped', fdtd, exactStepped, target));
-    agreement.push(agreementRow('stepped media-tmm', exactStepped, tmm));
-  }
+  // Agreement rows: fdtd against the exact solution, against the FEM when its columns are there and, when the
+  // engine stepped other media than the tables (and the tmm columns are the tables'), the stepped-media split.
+  const agreement = fdtdAgreementRows(run, fdtd, spectrumFromColumns(spectrum, 'tmm', f_Hz), spectrumFromColumns(spectrum, 'fem', f_Hz), !stepped);
   const allAgreement = [...base.agreement, ...agreement];
   summary.agreement = allAgreement.map(roundedRow);
 

@@ -21,6 +21,8 @@ import { profileColumns, profileHasH } from './profile-columns.ts';
 import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
 import { steppedStack } from '../fdtd/stepped-stack.ts';
 import { PlanError } from '../fdtd/errors.ts';
+import { quantitiesOf, quantitiesUnavailable, frontIsLossless } from '../studies/quantities.ts';
+import { quantitiesInBrief, quantityColumns } from '../studies/extremes.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -97,6 +99,12 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   const agreement: AgreementRow[] = [];
   if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
   if (media === 'stepped' && stack !== tables) agreement.push(agreementRow('stepped media-tmm', tmm, solveTmm(tables, f_Hz)));
+  // Engineering quantities of the exact solution (of the media it solved), after every method's columns
+  // (runReport keeps them last).
+  const unavailable = quantitiesUnavailable(stack);
+  const quantities = unavailable === null ? quantitiesOf(stack, tmm) : null;
+  if (quantities) spectrum.push(...quantityColumns(quantities));
+  else warn(`${unavailable}; spectrum.csv leaves them out`);
   progress(0.95);
 
   // Standing-wave profile: tangential E along the normal line (and in TM the tangential H), at any incidence.
@@ -139,7 +147,7 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
     back: described.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(described.back, described),
     total_thickness_mm: mmFromM(stackThickness_m(described)),
     methods,
-    results: resultsInBrief(stack, tmm),
+    results: { ...resultsInBrief(stack, tmm), ...(quantities ? quantitiesInBrief(tmm.f_Hz, quantities) : {}) },
     ...(fem ? { fem: fem.mesh } : {}),
     agreement: agreement.map(roundedRow),
     warnings,
@@ -193,9 +201,7 @@ function resultsInBrief(stack: Stack, sp: Spectrum): Record<string, unknown> {
     T_dB_min: stack.back === 'pec' ? null : round3(tMin), T_dB_max: stack.back === 'pec' ? null : round3(tMax),
   };
   // Incident and reflected powers separate only in a lossless front medium.
-  const frontLossless = [stack.band_Hz[0], stack.band_Hz[1]].every((f) =>
-    permittivity(stack.front.spec, f).im === 0 && permeability(stack.front.spec, f).im === 0);
-  if (frontLossless) {
+  if (frontIsLossless(stack)) {
     const A = absorption(stack, sp);
     let iMax = 0, aMin = Infinity;
     for (let i = 0; i < n; i++) { if (A[i] > A[iMax]) iMax = i; aMin = Math.min(aMin, A[i]); }

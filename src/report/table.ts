@@ -51,7 +51,16 @@ export function assertFiniteValues(value: unknown, path = 'summary'): void {
 /** A number with 12 significant digits, trailing zeros dropped: 1.5, 0.000123, 1.23e-7, -0 → 0. */
 export function formatNumber(x: number): string {
   if (x === 0) return '0';
-  return String(Number(x.toPrecision(12)));
+  // Fast path, the same text as String(Number(x.toPrecision(12))) (the definition, below): in fixed notation
+  // (1e-6 ≤ |x| < 1e12) the 12 digits with trailing zeros cut are what String(Number(·)) gives back, since the
+  // shortest text naming the same double has no fewer digits.
+  const s = x.toPrecision(12);
+  if (s.indexOf('e') >= 0) return String(Number(s));
+  if (s.indexOf('.') < 0) return s;
+  let end = s.length;
+  while (s.charCodeAt(end - 1) === 48) end--; // '0'
+  if (s.charCodeAt(end - 1) === 46) end--; // '.'
+  return s.slice(0, end);
 }
 
 /** CSV text: a header line of column names, then one line per row; "\n" line ends. Refuses NaN and ±Infinity. */

@@ -19,7 +19,9 @@ describe('slabecho run', () => {
     const r = await cli('run', slab, '--out', out);
     expect(r.code).toBe(0);
     const sp = readCsv(readFileSync(join(out, 'spectrum.csv'), 'utf8'));
-    expect(sp.header.slice(-4)).toEqual(['R_fdtd_re', 'R_fdtd_im', 'T_fdtd_re', 'T_fdtd_im']);
+    // The pulse columns keep their place after the exact and FEM groups; the engineering quantities come last.
+    expect(sp.header.slice(9, 13)).toEqual(['R_fdtd_re', 'R_fdtd_im', 'T_fdtd_re', 'T_fdtd_im']);
+    expect(sp.header.slice(13)).toEqual(['R_power', 'T_power', 'absorbed', 'IL_dB', 'RL_dB', 'IPD_deg']);
     expect(sp.rows.flat().every(Number.isFinite)).toBe(true);
     expect(readFileSync(join(out, 'profile.csv'), 'utf8').split('\n')[0]).toMatch(/E_fdtd_re,E_fdtd_im$/);
     const echoes = readFileSync(join(out, 'echoes.csv'), 'utf8').trimEnd().split('\n');

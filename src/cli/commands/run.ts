@@ -14,9 +14,9 @@ import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { loadOrExplain, MEDIA_ARG_OPTIONS, MEDIA_ARG_USAGE, mediaFromArgs, writeReport } from './solve.ts';
+import { EXIT_INTERRUPTED, withSigintHeld } from '../signals.ts';
 
-/** Exit code of a run stopped by Ctrl-C (128 + SIGINT, the shell convention). */
-export const EXIT_INTERRUPTED = 130;
+export { EXIT_INTERRUPTED };
 
 /** Pulse options from the command line; UsageError (exit 2) naming the option. */
 export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions {
@@ -36,17 +36,6 @@ export function writeRunReport(dir: string, report: RunReport): string[] {
     { name: 'echoes.csv', text: formatEchoesCsv(report.echoes) },
     { name: 'trace.csv', text: formatCsv(report.trace) }, // header only when the pulse engine was skipped
   ]);
-}
-
-/**
- * Run `write` (synchronous) with a SIGINT listener in place, so a Ctrl-C arriving while the files are
- * renamed into place cannot end the process between two renames: the run is complete by then, and every
- * file of it is written.
- */
-function withSigintHeld<T>(write: () => T): T {
-  const hold = () => {};
-  process.on('SIGINT', hold);
-  try { return write(); } finally { process.removeListener('SIGINT', hold); }
 }
 
 /** Progress lines on stderr, the first after one second, then at most one a second. */
