@@ -35,6 +35,23 @@ export function readStackFile(path: string): string {
   }
 }
 
+/** The UTF-8 text of a file named on the command line (`what` names it in messages); InputError (exit 2) otherwise. */
+export function readTextFile(path: string, what: string, maxBytes: number): string {
+  let bytes: Buffer;
+  try {
+    const st = statSync(path);
+    if (st.isDirectory()) throw new InputError(`${what} ${path}: is a directory, not a file`);
+    if (st.size > maxBytes) throw new InputError(`${what} ${path}: ${st.size} bytes is over the ${maxBytes / 1e6} MB limit`);
+    bytes = readFileSync(path);
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    throw new InputError(`${what} ${path}: ${fsReason(e)}`);
+  }
+  try { return new TextDecoder('utf-8', { fatal: true }).decode(bytes); } catch {
+    throw new InputError(`${what} ${path}: not UTF-8 text`);
+  }
+}
+
 /** Read and validate a stack file. Problems are returned (not thrown) so every one can be listed. */
 export function loadStackFile(path: string): ParseResult {
   return parseStackText(readStackFile(path), { readTableFile: tableFileReader(dirname(path)) });

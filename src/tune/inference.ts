@@ -13,7 +13,7 @@ import { normalEquations } from './levenberg-marquardt.ts';
 import { studentQuantile } from './student-t.ts';
 
 export const IDENTIFIABLE_RATIO = 1e-12;
-export const CORRELATION_WARN = 0.99;
+export const CORRELATION_WARN = 0.999;
 /** Share of a direction a parameter must carry to be named as lying along it. */
 const DIRECTION_SHARE = 0.3;
 

@@ -13,8 +13,12 @@ import { nelderMead, type LocalEnd } from './nelder-mead.ts';
 export type Stage = 'start' | 'global' | 'local' | 'jacobian';
 export const STAGES: readonly Stage[] = ['start', 'global', 'local', 'jacobian'];
 
-/** One evaluation: the value minimised, the goal's own figure, and for least squares the residuals. */
-export interface Evaluation { cost: number; objective: number; residuals?: Float64Array }
+/**
+ * One evaluation: the value minimised, the goal's own figure, for least squares the residuals, and optionally a
+ * smooth stand-in for a nonsmooth cost (a worst case over a band is a maximum with corners; a high power mean of
+ * the same values is smooth and nearly as large), which the local stage descends first.
+ */
+export interface Evaluation { cost: number; objective: number; residuals?: Float64Array; smooth?: number }
 
 /** A point the problem cannot evaluate (the stack it gives is refused); the message says why. */
 export class RefusedPoint extends Error {
@@ -154,8 +158,9 @@ function distinctBest(pool: Found[], count: number): Found[] {
 }
 
 /**
- * One local search driven to its end or the budget's. Nelder–Mead is restarted from where it ended while a
- * restart still improves (a fresh simplex undoes a collapsed one); Levenberg–Marquardt ends at a stationary point.
+ * One local search driven to its end or the budget's. Nelder–Mead descends the smooth stand-in first when there is
+ * one, then the cost, restarted from where it ended while a restart still improves (a fresh simplex undoes a
+ * collapsed one); Levenberg–Marquardt ends at a stationary point.
  */
 async function localSearch(b: Budgeted, problem: SearchProblem, start: Found, step: number): Promise<LocalEnd | null> {
   if (problem.leastSquares) {
@@ -163,6 +168,14 @@ async function localSearch(b: Budgeted, problem: SearchProblem, start: Found, st
     return drive(b, levenbergMarquardt(start.u, r0, { xtol: XTOL, ftol: LM_FTOL }), (ev) => ev.residuals ?? r0.map(() => Infinity));
   }
   let from = { u: start.u, f: start.ev.cost }, end: LocalEnd | null = null;
+  if (start.ev.smooth !== undefined) {
+    // The smooth stand-in brings the simplex near the corner where several worst frequencies balance …
+    const near = await drive(b, nelderMead(start.u, start.ev.smooth, { step, xtol: XTOL, ftol: NM_FTOL }), (ev) => ev.smooth ?? Infinity);
+    if (near === null) return null;
+    const ev = await b.evaluate(near.u, 'local');
+    if (ev.cost < from.f) from = { u: near.u, f: ev.cost };
+  }
+  // … and the cost itself, restarted while a fresh simplex still improves, settles it.
   for (let restart = 0; restart < 4 && !b.exhausted; restart++) {
     end = await drive(b, nelderMead(from.u, from.f, { step, xtol: XTOL, ftol: NM_FTOL }), (ev) => ev.cost);
     if (end === null || !(end.f < from.f * (1 - 1e-9) - 1e-15)) break;

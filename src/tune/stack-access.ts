@@ -2,13 +2,14 @@
 // (src/studies/paths.ts: the parser's own field paths, set on a copy of the file form and re-validated by the
 // parser) and its value specs (src/studies/values.ts). A free parameter is `PATH=LO:HI`; its bounds are checked
 // by the parser when it is read, so a bound the stack cannot take is refused before any search, in the parser's
-// words under the user's path.
+// words under the user's path. Angles and polarizations are read as `sweep` reads them (src/studies/sweep-axes.ts).
 
 import type { StackFile } from '../stack/file.ts';
 import type { ParseResult } from '../stack/parse.ts';
 import type { Polarization } from '../stack/types.ts';
-import { parsePath, parsePathPrefix, PathError, readAt, valueKindAt, withSettings, type StackPath } from '../studies/paths.ts';
-import { parseValueSpec, readDecimal, ValueSpecError } from '../studies/values.ts';
+import { parsePathPrefix, PathError, readAt, valueKindAt, withSettings, type StackPath } from '../studies/paths.ts';
+import { ANGLE_PATH, angleAxis, POLARIZATION_PATH, polarizationAxis } from '../studies/sweep-axes.ts';
+import { readDecimal, ValueSpecError } from '../studies/values.ts';
 
 /** A problem with what the user asked for (a --free, --angle or --polarization value); the message names it. */
 export class TuneSetupError extends Error {
@@ -24,9 +25,6 @@ export interface FreeParameter {
   /** The stack file's own value. */
   readonly start: number;
 }
-
-export const ANGLE_PATH = parsePath('incidence.angle_deg');
-export const POLARIZATION_PATH = parsePath('incidence.polarization');
 
 /** `PATH=LO:HI` against the stack file: a number the file holds, LO < HI, and both bounds acceptable to the parser. */
 export function parseFree(text: string, file: StackFile): FreeParameter {
@@ -66,22 +64,24 @@ export function refuseClashes(free: readonly FreeParameter[], angles: boolean, p
   if (polarizations && seen.has(POLARIZATION_PATH.text)) throw new TuneSetupError('--polarization: the polarization is not a number to tune');
 }
 
-/** `--angle A:B:STEP` (or a list): degrees from 0 up to, not including, 90. */
-export function parseAngles(spec: string): number[] {
+/** `--angle A:B:STEP` (or a list), each angle one the parser accepts for this stack (0 ≤ angle < 90). */
+export function parseAngles(spec: string, file: StackFile): number[] {
   let values: number[];
-  try { values = parseValueSpec(spec, 'number') as number[]; } catch (e) {
+  try { values = angleAxis(spec).values as number[]; } catch (e) {
     if (e instanceof ValueSpecError) throw new TuneSetupError(`--angle: ${e.message}`);
     throw e;
   }
-  const bad = values.find((a) => !(a >= 0 && a < 90));
-  if (bad !== undefined) throw new TuneSetupError(`--angle: ${bad}° is not an angle of incidence from 0 up to (not including) 90`);
+  for (const a of values) {
+    const r = withSettings(file, [{ path: ANGLE_PATH, value: a }]);
+    if (!r.ok) throw new TuneSetupError(`--angle: ${r.errors[0]}`);
+  }
   return values;
 }
 
 /** `--polarization TE,TM` (either or both). */
 export function parsePolarizations(spec: string): Polarization[] {
-  const values = spec.split(',').map((s) => s.trim().toUpperCase());
-  const bad = values.find((v) => v !== 'TE' && v !== 'TM');
-  if (bad !== undefined) throw new TuneSetupError(`--polarization: "${bad}" is not a polarization; write TE, TM or TE,TM`);
-  return [...new Set(values)] as Polarization[];
+  try { return polarizationAxis(spec).values as Polarization[]; } catch (e) {
+    if (e instanceof ValueSpecError) throw new TuneSetupError(`--polarization: ${e.message}`);
+    throw e;
+  }
 }

@@ -32,8 +32,8 @@ export interface TuneOutcome {
   stopped: boolean;
   /** The stack file at the best values (null when stopped before any evaluation). */
   tunedFile: StackFile | null;
-  /** tune.csv: one row per evaluation. */
-  csv: string;
+  /** tune.csv, one row per evaluation, in chunks of text (a long search streams rather than builds one string). */
+  csv: () => Iterable<string>;
   /** tune.json. */
   summary: Record<string, unknown>;
 }
@@ -61,19 +61,26 @@ export async function runTune(setup: TuneSetup, hooks: { onProgress?: (p: Search
     starts: [new Float64Array(setup.free.map(unitOf))],
     evaluate: (u) => evaluateGoal(setup.goal, stackAt(setup, u).stack),
   }, { seed: setup.seed, budget: setup.budget, ...hooks });
-  const csv = evaluationCsv(setup.free, result);
+  const csv = () => evaluationCsv(setup.free, result);
   if (result.stopped || result.best === null) return { stopped: result.stopped, tunedFile: null, csv, summary: {} };
   const best = stackAt(setup, result.best.u);
   return { stopped: false, tunedFile: best.file, csv, summary: summaryOf(setup, result, best.stack) };
 }
 
-/** tune.csv: evaluation number, stage, each free value, the goal's figure. */
-export function evaluationCsv(free: readonly FreeParameter[], result: SearchResult): string {
-  const lines = [['evaluation', 'stage', ...free.map((p) => csvField(p.name)), 'objective'].join(',')];
-  result.records.forEach((r, i) => {
-    lines.push([String(i + 1), r.stage, ...valuesOf(free, r.u).map(formatNumber), formatNumber(r.objective)].join(','));
-  });
-  return `${lines.join('\n')}\n`;
+/** Rows of tune.csv per chunk. */
+const CSV_CHUNK_ROWS = 1000;
+
+/** tune.csv: evaluation number, stage, each free value (columns named by their paths), the goal's figure. */
+export function* evaluationCsv(free: readonly FreeParameter[], result: SearchResult): Generator<string> {
+  yield `${['evaluation', 'stage', ...free.map((p) => csvField(p.name)), 'objective'].join(',')}\n`;
+  for (let at = 0; at < result.records.length; at += CSV_CHUNK_ROWS) {
+    let chunk = '';
+    for (let i = at; i < Math.min(result.records.length, at + CSV_CHUNK_ROWS); i++) {
+      const r = result.records[i];
+      chunk += `${[String(i + 1), r.stage, ...valuesOf(free, r.u).map(formatNumber), formatNumber(r.objective)].join(',')}\n`;
+    }
+    yield chunk;
+  }
 }
 
 const r6 = (x: number): number => Number(x.toPrecision(6));
