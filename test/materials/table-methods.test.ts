@@ -9,6 +9,7 @@ import { solveFem } from '../../src/fem/solve.ts';
 import { permittivity } from '../../src/materials/permittivity.ts';
 import type { DebyeModel } from '../../src/materials/types.ts';
 import { compareSpectra } from '../../src/report/agreement.ts';
+import { runReport } from '../../src/report/run.ts';
 import { spectrumFromRecords } from '../../src/spectra/spectrum.ts';
 import { parseStackObject } from '../../src/stack/parse.ts';
 import type { Stack } from '../../src/stack/types.ts';
@@ -77,5 +78,17 @@ describe('a table sampled from a Debye model reproduces its R and T', () => {
     const d = compareSpectra(st, sd);
     expect(d.R_max).toBeLessThan(TOL);
     expect(d.T_max).toBeLessThan(TOL);
+  });
+
+  it('the run report names the table fit and its error, and its methods agree with each other', async () => {
+    const [, table] = pair();
+    const r = await runReport({ ...table, points: 11 });
+    const fits = r.summary.power_law_fits as { material: string; source_model: string; max_rel_error_eps_re: number }[];
+    expect(fits).toHaveLength(1);
+    expect(fits[0]).toMatchObject({ material: 'm', source_model: 'table' });
+    expect(fits[0].max_rel_error_eps_re).toBeLessThan(1e-3);
+    const rows = r.agreement as { pair: string; within_target?: boolean }[];
+    expect(rows.find((x) => x.pair === 'fem-tmm')?.within_target).toBe(true);
+    expect(rows.find((x) => x.pair === 'fdtd-tmm')?.within_target).toBe(true);
   });
 });
