@@ -83,14 +83,15 @@ interface Component { lag: number; amp: { re: number; im: number } }
  * matched-filter magnitude |c(τ)| (golden-section search; |c| is an envelope, smooth and unimodal
  * within a pulse width), and the least-squares amplitude c(τ)/E.
  */
-function fitOne(Z: Spectrum1, Zi: Spectrum1, nfft: number, energy: number, centre: number, halfRange: number): Component {
+function fitOne(Z: Spectrum1, Zi: Spectrum1, nfft: number, energy: number, centre: number, halfRange: number,
+  work: { bins: number } = { bins: 0 }): Component {
   const m = Zi.re.length;
   const Pre = new Float64Array(m), Pim = new Float64Array(m);
   for (let k = 0; k < m; k++) {
     Pre[k] = Z.re[k] * Zi.re[k] + Z.im[k] * Zi.im[k];
     Pim[k] = Z.im[k] * Zi.re[k] - Z.re[k] * Zi.im[k];
   }
-  const mag = (lag: number) => { const v = correlationAt(Pre, Pim, Zi.k0, nfft, lag); return Math.hypot(v.re, v.im); };
+  const mag = (lag: number) => { work.bins += m; const v = correlationAt(Pre, Pim, Zi.k0, nfft, lag); return Math.hypot(v.re, v.im); };
   const g = (Math.sqrt(5) - 1) / 2;
   let a = centre - halfRange, b = centre + halfRange;
   let x1 = b - g * (b - a), x2 = a + g * (b - a), f1 = mag(x1), f2 = mag(x2);
@@ -105,6 +106,11 @@ function fitOne(Z: Spectrum1, Zi: Spectrum1, nfft: number, energy: number, centr
 
 /** Most sweeps of cyclic re-fitting (each echo re-fitted with all others subtracted). */
 const RELAX_MAX_SWEEPS = 8;
+/**
+ * Re-fitting stops once the fits have evaluated this many spectrum bins (about half a second): with many
+ * overlapping components on a long record the sweeps grow like components² × bins; the greedy fits go on.
+ */
+export const RELAX_WORK_CAP_BINS = 1e8;
 
 export function cleanEchoes(incident: Float64Array, reflected: Float64Array, dt_s: number, o: CleanOptions): CleanEcho[] {
   const n = Math.max(incident.length, reflected.length);
@@ -121,12 +127,14 @@ export function cleanEchoes(incident: Float64Array, reflected: Float64Array, dt_
   const C = { re: new Float64Array(nfft), im: new Float64Array(nfft) };
   const comps: Component[] = [];
   /** RELAX: overlapping tails bias each greedy fit; re-fit every echo with the others removed. */
+  const work = { bins: 0 };
   const relax = () => {
-    for (let sweep = 0; sweep < RELAX_MAX_SWEEPS; sweep++) {
+    for (let sweep = 0; sweep < RELAX_MAX_SWEEPS && work.bins < RELAX_WORK_CAP_BINS; sweep++) {
       let moved = 0;
       for (const comp of comps) {
+        if (work.bins >= RELAX_WORK_CAP_BINS) break;
         addTemplate(Z, Zi, nfft, comp.lag, comp.amp, +1);
-        const f = fitOne(Z, Zi, nfft, energy, comp.lag, range);
+        const f = fitOne(Z, Zi, nfft, energy, comp.lag, range, work);
         moved = Math.max(moved, Math.abs(f.lag - comp.lag));
         comp.lag = f.lag; comp.amp = f.amp;
         addTemplate(Z, Zi, nfft, comp.lag, comp.amp, -1);

@@ -3,7 +3,7 @@
 // Lorentz poles have c = Δε ω0²; a Drude term is a second-order pole with ω0 = 0 and c = ωp².
 // Time dependence e^{+jωt}; each term maps to an auxiliary differential equation (see kernel.ts).
 
-import type { Complex } from '../complex.ts';
+import { type Complex, sqrt } from '../complex.ts';
 import type { BulkModel } from '../materials/types.ts';
 import { EPS0_F_per_m, GHz, ps } from '../units.ts';
 
@@ -67,12 +67,12 @@ export function stepModelPermittivity(m: StepModel, f_Hz: number): Complex {
 
 /** Re √ε (the refractive index that sets the wavelength). */
 export function refractiveIndex(e: Complex): number {
-  return Math.sqrt((Math.hypot(e.re, e.im) + e.re) / 2);
+  return sqrt(e).re;
 }
 
 /** Im-part magnitude of √ε (the attenuation index, ≥ 0). */
 export function extinctionIndex(e: Complex): number {
-  return Math.sqrt(Math.max(0, (Math.hypot(e.re, e.im) - e.re) / 2));
+  return Math.abs(sqrt(e).im);
 }
 
 export const hasPoles = (m: StepModel): boolean => m.debye.length + m.osc.length > 0;

@@ -26,14 +26,23 @@ export function echoColumns(e: EchoTable): EchoColumns {
 /** RFC 4180 quoting for a text field. */
 const quote = (s: string): string => (/[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
 
-/** CSV text: header, then one line per echo. Refuses non-finite numbers (TableError). */
-export function formatEchoesCsv(t: EchoColumns): string {
-  const lines = [[...t.columns.map((c) => c.name), 'path'].join(',')];
+/** The header line of the echoes CSV, with its "\n". */
+export const echoCsvHeader = (t: EchoColumns): string => `${[...t.columns.map((c) => c.name), 'path'].join(',')}\n`;
+
+/** Echo i as one CSV line with its "\n": the numeric columns, then the path (quoted when needed). */
+export const echoCsvRow = (t: EchoColumns, i: number): string =>
+  `${[...t.columns.map((c) => formatNumber(c.data[i])), quote(t.path[i])].join(',')}\n`;
+
+/** The echoes CSV as text chunks (header, then the rows), for streaming. Refuses non-finite numbers (TableError). */
+export function* echoCsvChunks(t: EchoColumns): Generator<string> {
   if (t.path.length > 0) assertTable(t.columns);
-  for (let i = 0; i < t.path.length; i++) {
-    lines.push([...t.columns.map((c) => formatNumber(c.data[i])), quote(t.path[i])].join(','));
-  }
-  return lines.join('\n') + '\n';
+  yield echoCsvHeader(t);
+  for (let i = 0; i < t.path.length; i++) yield echoCsvRow(t, i);
+}
+
+/** CSV text in one string: header, then one line per echo. Refuses non-finite numbers (TableError). */
+export function formatEchoesCsv(t: EchoColumns): string {
+  return [...echoCsvChunks(t)].join('');
 }
 
 /** Delays in ns, for summaries. */

@@ -19,6 +19,8 @@ import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
 import { fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
+import { estimateRun, WorkRefused } from './estimate.ts';
+import { decimationStride } from './output-plan.ts';
 
 export interface RunOptions extends SolveOptions {
   pulse?: PulseOptions;
@@ -48,7 +50,10 @@ const r6 = (x: number): number => Number(x.toPrecision(6));
  */
 export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
   const progress = options.onProgress ?? (() => {});
-  const base = solveReport(stack, { ...options, onProgress: (f) => progress(0.1 * f) });
+  // The estimate (pulse plan, FEM, outputs) before any heavy work; a job it refuses throws WorkRefused here.
+  const job = options.job ?? estimateRun(stack, { fem: options.fem, pulse: options.pulse, budget: options.budget });
+  if (job.refusal !== undefined) throw new WorkRefused(job.refusal);
+  const base = solveReport(stack, { ...options, job, onProgress: (f) => progress(0.1 * f) });
   const stepped = (options.media ?? 'tables') === 'stepped';
   const warnings = [...base.warnings];
   const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
@@ -104,12 +109,13 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const echoes: EchoTable = echoTable(stack, rec);
   const echoes_ms = now() - t1;
 
-  const trace: Column[] = [
-    scaledColumn('t_ns', Float64Array.from({ length: rec.count }, (_, k) => k * rec.dt_s), 1e9),
-    { name: 'E_incident', data: rec.incident.slice() },
-    { name: 'E_reflected', data: rec.reflected.slice() },
-    { name: 'E_transmitted', data: rec.transmitted.slice() },
-  ];
+  // The traces, every stride-th step when all of them would pass the output limit.
+  const stride = decimationStride(rec.count, job.outputs.traceRowsCap ?? Infinity);
+  const trace = traceColumns(rec, stride);
+  if (stride > 1) {
+    warn(`trace.csv holds every ${stride}th time step (${r6(stride * rec.dt_s * 1e12)} ps apart, ${trace[0].data.length} of ${rec.count} samples) ` +
+      `to stay within the output limit (${job.outputs.limitName}); the spectra and echoes use every step`);
+  }
 
   // Agreement rows: fdtd against the exact solution, against the FEM when its columns are there and, when the
   // engine stepped other media than the tables (and the tmm columns are the tables'), the stepped-media split.
@@ -130,6 +136,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     decay_target_dB: -run.plan.decay_dB,
     truncated: run.doneReason !== 'converged',
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
+    trace_every_nth_step: stride,
   };
   summary.power_law_fits = run.plan.fits.map((f) => ({
     material: f.material,
@@ -167,6 +174,18 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   assertFiniteValues(summary);
   progress(1);
   return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: allAgreement, stopped };
+}
+
+/** t_ns and the three records at every `stride`-th step (the first included). */
+function traceColumns(rec: { count: number; dt_s: number; incident: Float64Array; reflected: Float64Array; transmitted: Float64Array }, stride: number): Column[] {
+  const n = Math.ceil(rec.count / stride);
+  const pick = (x: Float64Array) => { const out = new Float64Array(n); for (let i = 0; i < n; i++) out[i] = x[i * stride]; return out; };
+  return [
+    scaledColumn('t_ns', Float64Array.from({ length: n }, (_, k) => k * stride * rec.dt_s), 1e9),
+    { name: 'E_incident', data: pick(rec.incident) },
+    { name: 'E_reflected', data: pick(rec.reflected) },
+    { name: 'E_transmitted', data: pick(rec.transmitted) },
+  ];
 }
 
 function emptyEchoColumns(): Column[] {

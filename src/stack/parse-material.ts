@@ -7,8 +7,9 @@ import type { StackFileMaterial } from './file.ts';
 import { STACK_LIMITS } from './file.ts';
 import { parseTableModel, type TableFileReader } from './parse-table.ts';
 import {
-  describe, has, isRecord, joinIndex, joinKey, own, Problems, readNumber, refuseUnknownKeys, suggest,
+  describe, has, isRecord, joinIndex, joinKey, own, Problems, quoteShort, readNumber, refuseUnknownKeys, suggest,
 } from './problems.ts';
+import { unsafeTextProblem } from './text.ts';
 
 /** Keys each model takes (besides `model`, `valid_GHz`, `note`); optional ones default as noted. */
 const MODEL_KEYS: Record<ModelName, { required: readonly string[]; optional: readonly string[] }> = {
@@ -53,7 +54,7 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
   }
   if (typeof modelValue !== 'string' || !(MODEL_NAMES as readonly string[]).includes(modelValue)) {
     const near = typeof modelValue === 'string' ? suggest(modelValue, MODEL_NAMES) : undefined;
-    p.error(joinKey(path, 'model'), `unknown model ${typeof modelValue === 'string' ? JSON.stringify(modelValue) : describe(modelValue)}${near ? ` (did you mean "${near}"?)` : ''}; one of ${MODEL_NAMES.join(', ')}`);
+    p.error(joinKey(path, 'model'), `unknown model ${typeof modelValue === 'string' ? quoteShort(modelValue) : describe(modelValue)}${near ? ` (did you mean "${near}"?)` : ''}; one of ${MODEL_NAMES.join(', ')}`);
     return undefined;
   }
   const model = modelValue as ModelName;
@@ -138,7 +139,12 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
     const note = def.note;
     if (typeof note !== 'string' || note.length > STACK_LIMITS.maxNoteChars) {
       p.error(joinKey(path, 'note'), `must be text of at most ${STACK_LIMITS.maxNoteChars} characters (got ${describe(note)})`);
-    } else if (out) out.note = note;
+    } else {
+      // A note may run over several lines (tab and line feed pass); other controls are refused.
+      const bad = unsafeTextProblem(note, true);
+      if (bad !== undefined) p.error(joinKey(path, 'note'), bad);
+      else if (out) out.note = note;
+    }
   }
   return p.count === before ? out : undefined;
 }

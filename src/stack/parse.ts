@@ -16,9 +16,10 @@ import { parseMaterialDefinition, readRange } from './parse-material.ts';
 import type { TableFileReader } from './parse-table.ts';
 import { tableCovers, tableRange_GHz } from '../materials/table.ts';
 import {
-  describe, FORBIDDEN_KEYS, has, isRecord, joinIndex, joinKey, own, Problems, readNumber,
+  describe, FORBIDDEN_KEYS, has, isRecord, joinIndex, joinKey, own, Problems, quoteShort, readNumber,
   refuseForbiddenKeys, refuseUnknownKeys, suggest,
 } from './problems.ts';
+import { unsafeTextProblem } from './text.ts';
 import { fmtGHz, stackWarnings } from './warnings.ts';
 
 export type ParseResult =
@@ -109,6 +110,8 @@ function readTitle(p: Problems, o: Record<string, unknown>): string | undefined 
     p.error('title', `must be text of at most ${L.maxTitleChars} characters (got ${describe(t)})`);
     return undefined;
   }
+  const bad = unsafeTextProblem(t);
+  if (bad !== undefined) { p.error('title', bad); return undefined; }
   return t.trim() === '' ? STACK_DEFAULTS.title : t;
 }
 
@@ -180,7 +183,9 @@ function readUserMaterials(p: Problems, o: Record<string, unknown>, band: [numbe
     const path = joinKey('materials', name);
     const def = mats[name];
     defined.set(name, isRecord(def) ? own(def, 'model') : undefined);
-    if (name.trim() === '' || name.length > L.maxNameChars || /[\u0000-\u001f]/.test(name)) {
+    const bad = unsafeTextProblem(name);
+    if (bad !== undefined) { p.error(path, `the material name ${bad}`); continue; }
+    if (name.trim() === '' || name.length > L.maxNameChars) {
       p.error(path, `a material name must be 1 to ${L.maxNameChars} visible characters`);
       continue;
     }
@@ -217,7 +222,7 @@ function unknownName(p: Problems, path: string, name: string, userNames: Readonl
   if (userNames.has(name)) return;
   const candidates = [...catalogNames(), ...userNames.keys(), ...extra];
   const near = suggest(name, candidates);
-  p.error(path, `unknown material "${name.length > 40 ? `${name.slice(0, 40)}…` : name}"${near ? ` (did you mean "${near}"?)` : ''}: ` +
+  p.error(path, `unknown material ${quoteShort(name)}${near ? ` (did you mean "${near}"?)` : ''}: ` +
     'not in the catalog and not defined under "materials"');
 }
 

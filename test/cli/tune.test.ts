@@ -106,7 +106,7 @@ describe('slabecho tune', () => {
     writeFileSync(join(out, 'tune.csv'), 'earlier\n');
     const slow = join(tmp.dir, 'slow.stack.json');
     writeFileSync(slow, JSON.stringify({ ...SCREEN, points: 20001 }));
-    const child = spawn(process.execPath, ['bin/slabecho.mjs', 'tune', slow, ...FREE, '--goal', 'min-worst-R', '--out', out, '--budget', '1000000'],
+    const child = spawn(process.execPath, ['bin/slabecho.mjs', 'tune', slow, ...FREE, '--goal', 'min-worst-R', '--out', out, '--budget', '1000000', '--max-seconds', '1e7', '--max-output-MB', '1000'],
       { stdio: ['ignore', 'pipe', 'pipe'] });
     let stderr = '', sent = false;
     const code = await new Promise<number | null>((resolve) => {
@@ -121,4 +121,17 @@ describe('slabecho tune', () => {
     expect(readdirSync(out)).toEqual(['tune.csv']);
     expect(readFileSync(join(out, 'tune.csv'), 'utf8')).toBe('earlier\n');
   }, 60_000);
+});
+
+describe('slabecho tune: estimates', () => {
+  it('refuses a tuning estimated over --max-seconds or --max-output-MB, before any work', async () => {
+    const out = join(tmp.dir, 'too-big');
+    const slow = await cli('tune', screen, ...FREE, '--goal', 'min-worst-R', '--out', out, '--angle', '0:80:1', '--polarization', 'TE,TM', '--max-seconds', '0.5');
+    expect(slow.code).toBe(2);
+    expect(slow.stderr).toMatch(/this tuning would take about \d+ s of computing \(600 evaluations × 3402 frequencies; limit 0\.5 s, --max-seconds\)/);
+    const big = await cli('tune', screen, ...FREE, '--goal', 'min-worst-R', '--out', out, '--budget', '100000', '--max-output-MB', '0.1', '--max-seconds', '1e6');
+    expect(big.code).toBe(2);
+    expect(big.stderr).toMatch(/tune\.csv would hold about .* limit 0\.1 MB, --max-output-MB/);
+    expect(() => readdirSync(out)).toThrow();
+  });
 });

@@ -6,15 +6,18 @@
 
 import { FdtdInstabilityError, PlanError } from '../../fdtd/errors.ts';
 import type { PulseOptions } from '../../fdtd/types.ts';
-import { formatEchoesCsv } from '../../report/echo-table.ts';
+import { echoCsvChunks } from '../../report/echo-table.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
 import { runReport, type RunReport } from '../../report/run.ts';
-import { formatCsv } from '../../report/table.ts';
+import { csvChunks } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { loadOrExplain, MEDIA_ARG_OPTIONS, MEDIA_ARG_USAGE, mediaFromArgs, writeReport } from './solve.ts';
-import { EXIT_INTERRUPTED, withSigintHeld } from '../signals.ts';
+import { estimateRun, WorkRefused } from '../../report/estimate.ts';
+import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
+import type { WriteOptions } from '../io.ts';
+import { EXIT_INTERRUPTED } from '../signals.ts';
 
 export { EXIT_INTERRUPTED };
 
@@ -30,12 +33,12 @@ export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions
   return out;
 }
 
-/** Write every file of a run report into `dir` at once (atomically); returns the paths. */
-export function writeRunReport(dir: string, report: RunReport): string[] {
+/** Write every file of a run report into `dir` at once (atomically, streamed); returns the paths. */
+export function writeRunReport(dir: string, report: RunReport, options: WriteOptions = {}): string[] {
   return writeReport(dir, report, [
-    { name: 'echoes.csv', text: formatEchoesCsv(report.echoes) },
-    { name: 'trace.csv', text: formatCsv(report.trace) }, // header only when the pulse engine was skipped
-  ]);
+    { name: 'echoes.csv', chunks: echoCsvChunks(report.echoes) },
+    { name: 'trace.csv', chunks: csvChunks(report.trace) }, // header only when the pulse engine was skipped
+  ], options);
 }
 
 /** Progress lines on stderr, the first after one second, then at most one a second. */
@@ -76,8 +79,10 @@ Options:
   --courant S                 Courant number c dt / dx (default 1 in an air front medium)
 ${FEM_ARG_USAGE}
 ${MEDIA_ARG_USAGE}
+${BUDGET_ARG_USAGE}
   -h, --help                  show this help
 
+The work is estimated first (grid, time steps, memory, output): a job over the limits is refused at once.
 Ctrl-C stops the run cleanly: nothing is written (DIR keeps its previous files), exit 130.
 Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 instability or internal error.`,
   async run(args, io) {
@@ -88,6 +93,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       courant: { type: 'string' },
       ...FEM_ARG_OPTIONS,
       ...MEDIA_ARG_OPTIONS,
+      ...BUDGET_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
@@ -95,18 +101,22 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     const pulse = pulseOptionsFromArgs(a.values);
     const fem = femOptionsFromArgs(a.values);
     const media = mediaFromArgs(a.values);
+    const { budget, limitNames } = budgetFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
+    // Before anything heavy: the engine's plan, the FEM's mesh, the outputs, the time and memory they need.
+    const job = estimateRun(stack, { fem, pulse, budget, limitNames });
+    if (job.refusal !== undefined) throw new CliError(`${job.refusal}; nothing was written`, 2);
 
     let interrupted = false;
     const onSigint = () => { interrupted = true; };
     process.once('SIGINT', onSigint);
     let report: RunReport;
     try {
-      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, onProgress: progressPrinter(io), shouldStop: () => interrupted });
+      report = await runReport(stack, { inputWarnings: warnings, fem, pulse, media, job, onProgress: progressPrinter(io), shouldStop: () => interrupted });
     } catch (e) {
       // The message says what is too big, by how much and what to change; the figures stay in the error.
-      if (e instanceof PlanError) throw new CliError(`${e.message}; nothing was written`, 2);
+      if (e instanceof PlanError || e instanceof WorkRefused) throw new CliError(`${e.message}; nothing was written`, 2);
       if (e instanceof FdtdInstabilityError) throw new CliError(`${e.message}; nothing was written`, 1);
       throw e;
     } finally {
@@ -117,7 +127,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       return EXIT_INTERRUPTED;
     }
     for (const w of report.warnings) io.err(`warning: ${w}`);
-    const written = withSigintHeld(() => writeRunReport(out, report));
+    const written = writeRunReport(out, report, { maxBytes: budget.maxOutput_bytes, limitName: limitNames.output });
     io.out(`${stack.title}: ${stack.layers.length} layer${stack.layers.length === 1 ? '' : 's'}, ` +
       `${fmtGHz(stack.band_Hz[0] / 1e9)}–${fmtGHz(stack.band_Hz[1] / 1e9)} GHz, ${stack.points} points`);
     if (!report.skipped) {

@@ -15,10 +15,12 @@ import {
   parseAngles, parseFree, parsePolarizations, refuseClashes, TuneSetupError, type FreeParameter,
 } from '../../tune/stack-access.ts';
 import { runTune, type TuneSetup } from '../../tune/tune.ts';
+import { DEFAULT_BUDGET, plainBytes, plainDuration, type WorkBudget } from '../../report/budget.ts';
+import { estimateTune } from '../../tune/estimate.ts';
+import { BUDGET_ARG_OPTIONS, budgetFromArgs } from '../budget-args.ts';
 import { InputError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
-import { readTextFile } from '../io.ts';
-import { EXIT_INTERRUPTED, watchInterrupt, withSigintHeld } from '../signals.ts';
-import { OutputSet } from '../studies/output.ts';
+import { ensureDir, readTextFile, textFile, writeFilesAtomic } from '../io.ts';
+import { EXIT_INTERRUPTED, watchInterrupt } from '../signals.ts';
 import { loadOrExplain } from './solve.ts';
 
 /** Default budget: evaluations per free parameter (the global and local stages together). */
@@ -54,6 +56,9 @@ Options:
   --seed N               seed of the start set (a whole number, default 1): the same seed, the same search
   --budget N             evaluations for the search (default ${BUDGET_PER_PARAMETER.search} per free path, ${BUDGET_PER_PARAMETER.match} for match; the
                          final Jacobian of match adds up to 2 per free path)
+  --max-seconds S        refuse a tuning estimated (before any work, from the exact solver's nominal speed) to
+                         take longer than S seconds (default ${DEFAULT_BUDGET.maxSeconds})
+  --max-output-MB M      the files written may total at most M megabytes (default ${DEFAULT_BUDGET.maxOutput_bytes / 1e6})
   -h, --help             show this help
 
 Progress goes to stderr. Ctrl-C stops the search: nothing is written (DIR keeps its previous files), exit 130.
@@ -69,6 +74,7 @@ export const tune: Command = {
     const a = readArgs(tune, args, io, {
       out: { type: 'string' }, free: { type: 'string', multiple: true }, goal: { type: 'string' },
       angle: { type: 'string' }, polarization: { type: 'string' }, seed: { type: 'string' }, budget: { type: 'string' },
+      ...BUDGET_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
@@ -79,7 +85,9 @@ export const tune: Command = {
     const path = a.positionals[0];
     const { file, stack } = loadOrExplain(path, io);
     const setup = asUsage(() => setupFromArgs(a.values, file, stack, freeTexts, io));
-    return runAndWrite(setup, out, io);
+    const limits = budgetFromArgs(a.values);
+    refuseOversized(setup, stack, limits.budget, limits.limitNames, io);
+    return runAndWrite(setup, out, io, limits);
   },
 };
 
@@ -122,6 +130,21 @@ function setupFromArgs(values: ParsedArgs['values'], file: StackFile, stack: Sta
   return { file, free, goal, goalText, seed, budget };
 }
 
+/** A tuning estimated over --max-seconds or --max-output-MB is refused before it starts, saying what to change. */
+function refuseOversized(setup: TuneSetup, stack: Stack, budget: WorkBudget, names: { output?: string; seconds?: string }, io: Io): void {
+  const e = estimateTune(stack, setup.goal, setup.budget, setup.free.length);
+  const what = `${e.evaluations} evaluations × ${e.frequencies} frequencies`;
+  io.err(`tune: ${what}, estimated ${plainDuration(e.seconds)}`);
+  if (e.seconds > budget.maxSeconds) {
+    throw new InputError(`this tuning would take ${plainDuration(e.seconds)} of computing (${what}; limit ${names.seconds}): ` +
+      'lower --budget, the stack\'s "points" or the number of angles and polarizations, or raise --max-seconds; nothing was computed or written');
+  }
+  if (e.csv_bytes > budget.maxOutput_bytes) {
+    throw new InputError(`tune.csv would hold about ${plainBytes(e.csv_bytes)} (a row per evaluation; limit ${names.output}): ` +
+      'lower --budget or raise --max-output-MB; nothing was computed or written');
+  }
+}
+
 /** Progress on stderr, at most one line per PROGRESS_EVERY_MS. */
 function progressPrinter(io: Io, setup: TuneSetup): (p: SearchProgress) => void {
   let last = 0;
@@ -134,7 +157,7 @@ function progressPrinter(io: Io, setup: TuneSetup): (p: SearchProgress) => void 
   };
 }
 
-async function runAndWrite(setup: TuneSetup, out: string, io: Io): Promise<number> {
+async function runAndWrite(setup: TuneSetup, out: string, io: Io, limits: ReturnType<typeof budgetFromArgs>): Promise<number> {
   const cases = setup.goal.name === 'match' ? 1 : setup.goal.cases.length;
   io.err(`tune: ${setup.free.length} free path${setup.free.length === 1 ? '' : 's'}, goal ${setup.goalText}, ${cases} case${cases === 1 ? '' : 's'}, budget ${setup.budget}, seed ${setup.seed}`);
   const interrupt = watchInterrupt();
@@ -148,12 +171,12 @@ async function runAndWrite(setup: TuneSetup, out: string, io: Io): Promise<numbe
     interrupt.dispose();
   }
   if (outcome.stopped || interrupt.interrupted()) { io.err('slabecho tune: stopped (Ctrl-C); nothing was written'); return EXIT_INTERRUPTED; }
-  const output = new OutputSet(out);
-  const csv = output.stream('tune.csv');
-  for (const chunk of outcome.csv()) csv.write(chunk);
-  output.add('tuned.stack.json', studyJson(outcome.tunedFile));
-  output.add('tune.json', studyJson(outcome.summary));
-  const written = withSigintHeld(() => output.commit());
+  ensureDir(out);
+  const written = writeFilesAtomic(out, [
+    textFile('tuned.stack.json', studyJson(outcome.tunedFile)),
+    { name: 'tune.csv', chunks: outcome.csv() },
+    textFile('tune.json', studyJson(outcome.summary)),
+  ], { maxBytes: limits.budget.maxOutput_bytes, limitName: limits.limitNames.output });
   printResult(io, setup, outcome.summary);
   io.out(`wrote ${written.join(', ')}`);
   return 0;
