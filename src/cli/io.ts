@@ -5,12 +5,13 @@
 // File-system errors are told in plain words with the path the user gave (never a temporary file's name).
 
 import {
-  closeSync, fsyncSync, mkdirSync, openSync, readFileSync, renameSync, rmSync, statSync, unlinkSync, writeSync,
+  closeSync, fsyncSync, mkdirSync, openSync, readFileSync, realpathSync, renameSync, rmSync, statSync, unlinkSync, writeSync,
 } from 'node:fs';
 import { randomBytes } from 'node:crypto';
-import { basename, dirname, join, resolve } from 'node:path';
+import { basename, dirname, isAbsolute, join, relative, resolve, sep } from 'node:path';
 import { STACK_LIMITS } from '../stack/file.ts';
 import { parseStackText, type ParseResult } from '../stack/parse.ts';
+import type { TableFileReader } from '../stack/parse-table.ts';
 import { InputError } from './command.ts';
 import { withSigintHeld } from './signals.ts';
 
@@ -73,9 +74,50 @@ export function readStackFile(path: string): string {
   }
 }
 
+/** The UTF-8 text of a file named on the command line (`what` names it in messages); InputError (exit 2) otherwise. */
+export function readTextFile(path: string, what: string, maxBytes: number): string {
+  let bytes: Buffer;
+  try {
+    const st = fsOps.statSync(path);
+    if (st.isDirectory()) throw new InputError(`${what} ${path}: is a directory, not a file`);
+    if (st.size > maxBytes) throw new InputError(`${what} ${path}: ${st.size} bytes is over the ${maxBytes / 1e6} MB limit`);
+    bytes = fsOps.readFileSync(path);
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    throw new InputError(`${what} ${path}: ${fsReason(e)}`);
+  }
+  try { return new TextDecoder('utf-8', { fatal: true }).decode(bytes); } catch {
+    throw new InputError(`${what} ${path}: not UTF-8 text`);
+  }
+}
+
 /** Read and validate a stack file. Problems are returned (not thrown) so every one can be listed. */
 export function loadStackFile(path: string): ParseResult {
-  return parseStackText(readStackFile(path));
+  return parseStackText(readStackFile(path), { readTableFile: tableFileReader(dirname(path)) });
+}
+
+/**
+ * Reads a table material's `file` relative to the stack file's folder. A name that leads outside that folder
+ * (an absolute path, "..", or a link pointing out) is refused: a stack file names only what lies beside it.
+ */
+export function tableFileReader(folder: string): TableFileReader {
+  return (name) => {
+    if (isAbsolute(name)) return { ok: false, error: `"${name}" is an absolute path; name a file beside the stack file, relative to its folder` };
+    let root: string, real: string;
+    try { root = realpathSync(folder); } catch (e) { return { ok: false, error: `the stack file's folder ${folder}: ${fsReason(e)}` }; }
+    const outside = (p: string) => { const r = relative(root, p); return r === '..' || r.startsWith(`..${sep}`) || isAbsolute(r); };
+    if (outside(resolve(root, name))) return { ok: false, error: `"${name}" lies outside the stack file's folder; put the table beside the stack file (or in a folder under it)` };
+    try { real = realpathSync(resolve(root, name)); } catch (e) { return { ok: false, error: `"${name}": ${fsReason(e)} beside the stack file` }; }
+    if (outside(real)) return { ok: false, error: `"${name}" is a link to a file outside the stack file's folder; copy the table beside the stack file` };
+    try {
+      const st = fsOps.statSync(real);
+      if (st.isDirectory()) return { ok: false, error: `"${name}" is a directory, not a CSV file` };
+      if (st.size > STACK_LIMITS.maxTextBytes) return { ok: false, error: `"${name}": ${st.size} bytes is over the ${STACK_LIMITS.maxTextBytes / 1e6} MB limit for a table file` };
+      return { ok: true, text: new TextDecoder('utf-8', { fatal: true }).decode(fsOps.readFileSync(real)) };
+    } catch (e) {
+      return { ok: false, error: e instanceof TypeError ? `"${name}": not UTF-8 text (a table file is CSV text)` : `"${name}": ${fsReason(e)}` };
+    }
+  };
 }
 
 /** What is at `p`: 'dir', 'other', 'none' (nothing there), or the error that stopped us looking. */

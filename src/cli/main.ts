@@ -13,6 +13,7 @@ import { bench } from './commands/bench.ts';
 import { sweep } from './commands/sweep.ts';
 import { tolerance } from './commands/tolerance.ts';
 import { merge } from './commands/merge.ts';
+import { tune } from './commands/tune.ts';
 import { provideCliStepModule } from './step-module.ts';
 
 import { studyWorkerMain } from './studies/worker.ts';
@@ -33,6 +34,7 @@ export const COMMANDS: readonly Command[] = [
   sweep,
   tolerance,
   merge,
+  tune,
   converge,
   bench,
 ];

@@ -2,13 +2,13 @@
 // or a resistive sheet (thin film), warnings saying so. Fits are cached per stack (a fit is a small linear
 // program; a stack planned twice, as the command line does to refuse oversized runs early, fits once).
 
-import { isNonMagnetic } from '../materials/permeability.ts';
+import { isNonMagneticMaterial } from '../materials/permeability.ts';
 import { effectiveConductivity, permittivity } from '../materials/permittivity.ts';
 import type { BulkModel } from '../materials/types.ts';
 import type { BulkMaterial, Stack } from '../stack/types.ts';
 import { MU0_H_per_m } from '../units.ts';
 import { PlanError } from './errors.ts';
-import { type PowerLawFit, fitPowerLaw } from './fit-power-law.ts';
+import { type PowerLawFit, fitPermittivity, powerLawTarget, tableTarget } from './fit-power-law.ts';
 import { type StepModel, stepModelOf } from './media.ts';
 import { probeWeights } from './probe-weights.ts';
 import type { EffectiveStack, GridSegment, GridSheet } from './types.ts';
@@ -40,8 +40,9 @@ export function fitWarnings(fits: readonly PowerLawFit[]): string[] {
     const negative = f.minEpsRe_wide < 1;
     if (!high && !negative) continue;
     const below = negative ? `; ε' falls to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top` : '';
+    const why = f.source === 'table' ? 'a measured table is not a model the engine steps' : 'a power law is not causal';
     out.push(
-      `material "${f.material}": stepped by the pulse engine as a fitted causal model (a power law is not causal); ` +
+      `material "${f.material}": stepped by the pulse engine as a fitted causal model (${why}); ` +
       `its worst error over the band is ${(100 * f.maxRelErr_re).toFixed(2)} % in ε' and ${(100 * f.maxRelErr_im).toFixed(2)} % in ε''${below} ` +
       '(the fit favours the frequencies whose waves reach the probes). The agreement row "stepped media-tmm" shows what this does to R and T.',
     );
@@ -75,17 +76,18 @@ function resolveUncached(stack: Stack): Resolved {
   const models = new Map<string, StepModel>();
   const modelOf = (mat: BulkMaterial): StepModel => {
     const spec = mat.spec;
-    if (spec.model !== 'power-law') return stepModelOf(spec);
-    const key = `${mat.name}|${spec.a}|${spec.b}|${spec.c}|${spec.d}`;
+    if (spec.model !== 'power-law' && spec.model !== 'table') return stepModelOf(spec);
+    const key = `${mat.name}|${JSON.stringify(spec)}`;
     const hit = models.get(key);
     if (hit) return hit;
-    const fit = fitPowerLaw(spec, band, mat.name, { probeWeight: probeWeights(stack, mat.name) });
+    const target = spec.model === 'table' ? tableTarget(spec) : powerLawTarget(spec);
+    const fit = fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name) });
     fits.push(fit);
     models.set(key, fit.model);
     return fit.model;
   };
   const magnetic = [stack.front, ...stack.layers.map((l) => l.material), ...(stack.back === 'pec' ? [] : [stack.back])]
-    .find((m) => m.spec.model !== 'sheet' && !isNonMagnetic(m.spec.magnetic));
+    .find((m) => m.spec.model !== 'sheet' && !isNonMagneticMaterial(m.spec));
   if (magnetic !== undefined) {
     throw new PlanError(`materials: "${magnetic.name}" is magnetic (μ_r ≠ 1), which the pulse engine does not step yet; use the exact solver and the FEM`, 'unsupported');
   }

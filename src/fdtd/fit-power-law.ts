@@ -1,31 +1,52 @@
-// Fit an ITU-R P.2040 power-law material (ε' = a f^b, σ = c f^d, f in GHz) with a causal model the kernel
-// can step:  ε∞ − jσ/(ωε0) + Σ c_k/(ω_k² − ω² + jωγ_k), every coefficient ≥ 0, ε∞ ≥ 1.
+// Fit a sampled permittivity — an ITU-R P.2040 power law (ε' = a f^b, σ = c f^d, f in GHz) or a measured table —
+// with a causal model the kernel can step:  ε∞ − jσ/(ωε0) + Σ c_k/(ω_k² − ω² + jωγ_k), every coefficient ≥ 0,
+// ε∞ ≥ 1. The target is any ε(f) with the range where it has values (a table's rows; a power law has any).
 // Each term is passive (its ε'' ≥ 0 at every frequency), so the sum is passive and obeys Kramers–Kronig
 // (common practice, no source). Heavily damped terms (Q ≪ 1) act as Debye relaxations, lightly damped ones
 // above the band let ε' rise with frequency as the table's flat ε' with falling ε'' needs, and with no
 // Drude term (ω_k = 0) the only static conductivity is σ, which is capped at the table's own σ at the
-// bottom of the fitted range: the fit invents no DC conduction the table lacks.
+// bottom of the fitted range (σ_eff = ωε0ε'' there): the fit invents no DC conduction the table lacks.
 //
 // The fit is a linear program (simplex.ts): minimize t subject to
 //   w'(f)·|ε'_fit − ε'|/ε' ≤ t  and  w''(f)·|ε''_fit − ε''|/ε'' ≤ t   (ε' and ε'' separately),
 //   ε'_fit ≥ 1 from half the band's bottom to twice its top,  σ ≤ σ_table(bottom of the fitted range),
-// over the band and the pulse's spectral support around it (weights there fall with the pulse's content,
-// gentler than in the band). The weights say how much R and T at the probes move for a relative change
+// over the band and the pulse's spectral support around it, as far as the target has values (weights there
+// fall with the pulse's content, gentler than in the band). The weights say how much R and T at the probes move for a relative change
 // of ε' and of ε'' at f (`probeWeight`, from the stack: a wall that swallows a wave does not make its
 // depth matter), floored so neither part is ignored. Kramers–Kronig forbids a flat ε' with a falling ε'',
-// so a residue remains; it is reported beside the results (worst errors over the band).
+// so for a power law a residue remains; a measured table is fitted as closely as its own causality allows.
+// Either way the residue is reported beside the results (worst errors over the band).
 
-import type { PowerLawModel } from '../materials/types.ts';
+import type { Complex } from '../complex.ts';
+import type { PowerLawModel, TableModel } from '../materials/types.ts';
 import { permittivity } from '../materials/permittivity.ts';
+import { tableInterpolant } from '../materials/table.ts';
 import { EPS0_F_per_m } from '../units.ts';
 import type { StepModel } from './media.ts';
 import { stepModelPermittivity } from './media.ts';
 import { pulseForBand, pulseSpectrumRelative, type PulseShape } from './pulse.ts';
 import { minimizeLp } from './simplex.ts';
 
+/** What a fit approximates: ε_r(f) where it has values. */
+export interface FitTarget {
+  /** The model the numbers come from. */
+  source: 'power-law' | 'table';
+  /** ε_r = ε' − jε'' at f_Hz as {re: ε', im: −ε''} (f inside `range_Hz`). */
+  eps: (f_Hz: number) => Complex;
+  /** Frequencies with values (a table's rows), or null for any. */
+  range_Hz: [number, number] | null;
+}
+
+export const powerLawTarget = (pl: PowerLawModel): FitTarget => ({ source: 'power-law', eps: (f) => permittivity(pl, f), range_Hz: null });
+export const tableTarget = (t: TableModel): FitTarget =>
+  ({ source: 'table', eps: (f) => permittivity(t, f), range_Hz: [...tableInterpolant(t.points).range_Hz] as [number, number] });
+
+/** A fitted causal model (the name says where fits began; tables are fitted the same way). */
 export interface PowerLawFit {
   /** Material name (as the stack names it). */
   material: string;
+  /** The model fitted. */
+  source: FitTarget['source'];
   band_Hz: [number, number];
   model: StepModel;
   /** max |ε'_fit − ε'| / ε' over the band. */
@@ -85,14 +106,20 @@ interface Sample { f: number; w: number; re: number; im: number }
 const logspace = (a: number, b: number, n: number): number[] =>
   n <= 1 ? [a] : Array.from({ length: n }, (_, i) => a * Math.pow(b / a, i / (n - 1)));
 
-/** Band and out-of-band samples with their base weights (1 in the band, falling with the pulse outside). */
-function samples(pl: PowerLawModel, band: [number, number], pulse: PulseShape): { list: Sample[]; range: [number, number] } {
+/**
+ * Band and out-of-band samples with their base weights (1 in the band, falling with the pulse outside), within
+ * the target's range.
+ */
+function samples(target: FitTarget, band: [number, number], pulse: PulseShape): { list: Sample[]; range: [number, number] } {
   const [f1, f2] = band;
   const edge = Math.min(pulseSpectrumRelative(pulse, f1), pulseSpectrumRelative(pulse, f2));
   const peak = pulseSpectrumRelative(pulse, pulse.f0_Hz);
+  const [loLimit, hiLimit] = target.range_Hz ?? [0, Infinity];
   let lo = f1, hi = f2;
   while (lo > f1 * SUPPORT_LOW_LIMIT && pulseSpectrumRelative(pulse, lo / 1.05) > SUPPORT_LEVEL * peak) lo /= 1.05;
   while (hi < f2 * SUPPORT_HIGH_LIMIT && pulseSpectrumRelative(pulse, hi * 1.05) > SUPPORT_LEVEL * peak) hi *= 1.05;
+  lo = Math.min(f1, Math.max(lo, loLimit));
+  hi = Math.max(f2, Math.min(hi, hiLimit));
   const fs: { f: number; w: number }[] = [];
   const decades = (a: number, b: number) => Math.log10(b / a);
   const nBand = Math.max(BAND_MIN_SAMPLES, Math.ceil(BAND_SAMPLES_PER_DECADE * decades(f1, f2)));
@@ -110,7 +137,7 @@ function samples(pl: PowerLawModel, band: [number, number], pulse: PulseShape): 
   if (lo < f1) outside(lo, f1, false);
   if (hi > f2) outside(f2, hi, true);
   const list = fs.map(({ f, w }) => {
-    const e = permittivity(pl, f);
+    const e = target.eps(f);
     return { f, w, re: e.re, im: -e.im };
   });
   return { list, range: [lo, hi] };
@@ -143,13 +170,18 @@ function columns(terms: Term[], w: number, outRe: Float64Array, outIm: Float64Ar
   }
 }
 
-export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', options: FitOptions = {}): PowerLawFit {
+/** The fit of a power law (see fitPermittivity). */
+export const fitPowerLaw = (pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', options: FitOptions = {}): PowerLawFit =>
+  fitPermittivity(powerLawTarget(pl), band_Hz, material, options);
+
+/** The causal fit of the header comment to `target` over `band_Hz` (inside the target's range). */
+export function fitPermittivity(target: FitTarget, band_Hz: [number, number], material: string, options: FitOptions = {}): PowerLawFit {
   const [f1, f2] = band_Hz;
-  const { list, range } = samples(pl, band_Hz, options.pulse ?? pulseForBand(band_Hz));
+  const { list, range } = samples(target, band_Hz, options.pulse ?? pulseForBand(band_Hz));
   const terms = dictionary(range);
   const weights = errorWeights(list, options.probeWeight);
-  // σ ≤ σ of the table at the bottom of the fitted range (no invented DC conduction).
-  const sigmaMax = Math.max(0, pl.c * Math.pow(range[0] / 1e9, pl.d));
+  // σ ≤ the target's effective conductivity ωε0ε'' at the bottom of the fitted range (no invented DC conduction).
+  const sigmaMax = Math.max(0, -target.eps(range[0]).im * 2 * Math.PI * range[0] * EPS0_F_per_m);
   // ε' ≥ 1: imposed at fixed points, then (cutting planes) wherever the fit still dips below 1.
   const checks = logspace(f1 / 2, 2 * f2, EPS_RE_CHECKS);
   let model = solveFit(list, weights, terms, checks, sigmaMax);
@@ -159,7 +191,7 @@ export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], materi
     checks.push(...dips);
     model = solveFit(list, weights, terms, checks, sigmaMax);
   }
-  return { material, band_Hz: [f1, f2], model, ...fitErrors(pl, model, band_Hz), fitRange_Hz: range };
+  return { material, source: target.source, band_Hz: [f1, f2], model, ...fitErrors(target, model, band_Hz), fitRange_Hz: range };
 }
 
 /** Weights on the relative errors of ε' and ε'': the probes' sensitivity, floored, times the sample's base weight. */
@@ -238,13 +270,14 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
 }
 
 /** Worst relative errors over the band and the smallest ε' from half its bottom to twice its top. */
-export function fitErrors(pl: PowerLawModel, model: StepModel, band: [number, number]): Omit<PowerLawFit, 'material' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
+export function fitErrors(target: FitTarget, model: StepModel, band: [number, number]):
+  Omit<PowerLawFit, 'material' | 'source' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
   const [f1, f2] = band;
   let eRe = 0, eIm = 0, eAbs = 0;
   for (let i = 0; i < CHECK_POINTS; i++) {
     // Linear and logarithmic spacing (a wide band's bottom decade gets points too).
     for (const f of [f1 + ((f2 - f1) * i) / (CHECK_POINTS - 1), f1 * Math.pow(f2 / f1, i / (CHECK_POINTS - 1))]) {
-      const t = permittivity(pl, f), g = stepModelPermittivity(model, f);
+      const t = target.eps(f), g = stepModelPermittivity(model, f);
       eRe = Math.max(eRe, Math.abs(g.re - t.re) / Math.abs(t.re));
       if (t.im !== 0) eIm = Math.max(eIm, Math.abs(g.im - t.im) / Math.abs(t.im));
       eAbs = Math.max(eAbs, Math.hypot(g.re - t.re, g.im - t.im) / Math.hypot(t.re, t.im));

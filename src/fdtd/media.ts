@@ -20,8 +20,8 @@ export interface StepModel {
 
 export const stepModelFixed = (eps_r: number, sigma = 0): StepModel => ({ epsInf: eps_r, sigma, debye: [], osc: [] });
 
-/** The step model of a bulk model that needs no fitting (everything except power-law). */
-export function stepModelOf(m: Exclude<BulkModel, { model: 'power-law' }>): StepModel {
+/** The step model of a bulk model that needs no fitting (everything except power-law and table). */
+export function stepModelOf(m: Exclude<BulkModel, { model: 'power-law' | 'table' }>): StepModel {
   switch (m.model) {
     case 'fixed':
       return stepModelFixed(m.eps_r, m.sigma_S_per_m);

@@ -171,6 +171,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   };
   summary.power_law_fits = run.plan.fits.map((f) => ({
     material: f.material,
+    source_model: f.source,
     band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
     max_rel_error_eps_re: r3(f.maxRelErr_re),
     max_rel_error_eps_im: r3(f.maxRelErr_im),

@@ -5,6 +5,7 @@ import type { DebyePole, LorentzPole, MagneticModel, MagneticModelName, Material
 import { MAGNETIC_MODEL_NAMES, MODEL_NAMES } from '../materials/types.ts';
 import type { StackFileMaterial } from './file.ts';
 import { STACK_LIMITS } from './file.ts';
+import { parseTableModel, type TableFileReader } from './parse-table.ts';
 import {
   describe, has, isRecord, joinIndex, joinKey, own, Problems, quoteShort, readNumber, refuseUnknownKeys, suggest,
 } from './problems.ts';
@@ -17,6 +18,7 @@ const MODEL_KEYS: Record<ModelName, { required: readonly string[]; optional: rea
   lorentz: { required: ['eps_inf', 'poles'], optional: ['sigma_S_per_m'] },
   drude: { required: ['eps_inf', 'plasma_GHz', 'collision_GHz'], optional: ['sigma_S_per_m'] },
   'power-law': { required: ['a', 'b', 'c', 'd'], optional: [] },
+  table: { required: [], optional: ['points', 'mu_points', 'file'] }, // points or file: parse-table.ts
   sheet: { required: ['ohm_per_sq'], optional: [] },
 };
 const COMMON_KEYS = ['model', 'valid_GHz', 'note'] as const;
@@ -34,11 +36,12 @@ const atLeast = (lo: number) => (x: number) => x >= lo;
 const above = (lo: number) => (x: number) => x > lo;
 
 /**
- * Validate `def` at `path`; `band_GHz` (when valid) is used for checks that depend on the band.
+ * Validate `def` at `path`; `band_GHz` (when valid) is used for checks that depend on the band, and
+ * `readTableFile` (when given) reads a table material's `file`.
  * Returns the normalized definition (defaults filled in), or undefined if it has problems.
  */
 export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
-  band_GHz: [number, number] | undefined): StackFileMaterial | undefined {
+  band_GHz: [number, number] | undefined, readTableFile?: TableFileReader): StackFileMaterial | undefined {
   if (!isRecord(def)) {
     p.error(path, `must be an object such as {"model": "fixed", "eps_r": 4} (got ${describe(def)})`);
     return undefined;
@@ -113,6 +116,9 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
       if (a !== undefined && b !== undefined && c !== undefined && d !== undefined) spec = { model, a, b, c, d };
       break;
     }
+    case 'table':
+      spec = parseTableModel(p, def, path, band_GHz, readTableFile);
+      break;
     case 'sheet': {
       const ohm_per_sq = num('ohm_per_sq', 'a number > 0', above(0));
       if (ohm_per_sq !== undefined) spec = { model, ohm_per_sq };

@@ -4,6 +4,7 @@ import { CATALOG, CATALOG_EDITION, CATALOG_ROWS, catalogNames, catalogRanges, pi
 import { suggest } from '../../stack/problems.ts';
 import { effectiveConductivity, permittivity } from '../../materials/permittivity.ts';
 import { permeability } from '../../materials/permeability.ts';
+import { tableRange_GHz } from '../../materials/table.ts';
 import type { MagneticModel, Material, MaterialModel } from '../../materials/types.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import type { Command, Io } from '../command.ts';
@@ -61,6 +62,10 @@ function permittivityText(s: MaterialModel): string {
     case 'debye': return `ε∞=${s.eps_inf} ${s.poles.map((p) => `Δε=${p.delta_eps} τ=${p.tau_ps}ps`).join(' ')}${s.sigma_S_per_m ? ` σ=${s.sigma_S_per_m}` : ''}`;
     case 'lorentz': return `ε∞=${s.eps_inf} ${s.poles.map((p) => `Δε=${p.delta_eps} f0=${p.f0_GHz} γ=${p.gamma_GHz}GHz`).join(' ')}`;
     case 'drude': return `ε∞=${s.eps_inf} fp=${s.plasma_GHz} fc=${s.collision_GHz}GHz`;
+    case 'table': {
+      const [a, b] = tableRange_GHz(s.points);
+      return `${s.points.length} rows ${a}–${b} GHz${s.mu_points ? `, μ: ${s.mu_points.length} rows` : ''}`;
+    }
     case 'sheet': return `${s.ohm_per_sq} Ω/sq`;
   }
 }
