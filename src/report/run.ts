@@ -5,7 +5,7 @@
 import { type Complex, exp, mul, add } from '../complex.ts';
 import { analyseEchoes, type EchoAnalysis, type EchoEnvelopes, type EchoOptions } from '../echoes/table.ts';
 import { PlanError } from '../fdtd/errors.ts';
-import { createPulseRun, runToEnd } from '../fdtd/run.ts';
+import { createPulseRun, createRunOfPlan, runToEnd } from '../fdtd/run.ts';
 import type { GridPlan, PulseOptions, PulseRun, PulseRunRecords } from '../fdtd/types.ts';
 import type { Profile, Spectrum } from '../results.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
@@ -76,7 +76,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const stepped = (options.media ?? 'tables') === 'stepped';
   let run: PulseRun;
   try {
-    run = createPulseRun(stack, options.pulse);
+    // The estimate planned the grid with the same options: step that plan rather than plan again.
+    run = job.grid !== null ? createRunOfPlan(stack.band_Hz, job.grid, { engine: options.pulse?.engine }) : createPulseRun(stack, options.pulse);
   } catch (e) {
     if (e instanceof PlanError && e.code === 'unsupported') {
       const base = await solved;
