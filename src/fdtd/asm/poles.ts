@@ -21,16 +21,16 @@ import {
   const nd = <i32>word(G, Q_ND), dc = word(G, Q_D_COEF), no = <i32>word(G, Q_NO), oc = word(G, Q_O_COEF);
   let sum = f64x2.splat(0);
   let sp = word(G, Q_D_STATE) + (<usize>(p * nd) << 4);
-  for (let q = 0; q < nd; q++, sp += 16) {
-    const c = dc + (<usize>(3 * q) << 3);
+  const dEnd = dc + (<usize>(3 * nd) << 3);
+  for (let c = dc; c < dEnd; c += 24, sp += 16) {
     const bE = f64x2.mul(v128.load64_splat(c + 16), fE);
     const P = f64x2.add(v128.load(sp), bE);
     sum = f64x2.add(sum, f64x2.mul(v128.load64_splat(c + 8), P));
     v128.store(sp, f64x2.add(f64x2.mul(v128.load64_splat(c), P), bE));
   }
-  let so = word(G, Q_O_STATE) + (<usize>(p * no) << 5);
-  for (let q = 0; q < no; q++, so += 32) {
-    const c = oc + (<usize>(3 * q) << 3);
+  let so = word(G, Q_O_STATE) + (<usize>(p * no) << 5), c = oc;
+  const end = c + (<usize>(3 * no) << 3);
+  for (; c < end; c += 24, so += 32) {
     const z = v128.load64_splat(c + 16);
     const P = f64x2.add(v128.load(so), f64x2.mul(z, fE));
     const partial = f64x2.add(
@@ -41,6 +41,46 @@ import {
     v128.store(so + 16, P);
   }
   return sum;
+}
+
+/** The second pair's terms from quadPoles. */
+let quadSecond: v128 = f64x2.splat(0);
+
+/**
+ * pairPoles for pairs p and p + 1 at once (each pole's coefficients loaded once for four nodes, two independent
+ * chains for the processor to overlap): returns pair p's terms, leaves pair p + 1's in quadSecond.
+ */
+// @ts-ignore: decorator
+@inline function quadPoles(G: usize, p: i32, fEa: v128, fE2a: v128, fEb: v128, fE2b: v128): v128 {
+  const nd = <i32>word(G, Q_ND), dc = word(G, Q_D_COEF), no = <i32>word(G, Q_NO), oc = word(G, Q_O_COEF);
+  let sa = f64x2.splat(0), sb = f64x2.splat(0);
+  let pa = word(G, Q_D_STATE) + (<usize>(p * nd) << 4), pb = pa + (<usize>nd << 4);
+  const dEnd = dc + (<usize>(3 * nd) << 3);
+  for (let c = dc; c < dEnd; c += 24, pa += 16, pb += 16) {
+    const a = v128.load64_splat(c), oma = v128.load64_splat(c + 8), b = v128.load64_splat(c + 16);
+    const bEa = f64x2.mul(b, fEa), bEb = f64x2.mul(b, fEb);
+    const Pa = f64x2.add(v128.load(pa), bEa), Pb = f64x2.add(v128.load(pb), bEb);
+    sa = f64x2.add(sa, f64x2.mul(oma, Pa));
+    sb = f64x2.add(sb, f64x2.mul(oma, Pb));
+    v128.store(pa, f64x2.add(f64x2.mul(a, Pa), bEa));
+    v128.store(pb, f64x2.add(f64x2.mul(a, Pb), bEb));
+  }
+  let ua = word(G, Q_O_STATE) + (<usize>(p * no) << 5), ub = ua + (<usize>no << 5);
+  const oEnd = oc + (<usize>(3 * no) << 3);
+  for (let c = oc; c < oEnd; c += 24, ua += 32, ub += 32) {
+    const al = v128.load64_splat(c), xi = v128.load64_splat(c + 8), z = v128.load64_splat(c + 16);
+    const Pa = f64x2.add(v128.load(ua), f64x2.mul(z, fEa)), Pb = f64x2.add(v128.load(ub), f64x2.mul(z, fEb));
+    const qa = f64x2.add(f64x2.add(f64x2.mul(al, Pa), f64x2.mul(xi, v128.load(ua + 16))), f64x2.mul(z, fE2a));
+    const qb = f64x2.add(f64x2.add(f64x2.mul(al, Pb), f64x2.mul(xi, v128.load(ub + 16))), f64x2.mul(z, fE2b));
+    sa = f64x2.sub(sa, f64x2.sub(qa, Pa));
+    sb = f64x2.sub(sb, f64x2.sub(qb, Pb));
+    v128.store(ua, qa);
+    v128.store(ua + 16, Pa);
+    v128.store(ub, qb);
+    v128.store(ub + 16, Pb);
+  }
+  quadSecond = sb;
+  return sa;
 }
 
 /** Pairs [from, to) of group G: poles advanced, their terms added to acc. */
@@ -105,7 +145,23 @@ export function fusedPairs(G: usize, d: usize, e: usize, h: usize, ca: usize, cb
   const from = <i32>word(G, Q_FUSED_LO), to = <i32>word(G, Q_FUSED_HI);
   const lo = <i32>word(G, Q_LO), fill = word(G, Q_FILL), off = lo - <i32>word(d, D_LO);
   const eOld = word(d, D_E_OLD), cp = word(d, D_CP), two = f64x2.splat(2);
-  for (let p = from; p < to; p++) {
+  let p = from;
+  for (; p + 2 <= to; p += 2) {
+    const k = p << 1, i = lo + k;
+    const Ea = v128.load(at(e, i)), Eb = v128.load(at(e, i + 2));
+    const fa = v128.load(at(fill, k)), fb = v128.load(at(fill, k + 2)), old = at(eOld, off + k);
+    const fE2a = f64x2.mul(fa, f64x2.add(f64x2.mul(two, Ea), v128.load(old)));
+    const fE2b = f64x2.mul(fb, f64x2.add(f64x2.mul(two, Eb), v128.load(old + 16)));
+    const sa = quadPoles(G, p, f64x2.mul(fa, Ea), fE2a, f64x2.mul(fb, Eb), fE2b), sb = quadSecond;
+    v128.store(old, Ea);
+    v128.store(old + 16, Eb);
+    const ha = v128.load(at(h, i - 1)), hb = v128.load(at(h, i)), hc = v128.load(at(h, i + 1)), hd = v128.load(at(h, i + 2));
+    const ya = f64x2.add(f64x2.mul(v128.load(at(ca, i)), Ea), f64x2.mul(v128.load(at(cb, i)), f64x2.sub(hb, ha)));
+    const yb = f64x2.add(f64x2.mul(v128.load(at(ca, i + 2)), Eb), f64x2.mul(v128.load(at(cb, i + 2)), f64x2.sub(hd, hc)));
+    v128.store(at(e, i), f64x2.add(ya, f64x2.mul(v128.load(at(cp, off + k)), sa)));
+    v128.store(at(e, i + 2), f64x2.add(yb, f64x2.mul(v128.load(at(cp, off + k + 2)), sb)));
+  }
+  for (; p < to; p++) {
     const k = p << 1, i = lo + k;
     const E = v128.load(at(e, i)), f = v128.load(at(fill, k)), old = at(eOld, off + k);
     const fE2 = f64x2.mul(f, f64x2.add(f64x2.mul(two, E), v128.load(old)));
