@@ -51,6 +51,7 @@ export class JsEngine implements StepEngine {
   readonly dftIm: Float64Array;
   readonly phasors = batchTable(2);
   readonly probes = batchTable(4);
+  readonly spectra = null;
   private readonly main: KernelState;
   private readonly aux: KernelState;
   private readonly epsInf: Float64Array;

@@ -9,6 +9,7 @@
 //   aux node 0 ← src[n + 1]; probes; on every stride-th step one DFT term with the batch's phasors.
 
 import type { BuiltGrids } from './build.ts';
+import type { SpectraState } from './convergence.ts';
 import { BATCH_STEPS } from './wasm/slots.ts';
 
 export type EngineKind = 'wasm-simd' | 'js';
@@ -24,6 +25,8 @@ export interface EngineSetup {
   /** Running DFT over main nodes [dftLo, dftLo + dftLength), a term at every step n with n % stride = 0. */
   dftLo: number; dftLength: number; stride: number;
   dt_s: number;
+  /** Check frequencies of the running spectra. */
+  spectraFrequencies: number;
 }
 
 export interface StepEngine {
@@ -46,6 +49,12 @@ export interface StepEngine {
   incidentDft(): [number, number];
   /** Stored energy of the main grid now (fields and pole states, normalized as EnergyReading). */
   energy(): number;
+  /**
+   * When the engine accumulates the running spectra of its probe samples itself (every step), their arrays and
+   * the table of exact phasors the run fills before a batch that holds a step of index k·RESEED; else null (the
+   * run feeds them from its records).
+   */
+  readonly spectra: (SpectraState & { seeds: Float64Array }) | null;
 }
 
 export { BATCH_STEPS };

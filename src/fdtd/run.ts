@@ -19,7 +19,7 @@
 import type { Profile } from '../results.ts';
 import type { Stack } from '../stack/types.ts';
 import { buildGrids } from './build.ts';
-import { SETTLED_FRACTION, SpectraWatch } from './convergence.ts';
+import { CHECK_FREQUENCIES, RESEED, SETTLED_FRACTION, SpectraWatch } from './convergence.ts';
 import { FdtdInstabilityError } from './errors.ts';
 import { BATCH_STEPS, type EngineKind, type EngineSetup, type StepEngine } from './engine.ts';
 import { chooseEngine } from './engine-choice.ts';
@@ -112,18 +112,21 @@ class Run implements PulseRun {
     const dftHi = plan.effective.back === 'pec' ? nodes.back + 1 : nodes.pmlBackStart;
     this.omegaDt = 2 * Math.PI * plan.profile_Hz * plan.dt_s;
     this.stride = making.profileStride ?? profileStride(plan.pulse, plan.profile_Hz, plan.dt_s);
-    this.watch = new SpectraWatch(band_Hz, plan.dt_s, SETTLED_FRACTION * plan.accuracyTarget);
-    this.checkEvery = ENERGY_EVERY * Math.max(1, Math.round(this.watch.every / ENERGY_EVERY));
     const setup: EngineSetup = {
       tfsf: nodes.tfsf, auxOffset: nodes.auxOffset,
       front: nodes.front, back: plan.effective.back === 'pec' ? -1 : nodes.back, sfProbe: nodes.sfProbe,
       source: sourceSamples(plan.pulse, plan.dt_s),
       dftLo: this.dftLo, dftLength: dftHi - this.dftLo, stride: this.stride, dt_s: plan.dt_s,
+      spectraFrequencies: CHECK_FREQUENCIES,
     };
     const chosen = chooseEngine({ grids: buildGrids(plan, band_Hz), setup }, making.engine);
     this.kernel = chosen.engine;
     this.engine = chosen.engine.kind;
     this.engineFallback = chosen.fallback;
+    // The running spectra live in the engine when it feeds them itself (every step); sample 0 is fed here.
+    this.watch = new SpectraWatch(band_Hz, plan.dt_s, SETTLED_FRACTION * plan.accuracyTarget, this.kernel.spectra ?? undefined);
+    if (this.kernel.spectra !== null) this.watch.feed(this.recInc.data, this.recRef.data, this.recTra.data, 1);
+    this.checkEvery = ENERGY_EVERY * Math.max(1, Math.round(this.watch.every / ENERGY_EVERY));
   }
 
   get stepIndex(): number { return this.n; }
@@ -143,6 +146,7 @@ class Run implements PulseRun {
       // A batch ends at the next energy step, the step limit or the count asked for.
       const k = Math.min(Math.ceil(count - taken), limit - this.n, ENERGY_EVERY - (this.n % ENERGY_EVERY));
       this.fillPhasors(k);
+      this.fillSeeds(k);
       this.kernel.advance(this.n, k);
       this.record(k);
       this.n += k;
@@ -162,6 +166,14 @@ class Run implements PulseRun {
       ph[2 * j] = Math.cos(a);
       ph[2 * j + 1] = Math.sin(a);
     }
+  }
+
+  /** For an engine that feeds the running spectra: the exact phasors of a step in the next k whose index is a multiple of RESEED. */
+  private fillSeeds(k: number): void {
+    const sp = this.kernel.spectra;
+    if (sp === null) return;
+    const t = Math.ceil((this.n + 1) / RESEED) * RESEED;
+    if (t <= this.n + k) this.watch.seeds(t, sp.seeds);
   }
 
   /** The probe table of the last k steps into the records. */
@@ -184,7 +196,8 @@ class Run implements PulseRun {
     if (sourceOn) this.sourcePeak = this.energyPeak;
     else if (W > BLOWUP_FACTOR * this.sourcePeak) this.blowUp(`the stored energy grew ${BLOWUP_FACTOR}× above its peak after the source stopped`);
     if (this.n % this.checkEvery !== 0) return;
-    this.watch.feed(this.recInc.data, this.recRef.data, this.recTra.data, this.n + 1);
+    if (this.kernel.spectra === null) this.watch.feed(this.recInc.data, this.recRef.data, this.recTra.data, this.n + 1);
+    else this.watch.markFed(this.n + 1);
     const settled = this.watch.check();
     if (!sourceOn && settled && !this.endless && W <= this.energyPeak * Math.pow(10, -this.plan.decay_dB / 10)) this.finish('converged');
   }

@@ -6,6 +6,7 @@
 import { at, get, node, put, real, setReal, word } from './mem.ts';
 import { gridE, gridH } from './grid.ts';
 import { storedEnergy } from './energy.ts';
+import { feedSpectra } from './spectra.ts';
 import {
   G_E, G_H, R_AUX, R_AUX_OFFSET, R_BACK, R_DFT_IM, R_DFT_LEN, R_DFT_LO, R_DFT_RE, R_DFT_STRIDE, R_DT, R_EPS_INF,
   R_FRONT, R_INC_IM, R_INC_RE, R_MAIN, R_PHASORS, R_PROBES, R_SF_PROBE, R_SRC, R_SRC_LEN, R_TFSF,
@@ -37,15 +38,17 @@ export function step(r: usize, n: i32, k: i32): void {
   }
 }
 
-/** Probe samples of step t (row j of the probe table) and, on DFT steps, one term of the profile's DFT. */
+/** Probe samples of step t (row j of the probe table, fed to the running spectra) and, on DFT steps, one term of the profile's DFT. */
 function sample(r: usize, main: usize, auxE: usize, off: i32, t: i32, j: i32): void {
   const e = word(main, G_E), probes = word(r, R_PROBES) + (<usize>(j << 2) << 3);
   const front = node(r, R_FRONT), back = node(r, R_BACK);
   const inc = get(auxE, front - off), tot = get(e, front);
+  const ref = tot - inc, tra = back < 0 ? 0 : get(e, back);
   store<f64>(probes, inc);
-  store<f64>(probes + 8, tot - inc);
-  store<f64>(probes + 16, back < 0 ? 0 : get(e, back));
+  store<f64>(probes + 8, ref);
+  store<f64>(probes + 16, tra);
   store<f64>(probes + 24, get(e, node(r, R_SF_PROBE)));
+  feedSpectra(r, t, inc, ref, tra);
   if (t % node(r, R_DFT_STRIDE) != 0) return;
   const ph = word(r, R_PHASORS) + (<usize>(j << 1) << 3);
   const c = load<f64>(ph), s = load<f64>(ph + 8);

@@ -160,6 +160,7 @@ export interface ArenaLayout {
   run: number;
   mainE: number; mainH: number; auxE: number;
   dftRe: number; dftIm: number; phasors: number; probes: number;
+  spectra: { acc: number; phasor: number; rotation: number; seeds: number };
   pages: number;
   write(memory: WebAssembly.Memory): void;
 }
@@ -181,8 +182,12 @@ export function layoutArena(input: EngineInput): ArenaLayout {
   w(S.R_DFT_STRIDE, setup.stride); w(S.R_PHASORS, phasors); w(S.R_PROBES, probes);
   w(S.R_EPS_INF, a.array(grids.epsInf));
   a.real(r, S.R_INC_RE, 0); a.real(r, S.R_INC_IM, 0); a.real(r, S.R_DT, setup.dt_s);
+  const nf = setup.spectraFrequencies;
+  const spectra = { acc: a.array(6 * nf), phasor: a.array(2 * nf), rotation: a.array(2 * nf), seeds: a.array(2 * nf) };
+  w(S.R_SPEC_N, nf); w(S.R_SPEC_ACC, spectra.acc); w(S.R_SPEC_PHASOR, spectra.phasor);
+  w(S.R_SPEC_ROTATION, spectra.rotation); w(S.R_SPEC_SEEDS, spectra.seeds);
   return {
-    run: r, mainE: main.e, mainH: main.h, auxE: aux.e, dftRe, dftIm, phasors, probes,
+    run: r, mainE: main.e, mainH: main.h, auxE: aux.e, dftRe, dftIm, phasors, probes, spectra,
     pages: a.pages(), write: (m) => a.write(m),
   };
 }

@@ -20,6 +20,7 @@ export class WasmEngine implements StepEngine {
   readonly phasors: Float64Array;
   readonly probes: Float64Array;
   readonly mainH: Float64Array;
+  readonly spectra: StepEngine['spectra'];
   private readonly x: StepExports;
   private readonly run: number;
   private readonly f64: Float64Array;
@@ -40,6 +41,8 @@ export class WasmEngine implements StepEngine {
     this.dftIm = view(layout.dftIm, setup.dftLength);
     this.phasors = view(layout.phasors, 2 * BATCH_STEPS);
     this.probes = view(layout.probes, 4 * BATCH_STEPS);
+    const nf = setup.spectraFrequencies, sp = layout.spectra;
+    this.spectra = { acc: view(sp.acc, 6 * nf), phasor: view(sp.phasor, 2 * nf), rotation: view(sp.rotation, 2 * nf), seeds: view(sp.seeds, 2 * nf) };
     this.run = layout.run;
     this.f64 = new Float64Array(buf);
   }

@@ -33,7 +33,19 @@ export const R_SPARE = 17;
 export const R_INC_RE = 18;
 export const R_INC_IM = 20;
 export const R_DT = 22;
-export const RUN_WORDS = 24;
+/**
+ * The running spectra of the probe records (convergence.ts): N check frequencies (even), accumulators (six runs
+ * of N), phasor cos, sin (two runs of N), per-sample rotation (two runs of N), and the exact phasors for a step
+ * whose index is a multiple of RESEED (two runs of N; the run fills them before such a batch).
+ */
+export const R_SPEC_N = 24;
+export const R_SPEC_ACC = 25;
+export const R_SPEC_PHASOR = 26;
+export const R_SPEC_ROTATION = 27;
+export const R_SPEC_SEEDS = 28;
+export const RUN_WORDS = 32;
+/** The phasors are re-seeded at every step index that is a multiple of this (convergence.ts RESEED). */
+export const SPEC_RESEED = 256;
 
 /** Grid descriptor. */
 export const G_N = 0;
