@@ -12,6 +12,8 @@ import type { Stack } from '../src/stack/types.ts';
 import { profileTmm } from '../src/tmm/profile.ts';
 import { solveTmm } from '../src/tmm/solve.ts';
 import { linspace } from '../src/units.ts';
+import { poleTermUpdates } from '../src/report/estimate.ts';
+import { useWasmStep } from '../test/support/wasm.ts';
 import { bulk, dielectric, layer, makeStack } from '../test/support/build-stack.ts';
 
 const median = (f: () => void, repeats = 3): number => {
@@ -49,14 +51,21 @@ for (const n of [1, 100]) {
   show('tmm profile', median(() => profileTmm(st, 5.5e9, x)), x.length, 'row');
   show('fem profile', median(() => profileFem(st, 5.5e9, x)), x.length, 'row');
 }
-// FDTD: cost per step and per cell-update, a small and a large grid, without and with poles.
-for (const [name, st] of [
-  ['fdtd, small grid', slab(0.01, [1, 2])], ['fdtd, large grid', slab(0.5, [1, 12])],
-  ['fdtd, large grid, fitted poles', slab(0.5, [1, 12], concrete)],
-] as const) {
-  let cells = 0, steps = 0;
-  const s = median(() => { const r = runToEndSync(createPulseRun(st)); cells = r.plan.cells + r.plan.nodes.auxTotal; steps = r.stepIndex; }, 1);
-  console.log(`${name.padEnd(34)} ${steps} steps × ${cells} cells: ${(s * 1e6 / steps).toPrecision(3)} µs per step, ${(s * 1e9 / (steps * cells)).toPrecision(3)} ns per cell-update`);
+// FDTD: cost per step and per cell-update, a small and a large grid, without and with poles, on each engine.
+await useWasmStep();
+for (const engine of ['wasm-simd', 'js'] as const) {
+  for (const [name, st] of [
+    ['fdtd, small grid', slab(0.01, [1, 2])], ['fdtd, large grid', slab(0.5, [1, 12])],
+    ['fdtd, large grid, fitted poles', slab(0.5, [1, 12], concrete)],
+  ] as const) {
+    let cells = 0, steps = 0, terms = 0;
+    const s = median(() => {
+      const r = runToEndSync(createPulseRun(st, { engine }));
+      cells = r.plan.cells + r.plan.nodes.auxTotal; steps = r.stepIndex; terms = poleTermUpdates(r.plan);
+    }, 1);
+    console.log(`${`${name} (${engine})`.padEnd(46)} ${steps} steps × ${cells} cells, ${terms} pole terms: ${(s * 1e6 / steps).toPrecision(3)} µs per step, ` +
+      `${(s * 1e9 / (steps * cells)).toPrecision(3)} ns per cell-update`);
+  }
 }
 // Spectra (DTFT) and echoes on a long record.
 {

@@ -27,3 +27,6 @@ export function chooseEngine(input: EngineInput, asked?: EngineKind): ChosenEngi
   if (asked === 'wasm-simd') throw new Error(`engine 'wasm-simd' asked for, but ${why}`);
   return { engine: new JsEngine(input), fallback: why };
 }
+
+/** The engine a run made now would most likely step with (WebAssembly when a module is provided and compiles). */
+export const expectedEngine = (): EngineKind => (stepModule() !== null ? 'wasm-simd' : 'js');

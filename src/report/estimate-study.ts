@@ -9,7 +9,7 @@ import { MAX_ELEMENTS } from '../fem/types.ts';
 import type { Stack } from '../stack/types.ts';
 import { DEFAULT_BUDGET, plainBytes, plainCount, plainDuration, type WorkBudget } from './budget.ts';
 import { FDTD_CELLS_PER_WAVELENGTH, FEM_DENSITIES, MAX_STUDY_ELEMENTS } from './converge.ts';
-import { FEM_BYTES_PER_ELEMENT, RATES, RECORD_BYTES_PER_STEP } from './rates.ts';
+import { FEM_BYTES_PER_ELEMENT, fdtdRates, RATES, RECORD_BYTES_PER_STEP } from './rates.ts';
 
 export interface StudyEstimate { seconds: number; memory_bytes: number; refusal?: string }
 
@@ -61,7 +61,7 @@ export function estimateFdtdStudy(stack: Stack, points: number, budget: WorkBudg
       throw e;
     }
     const n = p.cells + p.nodes.auxTotal, steps = p.expectedSteps;
-    seconds += steps * (RATES.fdtdPerStep_s + n * RATES.fdtdPerCellUpdate_s) + 3 * steps * points * RATES.dtftPerSampleFrequency_s;
+    seconds += steps * (fdtdRates().perStep_s + n * fdtdRates().perCellUpdate_s) + 3 * steps * points * RATES.dtftPerSampleFrequency_s;
     memory = Math.max(memory, p.memory_bytes + p.stepsLimit * RECORD_BYTES_PER_STEP);
   }
   return within({ seconds, memory_bytes: memory }, budget, limitSeconds, `the FDTD refinement study (${cells.length} pulse runs up to ${cells[cells.length - 1]} cells per wavelength)`,
@@ -74,7 +74,7 @@ const BENCH_BYTES_PER_CELL = 12 * 8;
 /** `slabecho bench --cells N --steps T`. */
 export function estimateBench(cells: number, steps: number, budget: WorkBudget = DEFAULT_BUDGET, limitSeconds = `${budget.maxSeconds} s`): StudyEstimate {
   const e = {
-    seconds: (steps + 50) * (RATES.fdtdPerStep_s + cells * RATES.fdtdPerCellUpdate_s),
+    seconds: (steps + 50) * (fdtdRates().perStep_s + cells * fdtdRates().perCellUpdate_s),
     memory_bytes: cells * BENCH_BYTES_PER_CELL,
   };
   return within(e, budget, limitSeconds, `the benchmark (${plainCount(cells)} cells × ${plainCount(steps)} steps)`, 'use fewer --cells or --steps');

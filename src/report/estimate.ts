@@ -19,7 +19,7 @@ import { planOutputs, type OutputPlan, type ProfileLevel } from './output-plan.t
 import { profileHasH } from './profile-columns.ts';
 import { QUANTITY_NAMES, quantitiesUnavailable } from '../studies/quantities.ts';
 import { bandBins, binSpacing } from '../echoes/band-response.ts';
-import { ECHO_BYTES_PER_BIN, FEM_BYTES_PER_ELEMENT, PROFILE_BYTES_PER_ROW, RATES, RECORD_BYTES_PER_STEP } from './rates.ts';
+import { ECHO_BYTES_PER_BIN, FEM_BYTES_PER_ELEMENT, fdtdRates, PROFILE_BYTES_PER_ROW, RATES, RECORD_BYTES_PER_STEP } from './rates.ts';
 
 /** A job refused by its estimate, before anything heavy was allocated; the message says why and what to change. */
 export class WorkRefused extends Error {
@@ -118,7 +118,7 @@ function profileStage(stack: Stack, fem: FemOptions | null, rows: number): Stage
 }
 
 /** Pole terms stepped per time step, summed over the grid's nodes (Debye 2 arrays, second-order 3). */
-function poleTermUpdates(p: GridPlan): number {
+export function poleTermUpdates(p: GridPlan): number {
   const terms = (m: { debye: unknown[]; osc: unknown[] } | 'pec') => (m === 'pec' ? 0 : 2 * m.debye.length + 3 * m.osc.length);
   let n = 0;
   for (const s of p.effective.segments) n += terms(s.model) * ((s.x1_m - s.x0_m) / p.dx_m + 2);
@@ -141,11 +141,11 @@ function echoStage(p: GridPlan, band_Hz: readonly [number, number], steps: numbe
 }
 
 function pulseStages(p: GridPlan, band_Hz: readonly [number, number], points: number, steps: number, worst = false): StageEstimate[] {
-  const cells = p.cells + p.nodes.auxTotal;
+  const cells = p.cells + p.nodes.auxTotal, fdtd = fdtdRates();
   return [
     {
       stage: 'pulse run',
-      seconds: steps * (RATES.fdtdPerStep_s + cells * RATES.fdtdPerCellUpdate_s + poleTermUpdates(p) * RATES.fdtdPerPoleTermUpdate_s),
+      seconds: steps * (fdtd.perStep_s + cells * fdtd.perCellUpdate_s + poleTermUpdates(p) * fdtd.perPoleTermUpdate_s),
       memory_bytes: p.memory_bytes + steps * RECORD_BYTES_PER_STEP,
       detail: `${plainCount(steps)} time steps × ${plainCount(cells)} cells`,
     },

@@ -1,7 +1,9 @@
 // Nominal unit costs of every stage, for the work estimates (estimate.ts). Measured on the two-core development
 // machine with `nice npx tsx bench/estimate-rates.ts` (rounded up); a faster machine runs sooner, a loaded one
 // later. The estimates only need to be right within a factor of about two: they decide what is refused, and the
-// same input is refused (or not) on every machine.
+// same input is refused (or not) on every machine that steps with the same engine.
+
+import { expectedEngine } from '../fdtd/engine-choice.ts';
 
 export const RATES = Object.freeze({
   /** Exact solver: per frequency, and per region (layer or half-space) and frequency. */
@@ -16,10 +18,6 @@ export const RATES = Object.freeze({
   /** Profiles: per row of the exact solution, per row of the FEM's. */
   tmmProfilePerRow_s: 0.12e-6,
   femProfilePerRow_s: 0.3e-6,
-  /** FDTD: per time step, per cell-update, and per pole term and cell-update. */
-  fdtdPerStep_s: 10e-6,
-  fdtdPerCellUpdate_s: 8e-9,
-  fdtdPerPoleTermUpdate_s: 4e-9,
   /** Spectra from the records (DTFT): per sample and frequency, for each of the three records. */
   dtftPerSampleFrequency_s: 3e-9,
   /** Echo analysis: fixed (band bins, bounce paths, attribution; bench/echoes.ts measures 7–27 ms on the
@@ -39,3 +37,16 @@ export const RECORD_BYTES_PER_STEP = 4 * 8 * 2 + 4 * 8;
 export const FEM_BYTES_PER_ELEMENT = 200;
 export const PROFILE_BYTES_PER_ROW = 100;
 
+/**
+ * The pulse engine's unit costs (per time step, per cell-update, per pole term and cell-update), by the engine
+ * its runs step with (bench/estimate-rates.ts measures both; the WebAssembly figures rounded up about 1.7×).
+ */
+export interface FdtdRates { perStep_s: number; perCellUpdate_s: number; perPoleTermUpdate_s: number }
+
+export const FDTD_RATES: Readonly<Record<'js' | 'wasm-simd', FdtdRates>> = Object.freeze({
+  js: Object.freeze({ perStep_s: 10e-6, perCellUpdate_s: 8e-9, perPoleTermUpdate_s: 4e-9 }),
+  'wasm-simd': Object.freeze({ perStep_s: 2e-6, perCellUpdate_s: 1.5e-9, perPoleTermUpdate_s: 0.6e-9 }),
+});
+
+/** The unit costs of the engine this thread's runs will step with. */
+export const fdtdRates = (): FdtdRates => FDTD_RATES[expectedEngine()];

@@ -32,7 +32,7 @@ describe('refused before any work', () => {
     const r = await timed('run', narrow, '--out', out);
     console.log(`refusal time, run on a 1 MHz band: ${r.ms.toFixed(0)} ms`);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/would take about \d+ min of computing \(limit 30 s, --max-seconds\)/);
+    expect(r.stderr).toMatch(/would take about \d+ (s|min) of computing \(limit 30 s, --max-seconds\)/);
     expect(r.stderr).toMatch(/the band is only 1 MHz wide, so the pulse lasts about [\d.]+ µs: widen the band to at least \d+ MHz/);
     expect(r.stderr).toMatch(/nothing was written$/);
     expect(existsSync(out)).toBe(false);
