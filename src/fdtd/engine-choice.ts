@@ -21,7 +21,7 @@ export function chooseEngine(input: EngineInput, asked?: EngineKind): ChosenEngi
     try {
       return { engine: new WasmEngine(module, input), fallback: null };
     } catch (e) {
-      why = `the WebAssembly engine could not be set up (${e instanceof Error ? e.message : String(e)})`;
+      why = `the WebAssembly engine was not used: ${e instanceof Error ? e.message : String(e)}`;
     }
   }
   if (asked === 'wasm-simd') throw new Error(`engine 'wasm-simd' asked for, but ${why}`);

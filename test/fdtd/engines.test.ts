@@ -135,3 +135,30 @@ describe('production step details', () => {
     expect(diff / peak).toBeLessThan(1e-7);
   });
 });
+
+describe('what the WebAssembly step does not carry', () => {
+  beforeAll(async () => { await useWasmStep(); });
+
+  it('grids with H-side terms or second-order s-numerators step with the TypeScript kernel, and say so', async () => {
+    const { chooseEngine } = await import('../../src/fdtd/engine-choice.ts');
+    const { buildGrids } = await import('../../src/fdtd/build.ts');
+    const { planGrid } = await import('../../src/fdtd/plan.ts');
+    const stack = corners[0][1], plan = planGrid(stack);
+    const setup = {
+      tfsf: plan.nodes.tfsf, auxOffset: plan.nodes.auxOffset, front: plan.nodes.front, back: plan.nodes.back, sfProbe: plan.nodes.sfProbe,
+      source: new Float64Array(4), dftLo: plan.nodes.tfsf, dftLength: 4, stride: 1, dt_s: plan.dt_s, spectraFrequencies: 24,
+    };
+    expect(chooseEngine({ grids: buildGrids(plan, stack.band_Hz), setup }).engine.kind).toBe('wasm-simd');
+    const magnetic = buildGrids(plan, stack.band_Hz);
+    Object.assign(magnetic.main, { mdisp: { ...magnetic.main.disp! } });
+    const a = chooseEngine({ grids: magnetic, setup });
+    expect(a.engine.kind).toBe('js');
+    expect(a.fallback).toMatch(/magnetic \(H-side\)/);
+    const numerator = buildGrids(plan, stack.band_Hz);
+    const g = numerator.main.disp!.groups.find((x) => x.no > 0)!;
+    Object.assign(g, { o1: g.oz.map((z) => 2 * z), o2: g.oz.map((z) => 1.5 * z) });
+    const b = chooseEngine({ grids: numerator, setup });
+    expect(b.engine.kind).toBe('js');
+    expect(b.fallback).toMatch(/s-numerator/);
+  });
+});

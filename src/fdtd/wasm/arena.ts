@@ -155,6 +155,29 @@ function gridDesc(a: ArenaPlan, s: KernelState, inj: number): { desc: number; e:
   return { desc: d, e, h };
 }
 
+/**
+ * What the WebAssembly step does not carry yet, or null when it steps these grids exactly: poles or a σ on the
+ * H nodes (a state's `mdisp`, an H coefficient `da` other than 1) and second-order terms whose Fⁿ and Fⁿ⁻¹
+ * coefficients (`o1`, `o2`) are not 2ζ and ζ (an s-numerator). Such a run steps with the TypeScript kernel.
+ */
+export function notCarried(grids: EngineInput['grids']): string | null {
+  for (const s of [grids.main, grids.aux]) {
+    const loose = s as KernelState & { mdisp?: DispersiveSpan | null; da?: Float64Array };
+    if ((loose.mdisp ?? null) !== null || (loose.da !== undefined && loose.da.some((v) => v !== 1))) {
+      return 'the WebAssembly step does not carry magnetic (H-side) terms yet';
+    }
+    for (const g of s.disp?.groups ?? []) {
+      const o = g as PoleGroup & { o1?: Float64Array; o2?: Float64Array };
+      for (let q = 0; q < g.no; q++) {
+        if ((o.o1 !== undefined && o.o1[q] !== 2 * g.oz[q]) || (o.o2 !== undefined && o.o2[q] !== g.oz[q])) {
+          return 'the WebAssembly step does not carry second-order terms with an s-numerator yet';
+        }
+      }
+    }
+  }
+  return null;
+}
+
 /** Addresses the engine reads back. */
 export interface ArenaLayout {
   run: number;
