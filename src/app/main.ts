@@ -24,6 +24,8 @@ import { SpectrumView } from './views/spectrumView.ts';
 import { ProfileView } from './views/profileView.ts';
 import { TraceView } from './views/traceView.ts';
 import { AgreementView } from './views/agreementView.ts';
+import { SpacetimeView } from './spacetime/view.ts';
+import { csvGrid, spacetimeCsv } from './spacetime/csv.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
 
 const $ = <T extends HTMLElement>(testid: string): T => {
@@ -50,6 +52,7 @@ class Workbench implements ControlHost {
   private readonly profile = new ProfileView($('profile-view'));
   private readonly trace = new TraceView($('trace-view'));
   private readonly agreement = new AgreementView($('agreement'));
+  private readonly spacetime = new SpacetimeView($('spacetime-view'));
   private field!: FieldView;
   private controls!: Controls;
   private version = 0;
@@ -124,6 +127,7 @@ class Workbench implements ControlHost {
         fieldBoxes: () => this.field.layoutBoxes,
         fieldMarks: () => this.field.layoutMarks,
         fieldLabels: () => this.field.labelTexts,
+        spacetime: () => this.spacetime.probe(),
       },
     };
   }
@@ -279,6 +283,7 @@ class Workbench implements ControlHost {
   }
 
   private drawTraceView(): void {
+    this.drawSpacetime();
     const rep = this.reportCurrent();
     const note = rep !== null ? (rep.skipped !== undefined ? `The pulse engine did not run for this stack: ${rep.skipped}`
       : rep.trace[0]?.data.length === 0 ? 'the pulse run recorded nothing for this stack' : '')
@@ -288,6 +293,16 @@ class Workbench implements ControlHost {
       trace: rep?.trace ?? null, echoes: rep?.echoes ?? null, echoesT: rep?.echoesT ?? null, envelope: rep?.envelope ?? null,
       delayZero_ns: typeof zero === 'number' ? zero : null,
     }, this.settings.envelope, note);
+  }
+
+  private drawSpacetime(): void {
+    const rep = this.reportCurrent();
+    const note = rep !== null ? (rep.skipped !== undefined ? `The pulse engine did not run for this stack: ${rep.skipped}`
+      : rep.spacetime === null ? 'the pulse run recorded nothing for this stack' : '')
+      : this.engine.reporting ? 'pulse run in progress… (the map is recorded from it)' : 'no finished pulse run for this stack';
+    const s = this.settings;
+    this.spacetime.show({ map: rep?.spacetime ?? null, rays: rep?.rays ?? null, sketch: this.sketch, note },
+      { field: s.spacetimeField, gain: s.spacetimeGain, rays: s.spacetimeRays });
   }
 
   // ---- pulse run -----------------------------------------------------------------------------
@@ -415,6 +430,7 @@ class Workbench implements ControlHost {
       this.field.render();
       this.stats.fieldRenders++;
       this.stats.step = f.step;
+      this.spacetime.setNow(this.pulseVersion === this.reportVersion ? f.time_s * 1e9 : null);
       if (f.done && this.playing) this.setPlaying(false);
     }
     if (this.clip !== null) {
@@ -519,6 +535,7 @@ class Workbench implements ControlHost {
     if (topic === 'traces' || topic === 'axis') { this.field.setOptions(this.fieldOptions()); return; }
     if (topic === 'spectrum') { this.drawFrequencyViews(); return; }
     if (topic === 'trace') { this.drawTraceView(); return; }
+    if (topic === 'spacetime') { this.drawSpacetime(); return; }
     if (topic === 'accuracy') { this.restartPulse(0); return; }
     if (topic === 'speed' && this.settings.autoSpeed && this.geometry !== null) {
       this.settings.speed = autoStepsPerFrame(this.geometry.cells, this.geometry.courant);
@@ -574,6 +591,21 @@ class Workbench implements ControlHost {
     window.addEventListener('keyup', (e) => { if (isSpace(e) && !typing(e)) e.preventDefault(); });
   }
 
+  /** Files of the views beyond the CLI's tables, with a README line each. */
+  private exportTexts(): Array<{ name: string; text: string; about: string }> {
+    const out: Array<{ name: string; text: string; about: string }> = [];
+    const map = this.reportCurrent()?.spacetime ?? null;
+    if (map !== null) {
+      const g = csvGrid(map), field = this.settings.spacetimeField;
+      out.push({
+        name: 'spacetime.csv', text: spacetimeCsv(map, field),
+        about: `spacetime.csv: the ${field} field E/E0 of the space–time map, t_ns,x_mm,E, on ${g.times} times ${+g.dt_ns.toPrecision(4)} ns apart`
+          + ` × ${g.positions} positions ${+g.dx_mm.toPrecision(4)} mm apart (every ${g.every_row * map.stepsPerRow} steps of the run, every ${g.every_column}th grid node of the view)`,
+      });
+    }
+    return out;
+  }
+
   private async exportNow(): Promise<void> {
     this.field.render();
     const clip = this.lastClip !== null && this.lastClip.version === this.version ? { name: this.lastClip.name, blob: this.lastClip.clip.blob } : null;
@@ -588,7 +620,9 @@ class Workbench implements ControlHost {
           ['trace-view', this.trace.chart.canvas],
           ['spectrum-view', this.spectrum.chart.canvas],
           ['profile-view', this.profile.chart.canvas],
+          ['spacetime-view', this.spacetime.canvas],
         ],
+        texts: this.exportTexts(),
         clip,
         date: new Date(),
       });

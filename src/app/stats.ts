@@ -2,6 +2,7 @@
 // and a probe into the drawn geometry of the charts and the field view.
 
 import type { FieldBoxes, FieldMarks } from './fieldView.ts';
+import type { SpacetimeView } from './spacetime/view.ts';
 
 /** Figures the browser tests and the benchmark read. */
 export interface WorkbenchStats {
@@ -29,6 +30,8 @@ export interface WorkbenchProbe {
   fieldBoxes(): FieldBoxes;
   fieldMarks(): FieldMarks;
   fieldLabels(): Array<{ text: string; x: number; y: number; w: number }>;
+  /** The space–time map's grid, ranges and rays (mm, ns of run time), or null when none is drawn. */
+  spacetime(): ReturnType<SpacetimeView['probe']>;
 }
 type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view';
 

@@ -23,7 +23,7 @@ import { stackThickness_m } from '../../src/stack/types.ts';
 import type { WorkbenchProbe, WorkbenchStats } from '../../src/app/stats.ts';
 
 const ARTIFACTS = join(ROOT, 'test-artifacts');
-const VIEWS = ['field-view', 'trace-view', 'spectrum-view', 'profile-view'] as const;
+const VIEWS = ['field-view', 'trace-view', 'spectrum-view', 'profile-view', 'spacetime-view'] as const;
 
 let dist = '';
 let site: StaticSite;
@@ -240,7 +240,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     }
     expect([...byName.keys()].sort()).toEqual([
       'README.txt', `${DEFAULT_STEM}.mp4`, `${DEFAULT_STEM}.stack.json`, 'echoes.csv', 'echoes_T.csv', ...VIEWS.map((v) => `${v}.png`),
-      'profile.csv', 'spectrum.csv', 'summary.json', 'trace.csv',
+      'profile.csv', 'spectrum.csv', 'summary.json', 'trace.csv', 'spacetime.csv',
     ].sort());
     const text = (n: string): string => { const b = byName.get(n); expect(b, n).toBeDefined(); return b!.toString('utf8'); };
     const header = (n: string): string => text(n).split('\n')[0];
@@ -252,6 +252,18 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(header('echoes_T.csv')).toBe(header('echoes.csv'));
     expect(header('trace.csv')).toBe('t_ns,E_incident,E_reflected,E_transmitted');
     expect(JSON.parse(text('summary.json'))).toHaveProperty('grid');
+    // spacetime.csv: t_ns,x_mm,E on the grid the README states, times and positions in order, finite values.
+    const grid = /spacetime\.csv: .* on (\d+) times .* × (\d+) positions/.exec(text('README.txt'));
+    expect(grid).not.toBeNull();
+    const st = text('spacetime.csv').trimEnd().split('\n');
+    expect(st[0]).toBe('t_ns,x_mm,E');
+    const [times, positions] = [Number(grid![1]), Number(grid![2])];
+    expect(st.length - 1).toBe(times * positions);
+    const cells = st.slice(1).map((l) => l.split(',').map(Number));
+    expect(cells.every((c) => c.length === 3 && c.every(Number.isFinite))).toBe(true);
+    expect(cells[positions][0]).toBeGreaterThan(cells[0][0]);
+    expect(cells[1][1]).toBeGreaterThan(cells[0][1]);
+    expect(Math.max(...cells.map((c) => Math.abs(c[2])))).toBeGreaterThan(0.3); // the incident pulse is in it (peak 1)
     // The exported stack file runs unchanged through the pipeline `slabecho run` uses and gives the
     // same tables: same header, same rows, same paths, numbers equal to 1e-9 (relative above 1). The
     // browser's and node's JavaScript engines may differ in the last bits of a few Math functions;
@@ -276,6 +288,55 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(text('README.txt')).toMatch(/licensed professional practice/);
     for (const v of VIEWS) await page.locator(`[data-testid="${v}"]`).screenshot({ path: join(ARTIFACTS, `${v}.png`) });
     await page.screenshot({ path: join(ARTIFACTS, 'workbench.png'), fullPage: true });
+  });
+
+  it('maps the pulse run in space and time, with each echo row\'s ray returning to the front face at the echo table\'s delay', async () => {
+    // A lossless slab: echo k comes back after k round trips of 2 d √ε / c (the multiple-reflection series,
+    // Born & Wolf §1.6), and node's runReport of the same file gives the echo table the rays must meet.
+    const d_mm = 100, slab = { title: 'Ceramic slab for the space-time check', band_GHz: [1, 6], points: 101, layers: [{ material: 'tile', thickness_mm: d_mm }], materials: { tile: { model: 'fixed', eps_r: 4 } } };
+    const path = join(ARTIFACTS, 'downloads', 'spacetime-slab.stack.json');
+    writeFileSync(path, JSON.stringify(slab));
+    await page.setInputFiles('[data-testid="import"]', path);
+    await page.waitForFunction(() => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return s.reportVersion === s.version && document.querySelector('[data-testid="stack-title"]')?.textContent?.startsWith('Ceramic') === true;
+    }, undefined, { timeout: 120_000 });
+    await expect.poll(async () => (await probe('spacetime'))?.rays.length ?? 0).toBeGreaterThan(3);
+    const map = (await probe('spacetime'))!;
+    expect(map.rows).toBeGreaterThan(50);
+    expect(map.columns).toBeGreaterThan(50);
+    expect(map.x_mm[0]).toBeLessThan(0);
+    expect(map.x_mm[1]).toBeGreaterThan(d_mm);
+    const rep = await nodeReport(JSON.stringify(slab));
+    const summary = rep.summary as { echoes: { delay_zero_ns: number; t_ns: number[] } };
+    const t0 = summary.echoes.delay_zero_ns, delays = summary.echoes.t_ns;
+    expect(delays.length).toBeGreaterThanOrEqual(3);
+    const roundTrip_ns = (2 * d_mm * 1e-3 * 2) / C0 * 1e9;
+    delays.forEach((t, i) => {
+      const ray = map.rays.find((r) => r.label === String(i + 1));
+      expect(ray, `ray ${i + 1}`).toBeDefined();
+      // Where the ray meets x = 0 on its way out (the last vertex at the front face).
+      const k = ray!.x_mm.map((x) => Math.abs(x) < 1e-9).lastIndexOf(true);
+      const exit = ray!.t_ns[k];
+      expect(Math.abs(exit - (t0 + t))).toBeLessThan(2e-3); // the echo table's delay (ns, 6 digits in summary.json)
+      expect(Math.abs(exit - t0 - i * roundTrip_ns)).toBeLessThan(2e-3); // the series
+      expect(Math.max(...ray!.x_mm.slice(0, k + 1))).toBeCloseTo(i === 0 ? 0 : d_mm, 9);
+    });
+    const t1 = map.rays.find((r) => r.label === 'T1');
+    expect(t1).toBeDefined();
+    expect(t1!.t_ns[1] - t1!.t_ns[0]).toBeCloseTo(roundTrip_ns / 2, 4);
+    // The picture holds the field: strongly coloured pixels along the incident ray, pale ones far from any ray.
+    const colourful = await page.locator('[data-testid="spacetime-view"] canvas').evaluate((c) => {
+      const cv = c as HTMLCanvasElement, ctx = cv.getContext('2d')!;
+      const px = ctx.getImageData(0, 0, cv.width, cv.height).data;
+      let strong = 0;
+      for (let i = 0; i < px.length; i += 4) if (Math.max(px[i], px[i + 1], px[i + 2]) - Math.min(px[i], px[i + 1], px[i + 2]) > 80) strong++;
+      return strong / (cv.width * cv.height);
+    });
+    expect(colourful).toBeGreaterThan(0.01);
+    await page.locator('[data-testid="spacetime-view"]').screenshot({ path: join(ARTIFACTS, 'spacetime-view-slab.png') });
+    await choosePreset('default');
+    await page.waitForSelector('[data-testid="run-status"][data-state="done"]', { timeout: 120_000 }); // the readout test reads the FDTD curve
   });
 
   it('switches the spectrum to phase and group delay and the echoes to a dB envelope (each redraws the chart)', async () => {
