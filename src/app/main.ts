@@ -25,6 +25,7 @@ import { ProfileView } from './views/profileView.ts';
 import { TraceView } from './views/traceView.ts';
 import { AgreementView } from './views/agreementView.ts';
 import { SpacetimeView } from './spacetime/view.ts';
+import { MaterialEditor, type EditorHost } from './materials/editor.ts';
 import { csvGrid, spacetimeCsv } from './spacetime/csv.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
 
@@ -34,7 +35,7 @@ const $ = <T extends HTMLElement>(testid: string): T => {
   return el;
 };
 
-class Workbench implements ControlHost {
+class Workbench implements ControlHost, EditorHost {
   file: StackFile;
   stack: Stack;
   sketch: StackSketch;
@@ -55,6 +56,7 @@ class Workbench implements ControlHost {
   private readonly spacetime = new SpacetimeView($('spacetime-view'));
   private field!: FieldView;
   private controls!: Controls;
+  private editor!: MaterialEditor;
   private version = 0;
   private solved: Solved | null = null;
   private solvedVersion = -1;
@@ -111,6 +113,7 @@ class Workbench implements ControlHost {
     this.spectrum.chart.onDraw = () => this.noteUpdated();
     this.profile.chart.onDraw = () => this.noteUpdated();
     this.controls = new Controls($('controls'), this);
+    this.editor = new MaterialEditor($('controls'), this);
     this.wireButtons();
     this.wireKeys();
     this.showTitle();
@@ -118,7 +121,7 @@ class Workbench implements ControlHost {
     this.solveNow();
     this.restartPulse(0);
     requestAnimationFrame(() => this.loop());
-    const charts = { 'spectrum-view': this.spectrum.chart, 'profile-view': this.profile.chart, 'trace-view': this.trace.chart };
+    const charts = { 'spectrum-view': this.spectrum.chart, 'profile-view': this.profile.chart, 'trace-view': this.trace.chart, 'material-plot': this.editor.plot };
     window.slabecho = {
       stats: this.stats,
       probe: {
@@ -128,6 +131,8 @@ class Workbench implements ControlHost {
         fieldMarks: () => this.field.layoutMarks,
         fieldLabels: () => this.field.labelTexts,
         spacetime: () => this.spacetime.probe(),
+        solvedSpectrum: () => (this.solvedVersion === this.version && this.solved !== null
+          ? this.solved.spectrum.map((c) => ({ name: c.name, data: Array.from(c.data as Float64Array) })) : null),
       },
     };
   }
@@ -162,6 +167,9 @@ class Workbench implements ControlHost {
     return true;
   }
 
+  /** EditorHost: the layer menus list the stack's own materials. */
+  materialsChanged(): void { this.controls.refresh(); }
+
   /** ControlHost: a view or run setting was refused. */
   refuse(field: string, need: string, text: string): void {
     this.messages.show('edit', 'error', 'That change was not applied:', [`${field}: must be ${need} (got ${describeValue(text)})`]);
@@ -188,6 +196,7 @@ class Workbench implements ControlHost {
     storeOrigin(this.origin);
     this.field.resetFraming();
     this.controls.refresh();
+    this.editor.refresh();
   }
 
   importText(name: string, text: string): void {
@@ -202,6 +211,7 @@ class Workbench implements ControlHost {
     storeOrigin(this.origin);
     this.field.resetFraming();
     this.controls.refresh();
+    this.editor.refresh();
     this.messages.show('import', 'info', `Loaded ${name}.`, []);
   }
 
@@ -219,6 +229,7 @@ class Workbench implements ControlHost {
     this.showTitle();
     this.showWarnings();
     this.field.setStack(this.sketch);
+    this.editor?.drawPlot();
     this.editStart = performance.now();
     this.solveNow();
     this.restartPulse(350);

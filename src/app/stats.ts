@@ -32,8 +32,10 @@ export interface WorkbenchProbe {
   fieldLabels(): Array<{ text: string; x: number; y: number; w: number }>;
   /** The space–time map's grid, ranges and rays (mm, ns of run time), or null when none is drawn. */
   spacetime(): ReturnType<SpacetimeView['probe']>;
+  /** The exact/FEM spectrum table of the current stack (the CLI's spectrum.csv columns), or null while solving. */
+  solvedSpectrum(): Array<{ name: string; data: number[] }> | null;
 }
-type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view';
+type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view' | 'material-plot';
 
 declare global {
   interface Window { slabecho?: { stats: WorkbenchStats; probe: WorkbenchProbe } }

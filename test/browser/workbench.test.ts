@@ -506,6 +506,90 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     await choosePreset('default');
   });
 
+  it('makes a material of every model in the editor, refuses bad values in the parser\'s words, plots ε and μ, and solves it as an imported file with the same material does', async () => {
+    await choosePreset('default');
+    const editor = page.locator('[data-testid="material-editor"]');
+    const field = (id: string) => editor.locator(`[data-testid="${id}"]`);
+    const msg = page.locator('[data-testid="msg-edit"]');
+    const settled = () => page.waitForFunction(() => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return s.solvedVersion === s.version;
+    });
+    const commit = async (id: string, text: string): Promise<void> => { await field(id).fill(text); await field(id).press('Enter'); };
+    await field('me-new').click();
+    await commit('me-name', 'loaded-foam');
+    await expect.poll(() => field('me-name').inputValue()).toBe('loaded-foam');
+    // Every model's starting definition passes the parser (no refusal), and the plot follows.
+    for (const model of ['sheet', 'fixed', 'lorentz', 'drude', 'power-law', 'table', 'debye']) {
+      await field('me-model').selectOption(model);
+      await expect.poll(() => field('me-model').inputValue()).toBe(model);
+      expect(await msg.count(), model).toBe(0);
+    }
+    // A table's rows are checked cell by cell: a loss below zero is named by its row and column.
+    await field('me-model').selectOption('table');
+    await field('me-points').fill('1, 2.2, 0.01\n6, 2.1, -0.02');
+    await field('me-points').blur();
+    await expect.poll(() => msg.textContent()).toContain('materials.loaded-foam.points[1][2]');
+    await field('me-model').selectOption('debye');
+    await commit('me-field-eps_inf', '1.8');
+    await commit('me-field-sigma_S_per_m', '0.01');
+    await commit('me-pole-0-delta_eps', '2.5');
+    await commit('me-pole-0-tau_ps', '30');
+    await field('me-magnetic').check();
+    await field('me-mag-model').selectOption('lorentz');
+    await commit('me-mag-mu_inf', '1');
+    await commit('me-mag-pole-0-delta_mu', '0.5');
+    await commit('me-mag-pole-0-f0_GHz', '4');
+    await commit('me-mag-pole-0-gamma_GHz', '3');
+    // Refused in the parser's words, and the value in force comes back.
+    await commit('me-field-eps_inf', 'abc');
+    await expect.poll(() => msg.textContent()).toContain('materials.loaded-foam.eps_inf: must be a number ≥ 1 (got the string "abc")');
+    await expect.poll(() => field('me-field-eps_inf').inputValue()).toBe('1.8');
+    await commit('me-mag-pole-0-f0_GHz', '0');
+    await expect.poll(() => msg.textContent()).toContain('materials.loaded-foam.magnetic.poles[0].f0_GHz');
+    // The plot reads ε′ of the Debye model at 2 GHz: ε∞ + Δε / (1 + (ωτ)²) (Debye 1929, the relaxation's closed form).
+    const w = 2 * Math.PI * 2e9, tau = 30e-12;
+    const epsRe = 1.8 + 2.5 / (1 + (w * tau) ** 2);
+    await page.locator('[data-testid="material-plot"]').scrollIntoViewIfNeeded();
+    const pt = (await probe('chartPoint', 'material-plot', 2, 0))!;
+    await page.mouse.move(pt.x, pt.y);
+    const readout = page.locator('[data-testid="material-plot-readout"]');
+    await expect.poll(() => readout.textContent()).toContain('f = 2 GHz');
+    const row = await readout.locator('.readout-row').first().locator('.readout-value').textContent();
+    expect(Math.abs(Number(row) - epsRe)).toBeLessThanOrEqual(5e-5 + 1e-12);
+    await editor.screenshot({ path: join(ARTIFACTS, 'material-editor.png') });
+    await page.mouse.move(0, 0);
+    // The layer uses it; the solve is then that of a file holding the same material, typed by hand.
+    await page.locator('[data-testid="layer-0-material"] select').selectOption('loaded-foam');
+    await settled();
+    const fromEditor = await probe('solvedSpectrum');
+    const byHand = {
+      title: 'Single brick wall', band_GHz: [1, 6], points: 501, layers: [{ material: 'loaded-foam', thickness_mm: 100 }],
+      materials: { 'loaded-foam': { model: 'debye', eps_inf: 1.8, poles: [{ delta_eps: 2.5, tau_ps: 30 }], sigma_S_per_m: 0.01,
+        magnetic: { model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 0.5, f0_GHz: 4, gamma_GHz: 3 }] } } },
+    };
+    const path = join(ARTIFACTS, 'downloads', 'loaded-foam.stack.json');
+    writeFileSync(path, JSON.stringify(byHand));
+    // Deleting a material a layer uses is refused by the parser (the layer is named).
+    await field('me-delete').click();
+    await expect.poll(() => msg.textContent()).toContain('layers[0].material');
+    const v = (await stats()).version;
+    await page.setInputFiles('[data-testid="import"]', path);
+    await page.waitForFunction((n) => { const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats; return s.version > n && s.solvedVersion === s.version; }, v);
+    const fromFile = await probe('solvedSpectrum');
+    expect(fromFile).not.toBeNull();
+    expect(fromFile!.map((c) => c.name)).toEqual(fromEditor!.map((c) => c.name));
+    fromFile!.forEach((c, k) => expect(c.data, c.name).toEqual(fromEditor![k].data));
+    // And both are the exact solution of that file in node (the solver's own checks are in test/tmm).
+    const parsed = parseStackObject(byHand);
+    if (!parsed.ok) throw new Error(parsed.errors.join('; '));
+    const f = Float64Array.from(fromFile!.find((c) => c.name === 'f_GHz')!.data, (x) => x * 1e9);
+    const exact = solveTmm(parsed.stack, f);
+    const Rre = fromFile!.find((c) => c.name === 'R_tmm_re')!.data;
+    expect(Math.max(...Rre.map((x, i) => Math.abs(x - exact.R_re[i])))).toBeLessThan(1e-12);
+    await expect.poll(() => field('me-name').inputValue()).toBe('loaded-foam');
+  });
+
   it('refuses a bad import with the parser’s field-named message and keeps the stack', async () => {
     const titleBefore = await page.locator('[data-testid="stack-title"]').textContent();
     const versionBefore = (await stats()).version;
