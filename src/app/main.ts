@@ -26,6 +26,13 @@ import { TraceView } from './views/traceView.ts';
 import { AgreementView } from './views/agreementView.ts';
 import { SpacetimeView } from './spacetime/view.ts';
 import { MaterialEditor, type EditorHost } from './materials/editor.ts';
+import { StudyPanel, type StudyHost } from './studies/panel.ts';
+import { StudyMapView } from './studies/mapView.ts';
+import type { SweepResult, ToleranceResult } from './studies/compute.ts';
+import type { QuantityName } from '../studies/quantities.ts';
+import { TunePanel, type TuneHost } from './tune/panel.ts';
+import type { MeasuredOverlay, ToleranceOverlay } from './views/spectrumView.ts';
+import { formatCsv } from '../report/table.ts';
 import { csvGrid, spacetimeCsv } from './spacetime/csv.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
 
@@ -35,7 +42,7 @@ const $ = <T extends HTMLElement>(testid: string): T => {
   return el;
 };
 
-class Workbench implements ControlHost, EditorHost {
+class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
   file: StackFile;
   stack: Stack;
   sketch: StackSketch;
@@ -57,6 +64,14 @@ class Workbench implements ControlHost, EditorHost {
   private field!: FieldView;
   private controls!: Controls;
   private editor!: MaterialEditor;
+  private studies!: StudyPanel;
+  private tuning!: TunePanel;
+  private readonly studyMap = new StudyMapView($('study-view'));
+  /** The latest sweep and tolerance study (for the stack version they ran on), and the measured overlay. */
+  private sweep: { version: number; result: SweepResult } | null = null;
+  private tolerance: { version: number; result: ToleranceResult } | null = null;
+  private mapQuantityName: QuantityName = 'IL_dB';
+  private measured: MeasuredOverlay | null = null;
   private version = 0;
   private solved: Solved | null = null;
   private solvedVersion = -1;
@@ -114,6 +129,9 @@ class Workbench implements ControlHost, EditorHost {
     this.profile.chart.onDraw = () => this.noteUpdated();
     this.controls = new Controls($('controls'), this);
     this.editor = new MaterialEditor($('controls'), this);
+    this.studies = new StudyPanel($('controls'), this);
+    this.tuning = new TunePanel($('controls'), this);
+    this.drawStudyMap();
     this.wireButtons();
     this.wireKeys();
     this.showTitle();
@@ -131,6 +149,9 @@ class Workbench implements ControlHost, EditorHost {
         fieldMarks: () => this.field.layoutMarks,
         fieldLabels: () => this.field.labelTexts,
         spacetime: () => this.spacetime.probe(),
+        studyMap: () => this.studyMap.probe(),
+        tolerance: () => (this.tolerance === null ? null
+          : { samples: this.tolerance.result.samples, columns: this.tolerance.result.columns.map((c) => ({ name: c.name, data: Array.from(c.data) })) }),
         solvedSpectrum: () => (this.solvedVersion === this.version && this.solved !== null
           ? this.solved.spectrum.map((c) => ({ name: c.name, data: Array.from(c.data as Float64Array) })) : null),
       },
@@ -197,6 +218,8 @@ class Workbench implements ControlHost, EditorHost {
     this.field.resetFraming();
     this.controls.refresh();
     this.editor.refresh();
+    this.studies.refresh();
+    this.tuning.refresh();
   }
 
   importText(name: string, text: string): void {
@@ -212,6 +235,8 @@ class Workbench implements ControlHost, EditorHost {
     this.field.resetFraming();
     this.controls.refresh();
     this.editor.refresh();
+    this.studies.refresh();
+    this.tuning.refresh();
     this.messages.show('import', 'info', `Loaded ${name}.`, []);
   }
 
@@ -230,6 +255,8 @@ class Workbench implements ControlHost, EditorHost {
     this.showWarnings();
     this.field.setStack(this.sketch);
     this.editor?.drawPlot();
+    this.tuning?.recheck();
+    this.drawStudyMap();
     this.editStart = performance.now();
     this.solveNow();
     this.restartPulse(350);
@@ -285,7 +312,7 @@ class Workbench implements ControlHost, EditorHost {
         : rep.skipped !== undefined ? 'the pulse engine did not run for this stack (see the messages above)' : '';
     const s = this.solved;
     const look = { mode: this.settings.spectrumMode, freqScale: this.settings.freqScale, magnitude: this.settings.magnitude };
-    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], look, pending);
+    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], look, pending, { measured: this.measured, tolerance: this.toleranceOverlay() });
     this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending,
       s === null ? 'solving…' : 'no profile', this.file.incidence);
     // The full run's rows include the exact/FEM row; until it is there, show the solve's own.
@@ -314,6 +341,66 @@ class Workbench implements ControlHost, EditorHost {
     const s = this.settings;
     this.spacetime.show({ map: rep?.spacetime ?? null, rays: rep?.rays ?? null, sketch: this.sketch, note },
       { field: s.spacetimeField, gain: s.spacetimeGain, rays: s.spacetimeRays });
+  }
+
+  // ---- design studies and tuning ------------------------------------------------------------
+
+  studyProblems(title: string | null, lines: string[]): void {
+    if (title === null) this.messages.clear('study'); else this.messages.show('study', 'error', title, lines);
+  }
+
+  tuneProblems(title: string | null, lines: string[]): void {
+    if (title === null) this.messages.clear('tune'); else this.messages.show('tune', 'error', title, lines);
+  }
+
+  sweepDone(result: SweepResult): void {
+    this.sweep = { version: this.version, result };
+    if (result.warnings.length > 0) this.messages.show('study', 'warn', 'The sweep\'s cases gave warnings:', result.warnings);
+    this.drawStudyMap();
+  }
+
+  toleranceDone(result: ToleranceResult): void {
+    this.tolerance = { version: this.version, result };
+    if (result.warnings.length > 0) this.messages.show('study', 'warn', 'The tolerance study\'s samples gave warnings:', result.warnings);
+    this.drawFrequencyViews();
+  }
+
+  mapQuantity(q: QuantityName): void {
+    this.mapQuantityName = q;
+    this.drawStudyMap();
+  }
+
+  measuredChanged(m: MeasuredOverlay | null): void {
+    this.measured = m;
+    this.drawFrequencyViews();
+  }
+
+  applyTuned(file: StackFile): void {
+    if (this.edit((f) => { Object.assign(f, structuredClone(file)); })) {
+      this.controls.refresh();
+      this.editor.refresh();
+      this.messages.show('tune', 'info', 'The tuned stack is now the workbench\'s stack.', []);
+    }
+  }
+
+  downloadStack(file: StackFile): void {
+    downloadBlob(`${fileStem(file.title)}-tuned.stack.json`, new Blob([`${JSON.stringify(file, null, 2)}\n`], { type: 'application/json' }));
+  }
+
+  /** Studies hold for the stack they ran on: after an edit they are dropped from the views, saying so. */
+  private drawStudyMap(): void {
+    const sw = this.sweep;
+    const current = sw !== null && sw.version === this.version;
+    this.studyMap.show(current ? sw.result : null, this.mapQuantityName,
+      sw !== null && !current ? 'the stack has changed since the sweep: run it again' : '');
+  }
+
+  private toleranceOverlay(): ToleranceOverlay | null {
+    const t = this.tolerance;
+    if (t === null || t.version !== this.version) return null;
+    const col = (n: string): Float64Array => t.result.columns.find((c) => c.name === n)!.data;
+    const pct = (q: string) => ({ p05: col(`${q}_p05`), p50: col(`${q}_p50`), p95: col(`${q}_p95`) });
+    return { samples: t.result.samples, f_GHz: col('f_GHz'), R: pct('R_power'), T: pct('T_power'), tIsMagnitude: this.file.front === this.file.back };
   }
 
   // ---- pulse run -----------------------------------------------------------------------------
@@ -605,6 +692,11 @@ class Workbench implements ControlHost, EditorHost {
   /** Files of the views beyond the CLI's tables, with a README line each. */
   private exportTexts(): Array<{ name: string; text: string; about: string }> {
     const out: Array<{ name: string; text: string; about: string }> = [];
+    const t = this.tolerance;
+    if (t !== null && t.version === this.version) {
+      out.push({ name: 'tolerance.csv', text: formatCsv(t.result.columns),
+        about: `tolerance.csv: the tolerance study's percentiles (${t.result.samples} samples, seed ${t.result.seed}, varying ${t.result.varies.join('; ')}), as \`slabecho tolerance\` writes them` });
+    }
     const map = this.reportCurrent()?.spacetime ?? null;
     if (map !== null) {
       const g = csvGrid(map), field = this.settings.spacetimeField;
@@ -632,6 +724,7 @@ class Workbench implements ControlHost, EditorHost {
           ['spectrum-view', this.spectrum.chart.canvas],
           ['profile-view', this.profile.chart.canvas],
           ['spacetime-view', this.spacetime.canvas],
+          ...(this.sweep?.version === this.version ? [['study-view', this.studyMap.canvas] as [string, HTMLCanvasElement]] : []),
         ],
         texts: this.exportTexts(),
         clip,

@@ -3,6 +3,7 @@
 
 import type { FieldBoxes, FieldMarks } from './fieldView.ts';
 import type { SpacetimeView } from './spacetime/view.ts';
+import type { StudyMapView } from './studies/mapView.ts';
 
 /** Figures the browser tests and the benchmark read. */
 export interface WorkbenchStats {
@@ -34,6 +35,10 @@ export interface WorkbenchProbe {
   spacetime(): ReturnType<SpacetimeView['probe']>;
   /** The exact/FEM spectrum table of the current stack (the CLI's spectrum.csv columns), or null while solving. */
   solvedSpectrum(): Array<{ name: string; data: number[] }> | null;
+  /** The sweep map's shown quantity over cases × frequencies, or null when no current sweep is drawn. */
+  studyMap(): ReturnType<StudyMapView['probe']>;
+  /** The latest tolerance study's percentile columns (tolerance.csv's), or null. */
+  tolerance(): { samples: number; columns: Array<{ name: string; data: number[] }> } | null;
 }
 type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view' | 'material-plot';
 

@@ -21,6 +21,7 @@ import { findColumn, formatCsv } from '../../src/report/table.ts';
 import { solveTmm } from '../../src/tmm/solve.ts';
 import { stackThickness_m } from '../../src/stack/types.ts';
 import type { WorkbenchProbe, WorkbenchStats } from '../../src/app/stats.ts';
+import { cli, readCsv, tempDir } from '../cli/support.ts';
 
 const ARTIFACTS = join(ROOT, 'test-artifacts');
 const VIEWS = ['field-view', 'trace-view', 'spectrum-view', 'profile-view', 'spacetime-view'] as const;
@@ -369,6 +370,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
         return { head: el.querySelector('.readout-head')?.textContent ?? '', rows: out };
       });
     const hover = async (f_GHz: number, panel = 0): Promise<void> => {
+      await page.locator('[data-testid="spectrum-view"]').scrollIntoViewIfNeeded(); // the views column is taller than the window
       const pt = await probe('chartPoint', 'spectrum-view', f_GHz, panel);
       expect(pt).not.toBeNull();
       await page.mouse.move(pt!.x, pt!.y);
@@ -588,6 +590,119 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     const Rre = fromFile!.find((c) => c.name === 'R_tmm_re')!.data;
     expect(Math.max(...Rre.map((x, i) => Math.abs(x - exact.R_re[i])))).toBeLessThan(1e-12);
     await expect.poll(() => field('me-name').inputValue()).toBe('loaded-foam');
+  });
+
+  it('runs a sweep (a map) and a tolerance study (p05–p95 bands on the spectrum) in a worker, with the numbers `slabecho sweep` and `slabecho tolerance` write', async () => {
+    await choosePreset('default');
+    const panel = page.locator('[data-testid="study-panel"]');
+    const status = panel.locator('[data-testid="study-status"]');
+    await panel.locator('[data-testid="study-axis"]').fill('incidence.angle_deg=0:60:20');
+    await panel.locator('[data-testid="study-sweep"]').click();
+    await expect.poll(() => status.textContent(), { timeout: 30_000 }).toMatch(/sweep: done/);
+    const { dir, cleanup } = tempDir();
+    try {
+      const file = join(dir, 'wall.stack.json');
+      writeFileSync(file, JSON.stringify(DEFAULT_PRESET));
+      // The command line's sweep of the same stack: sweep.csv, one row per case and frequency.
+      const sw = await cli('sweep', file, '--angle', '0:60:20', '--out', join(dir, 'sweep'));
+      expect(sw.code, sw.stderr).toBe(0);
+      const csv = readCsv(readFileSync(join(dir, 'sweep', 'sweep.csv'), 'utf8'));
+      for (const q of ['IL_dB', 'R_power'] as const) {
+        await panel.locator('[data-testid="study-quantity"]').selectOption(q);
+        await expect.poll(async () => (await probe('studyMap'))?.quantity).toBe(q);
+        const map = (await probe('studyMap'))!;
+        expect(map.values).toEqual([0, 20, 40, 60]);
+        const col = csv.header.indexOf(q);
+        expect(map.data.length).toBe(csv.rows.length);
+        csv.rows.forEach((row, i) => expect(Math.abs(map.data[i] - row[col]), `${q} row ${i}`).toBeLessThanOrEqual(1e-11 * Math.max(1, Math.abs(row[col]))));
+      }
+      await page.locator('[data-testid="study-view"]').screenshot({ path: join(ARTIFACTS, 'study-view.png') });
+
+      // Tolerance: the same samples (seed 7) as the command line, the same percentiles.
+      await panel.locator('[data-testid="study-vary"]').fill('layers[0].thickness_mm:normal:2');
+      await panel.locator('[data-testid="study-samples"]').fill('60');
+      await panel.locator('[data-testid="study-seed"]').fill('7');
+      await panel.locator('[data-testid="study-tolerance"]').click();
+      await expect.poll(() => status.textContent(), { timeout: 30_000 }).toMatch(/tolerance study: done/);
+      const tol = await cli('tolerance', file, '--vary', 'layers[0].thickness_mm:normal:2', '--samples', '60', '--seed', '7', '--out', join(dir, 'tol'));
+      expect(tol.code, tol.stderr).toBe(0);
+      const want = readFileSync(join(dir, 'tol', 'tolerance.csv'), 'utf8');
+      const got = (await probe('tolerance'))!;
+      expect(got.samples).toBe(60);
+      expect(formatCsv(got.columns.map((c) => ({ name: c.name, data: Float64Array.from(c.data) })))).toBe(want);
+      // The band is on the spectrum: the readout at 5.2 GHz gives its edges, 10 log10 of R_power's p05 and p95.
+      const wantRows = readCsv(want), at = wantRows.rows.findIndex((r) => Math.abs(r[0] - 5.2) < 1e-9);
+      await page.locator('[data-testid="spectrum-view"]').scrollIntoViewIfNeeded();
+      const pt = (await probe('chartPoint', 'spectrum-view', 5.2, 0))!;
+      await page.mouse.move(pt.x, pt.y);
+      const readout = page.locator('[data-testid="spectrum-view-readout"]');
+      await expect.poll(() => readout.textContent()).toContain('p05–p95 of 60 samples p05');
+      const edge = async (name: string): Promise<number> => Number((await readout.locator('.readout-row', { hasText: `samples ${name}` }).first().locator('.readout-value').textContent())!.replace('−', '-').replace(/\s*dB$/, ''));
+      for (const [name, col] of [['p05', 'R_power_p05'], ['p95', 'R_power_p95']] as const) {
+        expect(Math.abs(await edge(name) - 10 * Math.log10(wantRows.rows[at][wantRows.header.indexOf(col)]))).toBeLessThanOrEqual(0.0005 + 1e-9);
+      }
+      await page.locator('[data-testid="spectrum-view"]').screenshot({ path: join(ARTIFACTS, 'spectrum-view-tolerance.png') });
+      await page.mouse.move(0, 0);
+      // The export carries tolerance.csv as the command line writes it, and the map's picture.
+      const [zip] = await downloadsOf(() => page.click('[data-testid="export"]'), 1);
+      const entries = unzipSync(new Uint8Array(await saved(zip)));
+      const byName = new Map(Object.entries(entries).map(([k, v]) => [k.slice(k.indexOf('/') + 1), Buffer.from(v)]));
+      expect(byName.get('tolerance.csv')?.toString('utf8')).toBe(want);
+      expect([...byName.get('study-view.png')!.subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
+    } finally {
+      cleanup();
+    }
+    // An edit drops the results (they belong to the stack they ran on) and says so.
+    await page.locator('[data-testid="layer-0-thickness"] input').fill('101');
+    await page.locator('[data-testid="layer-0-thickness"] input').press('Enter');
+    await expect.poll(() => page.locator('[data-testid="study-view"]').getAttribute('data-empty')).toMatch(/changed since the sweep/);
+    // A path the stack does not have is refused in the studies core's words.
+    await panel.locator('[data-testid="study-axis"]').fill('layers[7].thickness_mm=1:3:1');
+    await panel.locator('[data-testid="study-sweep"]').click();
+    await expect.poll(() => page.locator('[data-testid="msg-study"]').textContent()).toContain('layers[7]');
+    await choosePreset('default');
+  });
+
+  it('draws a measured CSV on the spectrum and matches a slab\'s thickness to it from the panel, then applies the tuned stack', async () => {
+    // A synthetic measurement: the exact solution of a 12.3 mm slab of ε_r = 4.4 (complex R and T, 41 rows).
+    const slab = (d: number) => ({ title: 'Sample under test', band_GHz: [2, 10], points: 201, layers: [{ material: 'sample', thickness_mm: d }], materials: { sample: { model: 'fixed', eps_r: 4.4 } } });
+    const truth = parseStackObject(slab(12.3));
+    if (!truth.ok) throw new Error(truth.errors.join('; '));
+    const f = Float64Array.from({ length: 41 }, (_, k) => (2 + 0.2 * k) * 1e9);
+    const x = solveTmm(truth.stack, f);
+    const lines = ['f_GHz,R_re,R_im,T_re,T_im', ...Array.from(f, (v, k) => [v / 1e9, x.R_re[k], x.R_im[k], x.T_re[k], x.T_im[k]].map((n) => String(Number(n.toPrecision(12)))).join(','))];
+    const dir = join(ARTIFACTS, 'downloads');
+    writeFileSync(join(dir, 'sample.csv'), `${lines.join('\n')}\n`);
+    writeFileSync(join(dir, 'sample.stack.json'), JSON.stringify(slab(10)));
+    await page.setInputFiles('[data-testid="import"]', join(dir, 'sample.stack.json'));
+    await page.waitForFunction(() => document.querySelector('[data-testid="stack-title"]')?.textContent === 'Sample under test');
+    const panel = page.locator('[data-testid="tune-panel"]');
+    await page.setInputFiles('[data-testid="measured-import"]', join(dir, 'sample.csv'));
+    await expect.poll(() => panel.locator('[data-testid="measured-status"]').textContent()).toBe('sample.csv: 41 rows, R_re, R_im, T_re, T_im');
+    // Drawn beside the methods: the readout names it, with |R| of the measured row at 6 GHz.
+    await expect.poll(() => probe('chartRange', 'spectrum-view')).toEqual([2, 10]);
+    await page.locator('[data-testid="spectrum-view"]').scrollIntoViewIfNeeded();
+    const pt = (await probe('chartPoint', 'spectrum-view', 6, 0))!;
+    await page.mouse.move(pt.x, pt.y);
+    const readout = page.locator('[data-testid="spectrum-view-readout"]');
+    await expect.poll(() => readout.textContent()).toContain('measured (sample.csv)');
+    const shown = Number((await readout.locator('.readout-row', { hasText: 'measured' }).first().locator('.readout-value').textContent())!.replace('−', '-').replace(/\s*dB.*$/, ''));
+    expect(Math.abs(shown - 20 * Math.log10(Math.hypot(x.R_re[20], x.R_im[20])))).toBeLessThanOrEqual(0.0005 + 1e-9);
+    await page.locator('[data-testid="spectrum-view"]').screenshot({ path: join(ARTIFACTS, 'spectrum-view-measured.png') });
+    await page.mouse.move(0, 0);
+    await panel.locator('[data-testid="tune-goal"]').selectOption('match');
+    await panel.locator('[data-testid="tune-free"]').fill('layers[0].thickness_mm=5:20');
+    await panel.locator('[data-testid="tune-budget"]').fill('60');
+    await panel.locator('[data-testid="tune-run"]').click();
+    const result = panel.locator('[data-testid="tune-result"]');
+    await expect.poll(() => result.textContent(), { timeout: 60_000 }).toMatch(/evaluations in/);
+    const best = Number(/layers\[0\]\.thickness_mm = ([\d.]+)/.exec((await result.textContent())!)![1]);
+    expect(Math.abs(best - 12.3)).toBeLessThan(1e-4);
+    await panel.screenshot({ path: join(ARTIFACTS, 'tune-panel.png') });
+    await panel.locator('[data-testid="tune-apply"]').click();
+    await expect.poll(async () => Number(await page.locator('[data-testid="layer-0-thickness"] input').inputValue())).toBeCloseTo(12.3, 4);
+    await panel.locator('[data-testid="measured-clear"]').click();
+    await choosePreset('default');
   });
 
   it('refuses a bad import with the parser’s field-named message and keeps the stack', async () => {

@@ -10,6 +10,7 @@ import { MAGNETIC_MODEL_NAMES, MODEL_NAMES, type MagneticModelName, type ModelNa
 import type { StackFile, StackFileMaterial } from '../../stack/file.ts';
 import { Chart } from '../charts/chart.ts';
 import { isDecimalText } from '../numberField.ts';
+import { button, el, labelled, textInput } from '../dom.ts';
 import { materialPlot } from './plot.ts';
 import {
   freshName, MAGNETIC_FIELDS, MAGNETIC_POLE_FIELDS, MODEL_FIELDS, nextPole, POLE_FIELDS, rowsOf, rowsText, startingDefinition,
@@ -57,8 +58,7 @@ export class MaterialEditor {
   constructor(parent: HTMLElement, private readonly host: EditorHost) {
     this.box = el('section', 'editor');
     this.box.dataset.testid = 'material-editor';
-    const head = el('h3', 'editor-head');
-    head.textContent = 'Your materials';
+    const head = el('h3', 'editor-head', 'Your materials');
     this.form = el('div', 'editor-form');
     this.plotHost = el('div', 'editor-plot');
     this.plotHost.dataset.testid = 'material-plot';
@@ -142,9 +142,7 @@ export class MaterialEditor {
   private fieldsOf(): HTMLElement[] {
     const d = this.def(), name = this.selected;
     if (d === undefined || name === null) {
-      const p = el('p', 'editor-note');
-      p.textContent = 'No materials of your own yet: "new" makes one; a layer can then use it.';
-      return [p];
+      return [el('p', 'editor-note', 'No materials of your own yet: "new" makes one; a layer can then use it.')];
     }
     const model = d.model;
     const out: HTMLElement[] = [this.nameRow(name), this.modelRow(model)];
@@ -204,9 +202,7 @@ export class MaterialEditor {
     const poles = (getIn(this.def(), path) as Definition[] | undefined) ?? [];
     poles.forEach((_, i) => {
       const row = el('div', 'editor-pole');
-      const title = el('span', 'editor-pole-title');
-      title.textContent = `pole ${i + 1}`;
-      row.append(title, ...fields.map((f) => this.numberRow(f, [...path, i, f.key], `${testid}-${i}-${f.key}`)),
+      row.append(el('span', 'editor-pole-title', `pole ${i + 1}`), ...fields.map((f) => this.numberRow(f, [...path, i, f.key], `${testid}-${i}-${f.key}`)),
         button('remove', `${testid}-${i}-remove`, () => this.change((d) => (getIn(d, path) as unknown[]).splice(i, 1), true), poles.length <= 1));
       box.append(row);
     });
@@ -279,39 +275,4 @@ export function switchModel(f: StackFile, name: string, model: ModelName): void 
     if (model === 'sheet') delete l.thickness_mm;
     else if (l.thickness_mm === undefined) l.thickness_mm = 10;
   }
-}
-
-function el(tag: string, cls: string): HTMLElement {
-  const e = document.createElement(tag);
-  e.className = cls;
-  return e;
-}
-
-function textInput(value: string, testid: string): HTMLInputElement {
-  const i = document.createElement('input');
-  i.type = 'text';
-  i.value = value;
-  i.dataset.testid = testid;
-  i.autocomplete = 'off';
-  i.spellcheck = false;
-  return i;
-}
-
-function button(text: string, testid: string, click: () => void, disabled = false): HTMLButtonElement {
-  const b = document.createElement('button');
-  b.type = 'button';
-  b.className = 'small';
-  b.textContent = text;
-  b.dataset.testid = testid;
-  b.disabled = disabled;
-  b.addEventListener('click', click);
-  return b;
-}
-
-function labelled(text: string, control: HTMLElement, block = false): HTMLElement {
-  const row = el('label', block ? 'editor-row editor-block' : 'editor-row');
-  const span = el('span', 'editor-label');
-  span.textContent = text;
-  row.append(span, control);
-  return row;
 }
