@@ -256,7 +256,7 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
     this.field.setStack(this.sketch);
     this.editor?.drawPlot();
     this.tuning?.recheck();
-    this.drawStudyMap();
+    if (this.sweep !== null) this.drawStudyMap();
     this.editStart = performance.now();
     this.solveNow();
     this.restartPulse(350);

@@ -151,8 +151,20 @@ export class MaterialEditor {
     if (poleFields !== undefined) out.push(this.poles(['poles'], poleFields, 'me-pole'));
     if (model === 'table') out.push(...this.tableRows(d as unknown as Definition));
     if (model !== 'sheet' && !(model === 'table' && 'mu_points' in d)) out.push(...this.magneticRows(d as unknown as Definition));
-    out.push(this.textRow('note', ['note'], 'me-note'));
+    out.push(this.rangeRow(), this.textRow('note', ['note'], 'me-note'));
     return out;
+  }
+
+  /** The range the user vouches for, "lo, hi" in GHz (optional; the band leaving it gives a warning). */
+  private rangeRow(): HTMLElement {
+    const v = this.def()?.valid_GHz;
+    const input = textInput(Array.isArray(v) ? v.join(', ') : '', 'me-valid');
+    input.placeholder = 'optional: lo, hi';
+    input.addEventListener('change', () => {
+      const t = input.value.trim();
+      this.change((d) => setIn(d, ['valid_GHz'], t === '' ? undefined : t.split(/\s*[,;:]\s*|\s+/).map(typed)));
+    });
+    return labelled('valid (GHz)', input);
   }
 
   private nameRow(name: string): HTMLElement {

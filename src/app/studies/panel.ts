@@ -73,6 +73,7 @@ export class StudyPanel {
       button('run the tolerance study', 'study-tolerance', () => this.runTolerance()),
       el('div', 'editor-row study-run', ''),
       this.status,
+      el('p', 'editor-note', 'A worst case or a 95th percentile holds for the idealised stack and the spreads given, not for a built wall or enclosure: measure before relying on it, and defer to local codes and licensed practice for shielding or exposure limits.'),
     );
     box.querySelector('.study-run')!.append(this.progress, this.cancelButton);
     parent.append(box);

@@ -125,7 +125,7 @@ export class TunePanel {
 
   /** The measurement against the current stack (its band may have moved): drawn, or its problems shown. */
   recheck(): void {
-    if (this.measured === null) { this.host.measuredChanged(null); return; }
+    if (this.measured === null) return; // nothing drawn, nothing to redraw
     const r = readMeasured(this.measured.text, this.measured.name, this.host.stack);
     if (!r.ok) {
       this.status.textContent = `${this.measured.name}: does not fit this stack (see the messages)`;
