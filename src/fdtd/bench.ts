@@ -4,7 +4,7 @@
 import { C0_m_per_s } from '../units.ts';
 import { uniformGrid } from './build.ts';
 import { type KernelState, updateE, updateH } from './kernel.ts';
-import { stepModelFixed } from './media.ts';
+import { lineMedium, stepModelFixed } from './media.ts';
 import { DEFAULT_PML_CELLS } from './plan.ts';
 import { type PulseShape, pulseForBand, pulseValue } from './pulse.ts';
 
@@ -16,7 +16,7 @@ const BAND: [number, number] = [1e9, 10e9];
 export function benchGrid(cells: number): BenchGrid {
   const n = Math.max(cells, 2 * DEFAULT_PML_CELLS + 8);
   const dx = C0_m_per_s / BAND[1] / 2 / 20, courant = 1, dt = (courant * dx) / C0_m_per_s;
-  const state = uniformGrid(n, stepModelFixed(4, 0.01), {
+  const state = uniformGrid(n, lineMedium(stepModelFixed(4, 0.01)), {
     courant, dt_s: dt, band_Hz: BAND, pmlFront: DEFAULT_PML_CELLS, pmlBack: DEFAULT_PML_CELLS,
   });
   return { state, pulse: pulseForBand(BAND, dt), dt_s: dt, source: n >> 1, step: 0 };

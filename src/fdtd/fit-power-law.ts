@@ -14,7 +14,10 @@
 // of ε' and of ε'' at f (`probeWeight`, from the stack: a wall that swallows a wave does not make its
 // depth matter), floored so neither part is ignored. Kramers–Kronig forbids a flat ε' with a falling ε'',
 // so a residue remains; it is reported beside the results (worst errors over the band).
+// `fitCausal` is the same program for any target; it also steps a fixed permeability with loss (μ' − jμ''
+// constant over the band, not causal either) with μ∞ and μ' ≥ min(1, μ') and no conduction term.
 
+import type { Complex } from '../complex.ts';
 import type { PowerLawModel } from '../materials/types.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import { EPS0_F_per_m } from '../units.ts';
@@ -26,6 +29,8 @@ import { minimizeLp } from './simplex.ts';
 export interface PowerLawFit {
   /** Material name (as the stack names it). */
   material: string;
+  /** What was fitted: the permittivity (a power law) or the permeability (a fixed μ with loss, fitCausal). */
+  quantity: 'permittivity' | 'permeability';
   band_Hz: [number, number];
   model: StepModel;
   /** max |ε'_fit − ε'| / ε' over the band. */
@@ -34,7 +39,7 @@ export interface PowerLawFit {
   maxRelErr_im: number;
   /** max |ε_fit − ε| / |ε| over the band. */
   maxRelErr_abs: number;
-  /** Smallest ε'_fit from half the band's bottom to twice its top (≥ 1 by construction). */
+  /** Smallest ε'_fit (μ' for a permeability) from half the band's bottom to twice its top (≥ the floor by construction). */
   minEpsRe_wide: number;
   /** Frequencies the fit covered (the band and the pulse's support around it). */
   fitRange_Hz: [number, number];
@@ -44,6 +49,12 @@ export interface PowerLawFit {
 export type ProbeWeight = (f_Hz: number) => { re: number; im: number };
 
 export interface FitOptions {
+  /** ε∞ and ε' over the wide range stay at or above this (default 1). */
+  floor?: number;
+  /** σ of the fit at most this (default 0: no conduction). */
+  sigmaMax?: number;
+  /** What the target is (default 'permittivity'). */
+  quantity?: PowerLawFit['quantity'];
   /** Sensitivity of R and T to this material (default: all frequencies alike). */
   probeWeight?: ProbeWeight;
   /** The run's pulse (default: the engine's pulse for the band). */
@@ -82,17 +93,23 @@ const WIDE_CHECK_POINTS = 600;
 
 interface Sample { f: number; w: number; re: number; im: number }
 
-const logspace = (a: number, b: number, n: number): number[] =>
-  n <= 1 ? [a] : Array.from({ length: n }, (_, i) => a * Math.pow(b / a, i / (n - 1)));
-
-/** Band and out-of-band samples with their base weights (1 in the band, falling with the pulse outside). */
-function samples(pl: PowerLawModel, band: [number, number], pulse: PulseShape): { list: Sample[]; range: [number, number] } {
-  const [f1, f2] = band;
-  const edge = Math.min(pulseSpectrumRelative(pulse, f1), pulseSpectrumRelative(pulse, f2));
+/** The band and the pulse's spectral support around it (down to SUPPORT_LEVEL, within the limits). */
+function supportRange([f1, f2]: [number, number], pulse: PulseShape): [number, number] {
   const peak = pulseSpectrumRelative(pulse, pulse.f0_Hz);
   let lo = f1, hi = f2;
   while (lo > f1 * SUPPORT_LOW_LIMIT && pulseSpectrumRelative(pulse, lo / 1.05) > SUPPORT_LEVEL * peak) lo /= 1.05;
   while (hi < f2 * SUPPORT_HIGH_LIMIT && pulseSpectrumRelative(pulse, hi * 1.05) > SUPPORT_LEVEL * peak) hi *= 1.05;
+  return [lo, hi];
+}
+
+const logspace = (a: number, b: number, n: number): number[] =>
+  n <= 1 ? [a] : Array.from({ length: n }, (_, i) => a * Math.pow(b / a, i / (n - 1)));
+
+/** Band and out-of-band samples with their base weights (1 in the band, falling with the pulse outside). */
+function samples(target: Target, band: [number, number], pulse: PulseShape): { list: Sample[]; range: [number, number] } {
+  const [f1, f2] = band;
+  const edge = Math.min(pulseSpectrumRelative(pulse, f1), pulseSpectrumRelative(pulse, f2));
+  const [lo, hi] = supportRange(band, pulse);
   const fs: { f: number; w: number }[] = [];
   const decades = (a: number, b: number) => Math.log10(b / a);
   const nBand = Math.max(BAND_MIN_SAMPLES, Math.ceil(BAND_SAMPLES_PER_DECADE * decades(f1, f2)));
@@ -110,7 +127,7 @@ function samples(pl: PowerLawModel, band: [number, number], pulse: PulseShape): 
   if (lo < f1) outside(lo, f1, false);
   if (hi > f2) outside(f2, hi, true);
   const list = fs.map(({ f, w }) => {
-    const e = permittivity(pl, f);
+    const e = target(f);
     return { f, w, re: e.re, im: -e.im };
   });
   return { list, range: [lo, hi] };
@@ -143,23 +160,38 @@ function columns(terms: Term[], w: number, outRe: Float64Array, outIm: Float64Ar
   }
 }
 
+/** The complex value to fit at f ({re: x', im: −x''}). */
+export type Target = (f_Hz: number) => Complex;
+
 export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', options: FitOptions = {}): PowerLawFit {
+  // σ ≤ σ of the table at the bottom of the fitted range (no invented DC conduction).
+  const range = supportRange(band_Hz, options.pulse ?? pulseForBand(band_Hz));
+  const sigmaMax = Math.max(0, pl.c * Math.pow(range[0] / 1e9, pl.d));
+  return fitCausal((f) => permittivity(pl, f), band_Hz, material, { ...options, sigmaMax });
+}
+
+/**
+ * The same fit of any target: a passive causal model ∞ − jσ/(ωε0) + Σ c_k/(ω_k² − ω² + jωγ_k) with ∞ ≥ floor,
+ * the real part ≥ floor over the wide range, σ ≤ sigmaMax. A fixed permeability with loss (a constant μ'' is not
+ * causal) is stepped through it with floor min(1, μ') and no σ.
+ */
+export function fitCausal(target: Target, band_Hz: [number, number], material: string, options: FitOptions = {}): PowerLawFit {
   const [f1, f2] = band_Hz;
-  const { list, range } = samples(pl, band_Hz, options.pulse ?? pulseForBand(band_Hz));
+  const floor = options.floor ?? 1;
+  const { list, range } = samples(target, band_Hz, options.pulse ?? pulseForBand(band_Hz));
   const terms = dictionary(range);
   const weights = errorWeights(list, options.probeWeight);
-  // σ ≤ σ of the table at the bottom of the fitted range (no invented DC conduction).
-  const sigmaMax = Math.max(0, pl.c * Math.pow(range[0] / 1e9, pl.d));
-  // ε' ≥ 1: imposed at fixed points, then (cutting planes) wherever the fit still dips below 1.
+  const sigmaMax = options.sigmaMax ?? 0;
+  // ε' ≥ floor: imposed at fixed points, then (cutting planes) wherever the fit still dips below it.
   const checks = logspace(f1 / 2, 2 * f2, EPS_RE_CHECKS);
-  let model = solveFit(list, weights, terms, checks, sigmaMax);
+  let model = solveFit(list, weights, terms, checks, sigmaMax, floor);
   for (let round = 0; round < EPS_RE_ROUNDS; round++) {
-    const dips = epsReDips(model, [f1 / 2, 2 * f2]);
+    const dips = epsReDips(model, [f1 / 2, 2 * f2], floor);
     if (dips.length === 0) break;
     checks.push(...dips);
-    model = solveFit(list, weights, terms, checks, sigmaMax);
+    model = solveFit(list, weights, terms, checks, sigmaMax, floor);
   }
-  return { material, band_Hz: [f1, f2], model, ...fitErrors(pl, model, band_Hz), fitRange_Hz: range };
+  return { material, quantity: options.quantity ?? 'permittivity', band_Hz: [f1, f2], model, ...fitErrors(target, model, band_Hz, floor), fitRange_Hz: range };
 }
 
 /** Weights on the relative errors of ε' and ε'': the probes' sensitivity, floored, times the sample's base weight. */
@@ -173,8 +205,8 @@ function errorWeights(list: Sample[], probeWeight?: ProbeWeight): { re: number[]
   };
 }
 
-/** Frequencies where ε'_fit dips below 1: local minima of a fine grid, refined by golden-section search. */
-function epsReDips(model: StepModel, [a, b]: [number, number]): number[] {
+/** Frequencies where ε'_fit dips below the floor: local minima of a fine grid, refined by golden-section search. */
+function epsReDips(model: StepModel, [a, b]: [number, number], floor: number): number[] {
   const fs = logspace(a, b, WIDE_CHECK_POINTS), re = (f: number) => stepModelPermittivity(model, f).re;
   const v = fs.map(re);
   const out: number[] = [];
@@ -188,13 +220,13 @@ function epsReDips(model: StepModel, [a, b]: [number, number]): number[] {
       if (re(Math.exp(x1)) < re(Math.exp(x2))) hi = x2; else lo = x1;
     }
     const f = Math.exp((lo + hi) / 2);
-    if (re(f) < 1) out.push(f);
+    if (re(f) < floor) out.push(f);
   }
   return out;
 }
 
 /** The linear program of the header comment, solved; its unknowns as a step model. */
-function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms: Term[], checks: number[], sigmaMax: number): StepModel {
+function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms: Term[], checks: number[], sigmaMax: number, floor: number): StepModel {
   const lossless = list.every((s) => s.im === 0);
   const nx = 2 + terms.length, n = nx + 1; // unknowns, then t
   const m = 4 * list.length + checks.length + 1;
@@ -217,13 +249,13 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
   list.forEach((s, i) => {
     columns(terms, 2 * Math.PI * s.f, cr, ci);
     const ar = weights.re[i] / s.re;
-    put(ar, 0, ar * (s.re - 1), 1); //  w'(ε'_fit − ε')/ε' ≥ −t
-    put(-ar, 0, -ar * (s.re - 1), 1); // w'(ε'_fit − ε')/ε' ≤ t
+    put(ar, 0, ar * (s.re - floor), 1); //  w'(ε'_fit − ε')/ε' ≥ −t
+    put(-ar, 0, -ar * (s.re - floor), 1); // w'(ε'_fit − ε')/ε' ≤ t
     const ai = weights.im[i] / (lossless ? s.re : s.im); // a lossless table: ε'' relative to ε'
     put(0, ai, ai * s.im, 1);
     put(0, -ai, -ai * s.im, 1);
   });
-  for (const f of checks) { columns(terms, 2 * Math.PI * f, cr, ci); put(1, 0, 0, 0); } // ε'_fit − 1 ≥ 0
+  for (const f of checks) { columns(terms, 2 * Math.PI * f, cr, ci); put(1, 0, 0, 0); } // ε'_fit − floor ≥ 0
   cr.fill(0); ci.fill(0); cr[1] = -1;
   put(1, 0, -sigmaMax, 0); // −σ ≥ −σ_max
   const c = new Float64Array(n);
@@ -232,19 +264,19 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
   const sol = minimizeLp(c, G, h, m, n);
   const x = Array.from({ length: nx }, (_, j) => sol.x[j] * scale[j]);
   return {
-    epsInf: 1 + x[0], sigma: x[1], debye: [],
+    epsInf: floor + x[0], sigma: x[1], debye: [],
     osc: terms.map((t, k) => ({ c: x[2 + k], w0sq: t.w0sq, gamma: t.gamma })).filter((o) => o.c > 0),
   };
 }
 
 /** Worst relative errors over the band and the smallest ε' from half its bottom to twice its top. */
-export function fitErrors(pl: PowerLawModel, model: StepModel, band: [number, number]): Omit<PowerLawFit, 'material' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
+export function fitErrors(target: Target, model: StepModel, band: [number, number], floor = 1): Omit<PowerLawFit, 'material' | 'quantity' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
   const [f1, f2] = band;
   let eRe = 0, eIm = 0, eAbs = 0;
   for (let i = 0; i < CHECK_POINTS; i++) {
     // Linear and logarithmic spacing (a wide band's bottom decade gets points too).
     for (const f of [f1 + ((f2 - f1) * i) / (CHECK_POINTS - 1), f1 * Math.pow(f2 / f1, i / (CHECK_POINTS - 1))]) {
-      const t = permittivity(pl, f), g = stepModelPermittivity(model, f);
+      const t = target(f), g = stepModelPermittivity(model, f);
       eRe = Math.max(eRe, Math.abs(g.re - t.re) / Math.abs(t.re));
       if (t.im !== 0) eIm = Math.max(eIm, Math.abs(g.im - t.im) / Math.abs(t.im));
       eAbs = Math.max(eAbs, Math.hypot(g.re - t.re, g.im - t.im) / Math.hypot(t.re, t.im));
@@ -252,6 +284,6 @@ export function fitErrors(pl: PowerLawModel, model: StepModel, band: [number, nu
   }
   let minRe = Infinity;
   for (const f of logspace(f1 / 2, 2 * f2, WIDE_CHECK_POINTS)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
-  for (const f of epsReDips(model, [f1 / 2, 2 * f2])) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
+  for (const f of epsReDips(model, [f1 / 2, 2 * f2], floor)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
   return { maxRelErr_re: eRe, maxRelErr_im: eIm, maxRelErr_abs: eAbs, minEpsRe_wide: minRe };
 }

@@ -16,7 +16,7 @@
 
 import type { Profile } from '../results.ts';
 import type { Stack } from '../stack/types.ts';
-import { buildGrids } from './build.ts';
+import { type EnergyWeights, buildGrids } from './build.ts';
 import { SETTLED_FRACTION, SpectraWatch } from './convergence.ts';
 import { FdtdInstabilityError } from './errors.ts';
 import { type DispersiveSpan, type KernelState, updateE, updateH } from './kernel.ts';
@@ -40,9 +40,11 @@ export function profileStride(pulse: PulseShape, profile_Hz: number, dt_s: numbe
 }
 
 /**
- * Energy held by the poles (normalized like the field energy): P̃²/Δε for a Debye pole, (P̃'² + ω0²P̃²)/c for a
- * second-order one (their stored energies, dropping ε0/2 as the field energy does). `e` is the E of the same
- * step, which completes the state (kernel.ts).
+ * Energy held by the poles of one field (normalized like the field energy): P̃²/Δε for a Debye pole,
+ * (P̃'² + ω0²P̃²)/c for a Lorentz or Drude one (their stored energies, dropping ε0/2 as the field energy does).
+ * The terms of a partial fraction (inverse.ts) may have negative strengths or an s-term; for them the same forms
+ * with the kernel's positive scales (|Δ|, |c| + ω0|d|) measure a state that falls to zero with it. `e` is the
+ * field of the same step, which completes the state (kernel.ts).
  */
 export function poleEnergy(d: DispersiveSpan | null, e: Float64Array, dt: number): number {
   if (d === null) return 0;
@@ -84,7 +86,7 @@ class Run implements PulseRun {
   readonly warnings: string[];
   private readonly main: KernelState;
   private readonly aux: KernelState;
-  private readonly epsInf: Float64Array;
+  private readonly weights: EnergyWeights;
   private n = 0;
   private finished: DoneReason | null = null;
   private readonly recInc: Recorder;
@@ -112,7 +114,7 @@ class Run implements PulseRun {
     const built = buildGrids(plan, stack.band_Hz);
     this.main = built.main;
     this.aux = built.aux;
-    this.epsInf = built.epsInf;
+    this.weights = built.weights;
     const cap = Math.min(plan.expectedSteps + 1, plan.stepsLimit + 1);
     this.recInc = new Recorder(cap);
     this.recRef = new Recorder(cap);
@@ -183,13 +185,13 @@ class Run implements PulseRun {
     this.incIm -= inc * s;
   }
 
-  /** Stored energy now: fields and pole states (normalized units, see EnergyReading). */
+  /** Stored energy now: fields and pole states of both sides (normalized units, see EnergyReading). */
   private storedEnergy(): number {
-    const e = this.main.e, h = this.main.h, w = this.epsInf;
+    const e = this.main.e, h = this.main.h, we = this.weights.epsInf, wh = this.weights.muInf;
     let W = 0;
-    for (let i = 0; i < e.length; i++) W += w[i] * e[i] * e[i];
-    for (let i = 0; i < h.length; i++) W += h[i] * h[i];
-    return W + poleEnergy(this.main.disp, e, this.plan.dt_s);
+    for (let i = 0; i < e.length; i++) W += we[i] * e[i] * e[i];
+    for (let i = 0; i < h.length; i++) W += wh[i] * h[i] * h[i];
+    return W + poleEnergy(this.main.disp, e, this.plan.dt_s) + poleEnergy(this.main.mdisp, h, this.plan.dt_s);
   }
 
   private watchEnergy(t: number): void {

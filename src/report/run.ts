@@ -31,7 +31,7 @@ export interface RunReport extends Report {
   trace: Column[];
   /** True when shouldStop ended the run early: every table is complete but the run is cut short. */
   stopped: boolean;
-  /** Set when the pulse engine declined this stack (e.g. oblique incidence): solve's results only. */
+  /** Set when the pulse engine declined this stack (e.g. a lossy front medium at an angle): solve's results only. */
   skipped?: string;
 }
 
@@ -42,7 +42,8 @@ const r6 = (x: number): number => Number(x.toPrecision(6));
 /**
  * Run the exact solution (and whatever else solveReport runs) and the FDTD pulse, and assemble the report.
  * Throws PlanError when the grid is refused as too large, FdtdInstabilityError when the run blows up.
- * A stack the engine does not model (PlanError 'unsupported', e.g. oblique incidence) gives solve's
+ * A stack the engine does not model (PlanError 'unsupported': a lossy front medium at an angle, a medium
+ * evanescent up to any frequency) gives solve's
  * report with empty pulse tables, `skipped` set and a warning.
  */
 export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
@@ -125,7 +126,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const allAgreement = [...base.agreement, ...agreement];
   summary.agreement = allAgreement.map(roundedRow);
 
-  methods.push({ name: 'fdtd', description: stack.incidence.angle_rad === 0 ? 'leapfrog FDTD pulse run (normal incidence)' : `leapfrog FDTD pulse run (${stack.incidence.polarization} at ${r6(degFromRad(stack.incidence.angle_rad))}°, as normal incidence on ε_r − ε_front sin²θ)`, time_ms: Math.round(run_ms * 1e3) / 1e3 });
+  methods.push({ name: 'fdtd', description: fdtdDescription(stack), time_ms: Math.round(run_ms * 1e3) / 1e3 });
   summary.methods = methods;
   summary.grid = gridSummary(run.plan);
   const energy = run.energy();
@@ -189,6 +190,14 @@ function spectrumFromColumns(cols: readonly Column[], tag: string, f_Hz: Float64
   const R_re = g(`R_${tag}_re`), R_im = g(`R_${tag}_im`), T_re = g(`T_${tag}_re`), T_im = g(`T_${tag}_im`);
   if (!R_re || !R_im || !T_re || !T_im) return null;
   return { f_Hz, R_re, R_im, T_re, T_im };
+}
+
+/** What the pulse engine stepped, in words (the phase-matched line at an angle, fdtd/oblique.ts). */
+function fdtdDescription(stack: Stack): string {
+  const { angle_rad, polarization } = stack.incidence;
+  if (angle_rad === 0) return 'leapfrog FDTD pulse run (normal incidence)';
+  const line = polarization === 'TE' ? 'series μ, shunt ε − s²/μ' : 'series μ − s²/ε, shunt ε';
+  return `leapfrog FDTD pulse run (${polarization} at ${r6(degFromRad(angle_rad))}°, as the phase-matched line: ${line}, s² = ε_front μ_front sin²θ)`;
 }
 
 /** Which rule ended the run, in words. */

@@ -12,7 +12,7 @@ import { describe, expect, it } from 'vitest';
 import { uniformGrid } from '../../src/fdtd/build.ts';
 import { discreteWave, warpedFrequency } from '../../src/fdtd/discrete.ts';
 import { gridGeometry, gridResponse } from '../../src/fdtd/grid-response.ts';
-import { stepModelFixed, stepModelOf, stepModelPermittivity } from '../../src/fdtd/media.ts';
+import { lineMedium, stepModelFixed, stepModelOf, stepModelPermittivity } from '../../src/fdtd/media.ts';
 import { createPulseRun, runToEndSync } from '../../src/fdtd/run.ts';
 import { solveEffective } from '../../src/fdtd/stepped-exact.ts';
 import type { Stack } from '../../src/stack/types.ts';
@@ -30,7 +30,7 @@ describe('the grid’s waves', () => {
   it('lossless medium: k̃ from the 1D Yee dispersion relation', () => {
     const n = 2, dx = 1e-3, S = 0.8, dt = (S * dx) / C0_m_per_s;
     for (const f of [1e9, 10e9, 40e9]) {
-      const w = discreteWave(stepModelFixed(n * n), f, dx, dt, S);
+      const w = discreteWave(lineMedium(stepModelFixed(n * n)), f, dx, dt, S);
       const k = (2 / dx) * Math.asin((n / S) * Math.sin(Math.PI * f * dt));
       expect(Math.abs(w.k.re - k) / k).toBeLessThan(1e-12);
       expect(Math.abs(w.k.im)).toBeLessThan(1e-12 * k);
@@ -42,7 +42,7 @@ describe('the grid’s waves', () => {
     const dt = 2e-12;
     for (const m of [water, resonant]) {
       const model = stepModelOf(m.spec as never);
-      const g = uniformGrid(20, model, { courant: 1, dt_s: dt, band_Hz: [1e9, 10e9], pmlFront: 0, pmlBack: 0 }).disp!.groups[0];
+      const g = uniformGrid(20, lineMedium(model), { courant: 1, dt_s: dt, band_Hz: [1e9, 10e9], pmlFront: 0, pmlBack: 0 }).disp!.groups[0];
       for (const f of [0.5e9, 5e9, 50e9]) {
         const z = { re: Math.cos(2 * Math.PI * f * dt), im: Math.sin(2 * Math.PI * f * dt) };
         const zp1 = { re: z.re + 1, im: z.im };

@@ -8,7 +8,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { uniformGrid } from '../../src/fdtd/build.ts';
-import type { StepModel } from '../../src/fdtd/media.ts';
+import { type StepModel, lineMedium } from '../../src/fdtd/media.ts';
 import { courantLimit } from '../../src/fdtd/plan.ts';
 import { createPulseRun, runToEndSync } from '../../src/fdtd/run.ts';
 import { EPS0_F_per_m, linspace } from '../../src/units.ts';
@@ -40,7 +40,7 @@ function largestRoot(p: Poly): number {
 
 /** 4S²κ z + ε_d(z)(z − 1)² = 0 with the kernel's own coefficients for a single-pole medium, times its denominator. */
 function vonNeumann(model: StepModel, dt: number, S: number, kappa: number): Poly {
-  const g = uniformGrid(8, model, { courant: S, dt_s: dt, band_Hz: [1e9, 2e9], pmlFront: 0, pmlBack: 0 }).disp!.groups[0];
+  const g = uniformGrid(8, lineMedium(model), { courant: S, dt_s: dt, band_Hz: [1e9, 2e9], pmlFront: 0, pmlBack: 0 }).disp!.groups[0];
   const sig = (model.sigma * dt) / (2 * EPS0_F_per_m);
   // χ = Num/Den: Debye b(z+1)/(z − a); second order ζ(z+1)²/(z² − αz − ξ).
   const [num, den] = g.nd === 1 ? [pscale([1, 1], g.db[0]), [-g.da[0], 1]] : [pscale([1, 2, 1], g.oz[0]), [-g.ox[0], -g.oa[0], 1]];
@@ -72,7 +72,7 @@ describe('von Neumann stability of the coupled update (kernel coefficients)', ()
     fc.assert(fc.property(poleArb, fc.double({ min: 0.3, max: 10, noNaN: true }), fc.double({ min: 0.01, max: 100, noNaN: true }),
       fc.oneof(fc.constant(0), fc.double({ min: 1e-3, max: 10, noNaN: true })), (pole, epsInf, deps, sigma) => {
         const m = poleMedium(pole, epsInf, deps, sigma, dt);
-        const S = courantLimit([m]);
+        const S = courantLimit([lineMedium(m)]);
         for (const kappa of [0.02, 0.25, 0.7, 1]) expect(largestRoot(vonNeumann(m, dt, S, kappa))).toBeLessThanOrEqual(1 + 1e-6);
         expect(largestRoot(vonNeumann(m, dt, 1.05 * Math.sqrt(epsInf), 1))).toBeGreaterThan(1 + 1e-6);
       }), { numRuns: 100 });

@@ -1,6 +1,6 @@
 // A stack with a magnetic material through the report pipelines: μ_r at the band centre in the summary,
-// the FEM row within its target, the tangential H in TM, and the pulse engine declining it for now with a
-// plain message (the exact and FEM results still written).
+// the FEM row within its target, the tangential H in TM, and the pulse engine stepping it (the exact and FEM
+// results still written beside it).
 
 import { describe, expect, it } from 'vitest';
 import { materialRow, parameterText } from '../../src/cli/commands/materials.ts';
@@ -52,11 +52,12 @@ describe('magnetic materials in the reports', () => {
     expect(Math.abs(findColumn(rep.profile, 'H_tmm_re')!.data[last]) + Math.abs(findColumn(rep.profile, 'H_tmm_im')!.data[last])).toBeGreaterThan(0.1);
   });
 
-  it('the pulse engine declines a magnetic stack with a plain message; solve\'s results are kept', async () => {
+  it('the pulse engine steps a magnetic stack, its agreement row within the target; solve\'s results are kept', async () => {
     const r = await runReport(absorber('TE'));
-    expect(r.skipped).toMatch(/"loaded-rubber" is magnetic \(μ_r ≠ 1\).*does not step/);
-    expect(r.warnings.some((w) => w.startsWith('FDTD skipped: '))).toBe(true);
-    expect(r.trace.every((c) => c.data.length === 0)).toBe(true);
+    expect(r.skipped).toBeUndefined();
+    expect(r.trace.every((c) => c.data.length > 100)).toBe(true);
+    const row = r.agreement.find((a) => a.pair === 'fdtd-tmm')!;
+    expect(Math.max(row.R_max, row.T_max)).toBeLessThan(0.01);
     expect(findColumn(r.spectrum, 'R_fem_re')).toBeDefined();
     expect(findColumn(r.profile, 'E_tmm_re')).toBeDefined();
   });
