@@ -41,6 +41,7 @@ const CONVERGED = 1e-15;
 const REAL_TOL = 1e-9;
 const CHECK_TOL = 1e-8;
 const CHECK_POINTS = 81;
+const SLOWEST_CONDUCTION_S = 1000;
 
 function scaled(m: StepModel, ws: number): Scaled {
   return {
@@ -178,10 +179,10 @@ function termsOf(m: Scaled, zeros: Cx[], ws: number): { debye: DebyeTerm[]; osc:
   for (const z of upper) {
     if (z.re > REAL_TOL * cabs(z)) throw new ReciprocalError(`a zero at s = ${(z.re * ws).toPrecision(3)} + j${(z.im * ws).toPrecision(3)} rad/s is in the right half-plane`);
     const rho = cdiv({ re: 1, im: 0 }, evaluate(m, z).dv);
-    const re = Math.min(0, z.re);
+    const re = z.re < 0 ? z.re : 0;
     // ρ z̄
     const rz = { re: rho.re * re + rho.im * z.im, im: rho.im * re - rho.re * z.im };
-    osc.push({ c: -2 * rz.re * ws * ws, d: 2 * rho.re * ws, w0sq: (re * re + z.im * z.im) * ws * ws, gamma: -2 * re * ws });
+    osc.push({ c: -2 * rz.re * ws * ws, d: 2 * rho.re * ws, w0sq: (re * re + z.im * z.im) * ws * ws, gamma: re < 0 ? -2 * re * ws : 0 });
   }
   return { debye, osc };
 }
@@ -190,7 +191,8 @@ function termsOf(m: Scaled, zeros: Cx[], ws: number): { debye: DebyeTerm[]; osc:
 function reconstructionError(m: StepModel, r: StepModel, lo_Hz: number, hi_Hz: number): number {
   let worst = 0;
   for (let i = 0; i < CHECK_POINTS; i++) {
-    const f = lo_Hz * Math.pow(hi_Hz / lo_Hz, i / (CHECK_POINTS - 1));
+    // Offset from the decades, so no point falls exactly on a lossless resonance.
+    const f = lo_Hz * Math.pow(hi_Hz / lo_Hz, (i + 0.371) / CHECK_POINTS);
     const a = cdiv({ re: 1, im: 0 }, stepModelPermittivity(m, f)), b = stepModelPermittivity(r, f);
     worst = Math.max(worst, cabs({ re: a.re - b.re, im: a.im - b.im }) / cabs(a));
   }
@@ -198,13 +200,20 @@ function reconstructionError(m: StepModel, r: StepModel, lo_Hz: number, hi_Hz: n
 }
 
 /** 1/m as a step model: ∞ part 1/m∞, no σ, Debye and second-order terms (strengths of either sign, s-terms). */
-export function reciprocal(m: StepModel): StepModel {
-  if (!(m.epsInf > 0)) throw new ReciprocalError(`the model's high-frequency value ${m.epsInf} is not positive`);
+export function reciprocal(model: StepModel): StepModel {
+  if (!(model.epsInf > 0)) throw new ReciprocalError(`the model's high-frequency value ${model.epsInf} is not positive`);
+  // A conduction term relaxing slower than SLOWEST_CONDUCTION_S (its share of ε at 1 MHz below 1e-9) is left
+  // out of the reciprocal: it would only put a pole where no pulse can reach it (and underflow the scaling).
+  const m = model.sigma > 0 && (EPS0_F_per_m * model.epsInf) / model.sigma > SLOWEST_CONDUCTION_S ? { ...model, sigma: 0 } : model;
   const constant: StepModel = { epsInf: 1 / m.epsInf, sigma: 0, debye: [], osc: [] };
   if (m.sigma === 0 && m.debye.length === 0 && m.osc.length === 0) return constant;
+  // The scale: the geometric mean of the poles' magnitudes, and for poles at s = 0 of the zeros they make
+  // (σ/(ε0 m∞) for a conduction term, √(c/m∞) for a Drude term).
   const mags: number[] = [];
   for (const q of polesOf(scaled(m, 1))) if (cabs(q.p) > 0) mags.push(cabs(q.p));
-  const ws = mags.length > 0 ? Math.exp(mags.reduce((a, x) => a + Math.log(x), 0) / mags.length) : m.sigma / (EPS0_F_per_m * m.epsInf);
+  if (m.sigma > 0) mags.push(m.sigma / (EPS0_F_per_m * m.epsInf));
+  for (const t of m.osc) if (t.w0sq === 0 && t.c > 0) mags.push(Math.sqrt(t.c / m.epsInf));
+  const ws = mags.length > 0 ? Math.exp(mags.reduce((a, x) => a + Math.log(x), 0) / mags.length) : 1;
   const sm = scaled(m, ws);
   const poles = polesOf(sm);
   const zeros = zerosOf(sm, poles);

@@ -10,7 +10,7 @@
 import { ETA0_ohm, C0_m_per_s } from '../units.ts';
 import { type Complex } from '../complex.ts';
 import { type LineMedium, type StepModel, lineAdmittance, lineIndex } from './media.ts';
-import type { PulseShape } from './pulse.ts';
+import { type PulseShape, pulseSpectrumRelative } from './pulse.ts';
 import type { EffectiveStack } from './types.ts';
 
 /** A path is seen by the probes while its amplitude is above this fraction of the accuracy target. */
@@ -104,10 +104,23 @@ export function estimateSteps(s: StepInputs): StepEstimate {
   const minimum = s.pulse.end_s + 2 * transit;
   const media = [eff.front, ...segs.map((g) => g.model), ...(eff.back === 'pec' ? [] : [eff.back])];
   const slowest = Math.max(0, ...media.map(slowestRelaxation));
-  const relaxation = Number.isFinite(slowest) ? (slowest * s.decay_dB * Math.LN10) / 20 : 0;
+  // A pole slower than the pulse's lowest content is barely excited (the pulse has no DC): its relaxation is
+  // counted at most up to that content's period (the TM line of a faintly conducting layer has τ = ε0ε′/σ).
+  const relaxation = Number.isFinite(slowest) ? (Math.min(slowest, slowestExcited(s.pulse)) * s.decay_dB * Math.LN10) / 20 : 0;
   const expected = minimum + ring + relaxation;
   const limit = 3 * expected + (Number.isFinite(slowest) ? 0 : LOSSLESS_LIMIT_FACTOR * expected);
   return { expected_s: expected, minimum_s: minimum, slowestRelaxation_s: slowest, limit_s: limit };
+}
+
+/** Content of the pulse below this fraction of its peak excites nothing that matters. */
+const EXCITED_LEVEL = 1e-6;
+
+/** The slowest time constant the pulse excites: 1/(2π f) at the lowest f where its spectrum is above EXCITED_LEVEL. */
+export function slowestExcited(pulse: PulseShape): number {
+  const peak = pulseSpectrumRelative(pulse, pulse.f0_Hz);
+  let f = pulse.f0_Hz;
+  while (f > pulse.f0_Hz * 1e-3 && pulseSpectrumRelative(pulse, f / 1.05) > EXCITED_LEVEL * peak) f /= 1.05;
+  return 1 / (2 * Math.PI * f);
 }
 
 /** |r| seen from inside segment i at its face x (dir −1: front face, +1: back face), sheets at the face included. */

@@ -28,10 +28,3 @@ export function magneticPermeability(m: MagneticModel | undefined, f_Hz: number)
 
 /** μ_r of a bulk material at f_Hz. */
 export const permeability = (spec: BulkModel, f_Hz: number): Complex => magneticPermeability(spec.magnetic, f_Hz);
-
-/** True when the block leaves μ_r = 1 at every frequency (absent, fixed 1 − j0, or no pole strength on μ∞ = 1). */
-export function isNonMagnetic(m: MagneticModel | undefined): boolean {
-  if (m === undefined) return true;
-  if (m.model === 'fixed') return m.mu_r === 1 && m.mu_loss === 0;
-  return m.mu_inf === 1 && m.poles.every((p) => p.delta_mu === 0);
-}

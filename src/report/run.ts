@@ -15,7 +15,7 @@ import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
 import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
 import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
-import { fittedModel } from './fitted-model.ts';
+import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
 
@@ -140,7 +140,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     truncated: run.doneReason !== 'converged',
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
   };
-  summary.power_law_fits = run.plan.fits.map((f) => ({
+  summary.power_law_fits = run.plan.fits.filter((f) => f.quantity === 'permittivity').map((f) => ({
     material: f.material,
     band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
     max_rel_error_eps_re: r3(f.maxRelErr_re),
@@ -149,6 +149,16 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     min_eps_re_half_to_twice_band: r3(f.minEpsRe_wide),
     fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
     model: fittedModel(f.model),
+  }));
+  // A fixed permeability with loss is not causal either: stepped as a fitted Lorentz sum, written as a magnetic block.
+  summary.permeability_fits = run.plan.fits.filter((f) => f.quantity === 'permeability').map((f) => ({
+    material: f.material,
+    band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
+    max_rel_error_mu_re: r3(f.maxRelErr_re),
+    max_rel_error_mu_im: r3(f.maxRelErr_im),
+    max_rel_error_mu: r3(f.maxRelErr_abs),
+    fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
+    magnetic: fittedMagneticModel(f.model),
   }));
   summary.pulse = {
     f0_GHz: r6(run.plan.pulse.f0_Hz / 1e9),

@@ -62,6 +62,26 @@ describe('magnetic materials in the reports', () => {
     expect(findColumn(r.profile, 'E_tmm_re')).toBeDefined();
   });
 
+  it('a fixed μ with loss: stepped as a fitted causal model, in summary.permeability_fits as a magnetic block, its share in its own row', async () => {
+    const r = parseStackObject({
+      title: 'Test ferrite tile', band_GHz: [2, 6], points: 9, back: 'pec',
+      materials: { tile: { model: 'fixed', eps_r: 8, magnetic: { model: 'fixed', mu_r: 2, mu_loss: 0.6 } } },
+      layers: [{ material: 'tile', thickness_mm: 3 }],
+    });
+    if (!r.ok) throw new Error(r.errors.join('\n'));
+    const rep = await runReport(r.stack);
+    const fits = rep.summary.permeability_fits as { material: string; magnetic: { model: string; mu_inf: number; poles: unknown[] } }[];
+    expect(fits).toHaveLength(1);
+    expect(fits[0].material).toBe('tile');
+    expect(fits[0].magnetic.model).toBe('lorentz');
+    expect(fits[0].magnetic.poles.length).toBeGreaterThan(0);
+    expect(rep.summary.power_law_fits).toEqual([]);
+    const pairs = rep.agreement.map((a) => a.pair);
+    expect(pairs).toEqual(expect.arrayContaining(['fdtd-tmm as stepped', 'stepped media-tmm']));
+    const own = rep.agreement.find((a) => a.pair === 'fdtd-tmm as stepped')!;
+    expect(Math.max(own.R_max, own.T_max)).toBeLessThan(0.01);
+  });
+
   it('the materials listing shows the permeability parameters and, at a frequency, μ\' and μ\'\'', () => {
     const m = absorber('TE').layers[0].material;
     expect(parameterText(m)).toBe('ε_r=10 σ=0 μ: μ∞=1 Δμ=3 f0=2 γ=4GHz');
