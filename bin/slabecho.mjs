@@ -4,6 +4,7 @@
 import { readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { isMainThread } from 'node:worker_threads';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const bundle = join(root, 'build', 'cli.mjs');
@@ -22,11 +23,13 @@ function bundleIsCurrent() {
   try { return statSync(bundle).mtimeMs >= newest(join(root, 'src')); } catch { return false; }
 }
 
-let main;
-if (bundleIsCurrent()) ({ main } = await import(bundle));
+let cli;
+if (bundleIsCurrent()) cli = await import(bundle);
 else {
   const { register } = await import('tsx/esm/api');
   register();
-  ({ main } = await import('../src/cli/main.ts'));
+  cli = await import('../src/cli/main.ts');
 }
-process.exitCode = await main(process.argv.slice(2));
+// A study runs its cases on worker threads started from this same file.
+if (isMainThread) process.exitCode = await cli.main(process.argv.slice(2));
+else cli.studyWorkerMain();

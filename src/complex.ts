@@ -1,5 +1,9 @@
 // Minimal complex arithmetic on plain {re, im} values, for the frequency-domain solvers.
-// Hot loops may inline these; columnar results store re and im in separate Float64Arrays.
+// Hot loops may call the `…Into` forms, which write into a caller's object; columnar results store
+// re and im in separate Float64Arrays.
+//
+// Accuracy: every primitive here keeps a small part small and right. The square root in particular
+// never forms |z| − Re z (which cancels when |Im z| ≪ Re z and would drop a loss of ε''/ε' ≲ 1e-8).
 
 export interface Complex { re: number; im: number }
 
@@ -16,7 +20,11 @@ export const abs = (a: Complex): number => Math.hypot(a.re, a.im);
 export const abs2 = (a: Complex): number => a.re * a.re + a.im * a.im;
 export const arg = (a: Complex): number => Math.atan2(a.im, a.re);
 
-/** a / b, scaled to avoid overflow (Smith's algorithm). */
+/**
+ * a / b by Smith's algorithm (scaled by the larger part of b, so nothing overflows on the way). Each part
+ * of the quotient is a sum of two products of the same size as the result, so no part is lost to cancellation
+ * that the quotient itself does not carry.
+ */
 export function div(a: Complex, b: Complex): Complex {
   if (Math.abs(b.re) >= Math.abs(b.im)) {
     const r = b.im / b.re, d = b.re + b.im * r;
@@ -26,16 +34,36 @@ export function div(a: Complex, b: Complex): Complex {
   return { re: (a.re * r + a.im) / d, im: (a.im * r - a.re) / d };
 }
 
-/** Principal square root (branch cut on the negative real axis, result with re ≥ 0). */
-export function sqrt(a: Complex): Complex {
-  const m = Math.hypot(a.re, a.im);
-  if (m === 0) return { re: 0, im: 0 };
-  const re = Math.sqrt((m + a.re) / 2);
-  const im = Math.sqrt(Math.max(0, (m - a.re) / 2));
-  return { re, im: a.im < 0 ? -im : im };
+/**
+ * Principal square root of re + j·im written into `out` (branch cut on the negative real axis, result with
+ * Re ≥ 0; on the cut itself, Im ≥ 0). Kahan ("Branch cuts for complex elementary functions", 1987):
+ * t = √((|z| + |x|)/2) is a sum of two non-negative terms, so it is accurate; the other part is y / (2t),
+ * a quotient, so it keeps every digit of a small Im z. Relative error of each part within a few ulps.
+ */
+export function sqrtInto(out: Complex, re: number, im: number): Complex {
+  if (re === 0 && im === 0) { out.re = 0; out.im = 0; return out; }
+  // Halve before adding so |z| + |x| cannot overflow for parts near the largest double.
+  const t = Math.sqrt(Math.hypot(re, im) / 2 + Math.abs(re) / 2);
+  if (re >= 0) { out.re = t; out.im = im / (2 * t); }
+  else { out.re = Math.abs(im) / (2 * t); out.im = im < 0 ? -t : t; }
+  return out;
 }
 
-/** e^{z} */
+/** Principal square root (branch cut on the negative real axis, result with re ≥ 0). See sqrtInto. */
+export const sqrt = (a: Complex): Complex => sqrtInto({ re: 0, im: 0 }, a.re, a.im);
+
+/**
+ * √z on the branch with Im ≤ 0 (a wave e^{−j k x} with k = √z decays, or is undamped, along +x), written into
+ * `out`: the principal root, negated when its imaginary part is positive (an evanescent wave in a lossless
+ * medium, or z on the branch cut).
+ */
+export function decayingSqrtInto(out: Complex, re: number, im: number): Complex {
+  sqrtInto(out, re, im);
+  if (out.im > 0) { out.re = -out.re; out.im = -out.im; }
+  return out;
+}
+
+/** e^{z}. Magnitude and phase are computed apart (e^{re} times cos, sin of im), so neither part cancels. */
 export function exp(a: Complex): Complex {
   const m = Math.exp(a.re);
   return { re: m * Math.cos(a.im), im: m * Math.sin(a.im) };

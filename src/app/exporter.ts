@@ -44,9 +44,10 @@ export async function exportZip(input: ExportInput): Promise<ExportResult> {
     ['spectrum.csv', r?.spectrum ?? input.solved?.spectrum],
     ['profile.csv', r?.profile ?? input.solved?.profile],
     ['echoes.csv', r?.echoes],
+    ['echoes_T.csv', r?.echoesT],
     ['trace.csv', r?.trace],
   ];
-  if (r === null) notes.push('The pulse run for this stack has not finished: spectrum.csv and profile.csv hold the exact and FEM columns only; echoes.csv, trace.csv and summary.json are left out.');
+  if (r === null) notes.push('The pulse run for this stack has not finished: spectrum.csv and profile.csv hold the exact and FEM columns only; the echo tables, trace.csv and summary.json are left out.');
   for (const [name, t] of tables) {
     if (t === null || t === undefined || t.length === 0) continue;
     try {
@@ -90,9 +91,10 @@ function readme(title: string, stackName: string, files: string[], notes: string
 
 /** CSV text of a wire table, through the same core formatters the CLI uses. */
 export function tableCsv(t: readonly WireColumn[]): string {
-  const path = t.find((c) => c.name === 'path');
   const numeric = t.filter((c): c is Column => c.data instanceof Float64Array);
-  if (path !== undefined && Array.isArray(path.data)) return formatEchoesCsv({ columns: numeric, path: path.data });
+  const words = (name: string) => { const c = t.find((k) => k.name === name); return c !== undefined && Array.isArray(c.data) ? c.data : null; };
+  const path = words('path');
+  if (path !== null) return formatEchoesCsv({ columns: numeric, path, nearest_path: words('nearest_path') ?? [], resolved: words('resolved') ?? [] });
   // A table with no rows (the pulse engine skipped this stack): the header alone, as the CLI writes it.
   if (numeric.length > 0 && numeric[0].data.length === 0) return `${numeric.map((c) => c.name).join(',')}\n`;
   return formatCsv(numeric);

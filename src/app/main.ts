@@ -283,7 +283,11 @@ class Workbench implements ControlHost {
     const note = rep !== null ? (rep.skipped !== undefined ? `The pulse engine did not run for this stack: ${rep.skipped}`
       : rep.trace[0]?.data.length === 0 ? 'the pulse run recorded nothing for this stack' : '')
       : this.engine.reporting ? 'pulse run in progress…' : 'no finished pulse run for this stack';
-    this.trace.show(rep?.trace ?? null, rep?.echoes ?? null, this.settings.envelope, note);
+    const zero = (rep?.summary as { echoes?: { delay_zero_ns?: number } } | undefined)?.echoes?.delay_zero_ns;
+    this.trace.show({
+      trace: rep?.trace ?? null, echoes: rep?.echoes ?? null, echoesT: rep?.echoesT ?? null, envelope: rep?.envelope ?? null,
+      delayZero_ns: typeof zero === 'number' ? zero : null,
+    }, this.settings.envelope, note);
   }
 
   // ---- pulse run -----------------------------------------------------------------------------

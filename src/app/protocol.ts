@@ -49,7 +49,11 @@ export interface FieldFrame {
 export interface WireReport {
   spectrum: WireColumn[];
   profile: WireColumn[];
+  /** Echo tables (echoes.csv, echoes_T.csv): numeric columns, then the text columns path, nearest_path, resolved. */
   echoes: WireColumn[];
+  echoesT: WireColumn[];
+  /** Band-limited envelopes in dB (t_ns, incident_dB, reflected_dB, transmitted_dB). */
+  envelope: WireColumn[];
   trace: WireColumn[];
   summary: unknown;
   warnings: string[];

@@ -6,9 +6,10 @@ import type { Stack } from '../stack/types.ts';
 import type { PulseOptions, PulseRun } from '../fdtd/types.ts';
 import { leadInSteps } from '../fdtd/pulse.ts';
 import { createPulseRun } from '../fdtd/run.ts';
+import type { EchoColumns } from '../report/echo-table.ts';
 import { runReport } from '../report/run.ts';
 import { copyTable } from './tables.ts';
-import type { FieldFrame, PulseGeometry, RunSettings, WireReport } from './protocol.ts';
+import type { FieldFrame, PulseGeometry, RunSettings, WireColumn, WireReport } from './protocol.ts';
 import { scoutClip, type ClipTiming } from './clip/scout.ts';
 
 let run: PulseRun | null = null;
@@ -92,6 +93,12 @@ export function rewindPulse(): FieldFrame {
   return frameOf(run, null);
 }
 
+/** An echo table on the wire: its numeric columns, then its text columns. */
+const echoWire = (e: EchoColumns): WireColumn[] => [
+  ...copyTable(e.columns),
+  { name: 'path', data: [...e.path] }, { name: 'nearest_path', data: [...e.nearest_path] }, { name: 'resolved', data: [...e.resolved] },
+];
+
 /** A fresh run of the animated stack stepped to `step` (or as far as it goes). */
 export function seekPulse(step: number, recycle: FieldFrame | null): FieldFrame {
   if (runStack === null) throw new Error('no pulse run');
@@ -125,7 +132,9 @@ export async function fullReport(
   return {
     spectrum: copyTable(rep.spectrum),
     profile: copyTable(rep.profile),
-    echoes: [...copyTable(rep.echoes.columns), { name: 'path', data: [...rep.echoes.path] }],
+    echoes: echoWire(rep.echoes),
+    echoesT: echoWire(rep.echoesT),
+    envelope: copyTable(rep.envelope),
     trace: copyTable(rep.trace),
     summary: rep.summary,
     warnings: [...rep.warnings],

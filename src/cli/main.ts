@@ -10,12 +10,22 @@ import { solve } from './commands/solve.ts';
 import { converge } from './commands/converge.ts';
 import { run } from './commands/run.ts';
 import { bench } from './commands/bench.ts';
+import { sweep } from './commands/sweep.ts';
+import { tolerance } from './commands/tolerance.ts';
+import { merge } from './commands/merge.ts';
+import { tune } from './commands/tune.ts';
+
+export { studyWorkerMain } from './studies/worker.ts';
 
 export const COMMANDS: readonly Command[] = [
   check,
   materials,
   solve,
   run,
+  sweep,
+  tolerance,
+  merge,
+  tune,
   converge,
   bench,
 ];

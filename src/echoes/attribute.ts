@@ -1,68 +1,194 @@
-// Ties each measured echo to a bounce path.
-//   - Predicted arrivals within half a pulse width of the measured delay are candidates; the echo is
-//     named after the strongest. The next strongest, if at least 0.35 as strong, is named with it, the two in
-//     order of arrival, joined by " & " and marked "(unresolved)": paths closer than the pulse width arrive as one echo.
-//   - An echo with no candidate, within two pulse widths of a measured echo at least 4× (12 dB)
-//     stronger (or of another part of that echo's reshaped tail), is a change of that echo's shape (frequency-dependent reflection or loss spread the
-//     pulse; the echo extraction represents the spread as extra delayed copies): "reshaping of …".
-//   - Otherwise it is "unmatched", with its nearest prediction.
+// Stage 5: which bounce paths each detected echo is.
+//   1. Every path whose own echo (paths.ts) reaches the floor goes to the nearest detected echo within
+//      reach: one pulse width, or farther when a stronger echo's main lobe can hide it (the band pulse's
+//      own shape, `leakBeyond`, still above half the path's level there). Paths closer than the
+//      resolution thus share one row, named together in order of arrival, "(unresolved)". A path with no
+//      echo within reach whose echo still merges into a neighbour's lump (the envelope holds its level
+//      there and does not dip on the way) is named in that neighbour's row too.
+//   2. An echo no such path reached is looked at through the paths' own band responses at its time: if
+//      a path already named elsewhere holds at least half its envelope there, it is that path's echo
+//      reshaped by loss or dispersion and is folded into that row (a reshaped echo is one row); if paths
+//      below the floor add up to it, they are named; otherwise it is "unexplained", with the path whose
+//      echo is nearest in time beside it.
+//   3. An echo more than 6 dB above what all paths together predict at its time is unexplained too,
+//      whatever paths lie near it (they are then named beside it, and listed as unseen).
+// A path is named in at most one row.
 
-import type { PredictedEchoes } from './lattice.ts';
+import { leakBeyond } from './band-pulse.ts';
+import { envelopeAt } from './envelope.ts';
+import type { DetectedEcho } from './detect.ts';
+import { type PredictedPaths, groupPeak, groupSpectrum, nearestPeak, pathAt } from './paths.ts';
 
-export interface Attribution {
-  predicted_t_s: Float64Array;
-  path: string[];
+export interface AttributedEcho {
+  echo: DetectedEcho;
+  /** Paths this echo is, in order of arrival (empty: unexplained). */
+  paths: number[];
+  /**
+   * Predicted delay: where the lattice puts this echo's envelope peak (these paths' own peak, moved to
+   * the peak of every path's summed response there); for an unexplained echo, the nearest path's.
+   */
+  predicted_t_s: number;
+  /** Nearest path when unexplained, else −1. */
+  nearest: number;
+  /** Echoes folded into this one as its reshaping. */
+  folded: DetectedEcho[];
 }
 
-/** Candidates of at least this fraction of the strongest one's amplitude are named together. */
-const TOGETHER = 0.35;
-const MAX_NAMES = 2;
+export interface AttributeOptions {
+  /** Floor (linear, relative to the incident band pulse's peak). */
+  floor: number;
+  width_s: number;
+  bandWidth_Hz: number;
+  /** The measured envelope at a delay, relative to the incident band pulse's peak. */
+  envelope: (t_s: number) => number;
+}
 
-export function attributeEchoes(t_s: Float64Array, amplitude: Float64Array, predicted: PredictedEchoes, pulseWidth_s: number): Attribution {
-  const n = t_s.length, m = predicted.delay_s.length;
-  const tol = pulseWidth_s / 2;
-  const predicted_t_s = new Float64Array(n);
-  const path: string[] = new Array(n).fill('');
-  const amp = Float64Array.from({ length: m }, (_, j) => Math.hypot(predicted.amp_re[j], predicted.amp_im[j]));
-  const matched = new Uint8Array(n);
-  for (let k = 0; k < n; k++) {
-    const cand: number[] = [];
-    for (let j = 0; j < m; j++) if (Math.abs(predicted.delay_s[j] - t_s[k]) <= tol) cand.push(j);
-    if (cand.length === 0) continue;
-    cand.sort((a, b) => amp[b] - amp[a]);
-    const best = cand[0];
-    // Named in the order they arrive (front face first), as a reader walks through the stack.
-    const together = cand.filter((j) => amp[j] >= TOGETHER * amp[best] && amp[j] > 0).slice(0, MAX_NAMES)
-      .sort((a, b) => predicted.delay_s[a] - predicted.delay_s[b]);
-    predicted_t_s[k] = predicted.delay_s[best];
-    path[k] = together.length > 1 ? `${together.map((j) => predicted.name[j]).join(' & ')} (unresolved)` : predicted.name[best];
-    matched[k] = 1;
+/** Paths farther than this many pulse widths from a time contribute nothing there. */
+const NEAR_WIDTHS = 3;
+/** Fraction of an echo's envelope a path must hold at its time to be said to make it. */
+const HOLDS = 0.5;
+/** An echo more than this factor (6 dB) above the lattice's whole envelope at its time is unexplained. */
+const OVERSHOOT = 2;
+/** Paths holding at least this fraction of the strongest contribution are named together. */
+const TOGETHER = 0.35;
+
+/** Farthest distance at which an echo of level `host` can hide a path of level `level` under its own shape. */
+function reach(host: number, level: number, o: AttributeOptions): number {
+  let lo = o.width_s, hi = 8 * o.width_s;
+  if (leakBeyond(lo, o.bandWidth_Hz) * host < 0.5 * level) return lo;
+  for (let i = 0; i < 16; i++) { // to 1e-4 of a width
+    const mid = (lo + hi) / 2;
+    if (leakBeyond(mid, o.bandWidth_Hz) * host >= 0.5 * level) lo = mid; else hi = mid;
   }
-  // Reshaping: a weak echo next to a strong one, or next to another part of the same reshaped tail
-  // (a strongly dispersive face can leave a train of them); repeated until no echo changes.
-  const root = new Int32Array(n).map((_, k) => (matched[k] ? k : -1));
-  for (let changed = true; changed;) {
-    changed = false;
-    for (let k = 0; k < n; k++) {
-      if (root[k] >= 0) continue;
-      let host = -1;
-      for (let i = 0; i < n; i++) {
-        const r = root[i];
-        if (i === k || r < 0 || Math.abs(t_s[i] - t_s[k]) > 2 * pulseWidth_s) continue;
-        if (Math.abs(amplitude[r]) < 4 * Math.abs(amplitude[k])) continue;
-        if (host < 0 || Math.abs(amplitude[r]) > Math.abs(amplitude[host])) host = r;
-      }
-      if (host >= 0) { root[k] = host; changed = true; }
+  return lo;
+}
+
+const gap = (e: DetectedEcho, t: number) => Math.min(...e.members.map((m) => Math.abs(m.t_s - t)));
+
+/** Paths whose own echoes fall within this many pulse widths of each other arrive as one (they may cancel). */
+const COINCIDENT_WIDTHS = 0.1;
+
+/**
+ * The paths that make echoes of their own: those reaching the floor, grouped when their echoes coincide
+ * (within a tenth of a pulse width), a group counting only when its summed echo reaches the floor too
+ * (coincident paths may cancel). Paths below the floor are named only in a group that reaches the floor
+ * through them alone (several weak paths adding up).
+ */
+function audibleGroups(P: PredictedPaths, o: AttributeOptions): { paths: number[]; t_s: number; level: number }[] {
+  const order = Array.from(P.t_s.keys()).filter((p) => P.level[p] >= o.floor / 4).sort((a, b) => P.t_s[a] - P.t_s[b]);
+  const groups: number[][] = [];
+  for (const p of order) {
+    const last = groups[groups.length - 1];
+    if (last && P.t_s[p] - P.t_s[last[last.length - 1]] < COINCIDENT_WIDTHS * o.width_s) last.push(p); else groups.push([p]);
+  }
+  return groups.map((paths) => {
+    if (paths.length === 1) return { paths, t_s: P.t_s[paths[0]], level: P.level[paths[0]] };
+    // their summed echo, read at the strength-weighted mean delay (the envelope is flat that close to its peak)
+    let w = 0, t = 0;
+    for (const p of paths) { w += P.level[p]; t += P.level[p] * P.t_s[p]; }
+    t /= w;
+    let re = 0, im = 0;
+    for (const p of paths) { const z = pathAt(P, p, t); re += z.re; im += z.im; }
+    const loud = paths.filter((p) => P.level[p] >= o.floor);
+    return { paths: loud.length ? loud : paths, t_s: t, level: Math.hypot(re, im) };
+  }).filter((g) => g.level >= o.floor);
+}
+
+/**
+ * Whether a path's echo at t_s lies on the lump of the echo at `from`: the measured envelope holds at
+ * least half the path's level there, and does not dip 3 dB below that on the way from the echo's peak.
+ */
+function onLump(envelope: (t: number) => number, from: number, t_s: number, level: number, width_s: number): boolean {
+  const there = envelope(t_s);
+  if (!(there >= 0.5 * level)) return false;
+  const n = Math.ceil(Math.abs(t_s - from) / (width_s / 20));
+  for (let i = 1; i < n; i++) if (envelope(from + ((t_s - from) * i) / n) < 0.7 * there) return false;
+  return true;
+}
+
+/**
+ * Audible path groups, each given to the nearest echo within reach, or else to the nearest echo whose
+ * lump it lies on (no separate peak: it merges into that echo); the groups no echo took.
+ */
+function assignPaths(echoes: readonly DetectedEcho[], P: PredictedPaths, o: AttributeOptions): { owner: Int32Array; unseen: number[] } {
+  const owner = new Int32Array(P.t_s.length).fill(-1), unseen: number[] = [];
+  for (const g of audibleGroups(P, o)) {
+    const nearest = (ok: (e: DetectedEcho, d: number) => boolean) => {
+      let best = -1, bestGap = Infinity;
+      echoes.forEach((e, j) => { const d = gap(e, g.t_s); if (d < bestGap && ok(e, d)) { best = j; bestGap = d; } });
+      return best;
+    };
+    let best = nearest((e, d) => d <= reach(e.level, g.level, o));
+    if (best < 0) best = nearest((e) => onLump(o.envelope, e.t_s, g.t_s, g.level, o.width_s));
+    for (const p of g.paths) owner[p] = best;
+    if (best < 0) unseen.push(...g.paths);
+  }
+  return { owner, unseen };
+}
+
+/**
+ * Paths whose own echoes lie within NEAR_WIDTHS pulse widths of t: the only ones that can reach t (the
+ * band pulse is below −90 dB beyond 1.5 widths), and the only ones whose band responses, sampled at the
+ * lattice's few frequencies and so periodic in time, are read without their periodic images.
+ */
+function pathsNear(P: PredictedPaths, t: number, width_s: number): number[] {
+  const out: number[] = [];
+  for (let p = 0; p < P.t_s.length; p++) if (Math.abs(P.t_s[p] - t) <= NEAR_WIDTHS * width_s) out.push(p);
+  return out;
+}
+
+/** Every path near t together: the lattice's own envelope there (an empty group gives zero). */
+const lattice = (P: PredictedPaths, t: number, width_s: number) => groupSpectrum(P, pathsNear(P, t, width_s));
+
+/** Contributions |z_p(t)| of every path at time t, strongest first, with the summed response. */
+function contributions(P: PredictedPaths, t: number, width_s: number): { order: number[]; c: Float64Array; total: number } {
+  const n = P.t_s.length, c = new Float64Array(n);
+  let re = 0, im = 0;
+  for (const p of pathsNear(P, t, width_s)) { const z = pathAt(P, p, t); c[p] = Math.hypot(z.re, z.im); re += z.re; im += z.im; }
+  const order = Array.from({ length: n }, (_, p) => p).sort((a, b) => c[b] - c[a]);
+  return { order, c, total: Math.hypot(re, im) };
+}
+
+function nearestPath(P: PredictedPaths, t: number): number {
+  let best = -1;
+  for (let p = 0; p < P.t_s.length; p++) if (best < 0 || Math.abs(P.t_s[p] - t) < Math.abs(P.t_s[best] - t)) best = p;
+  return best;
+}
+
+export function attributeEchoes(echoes: readonly DetectedEcho[], P: PredictedPaths, o: AttributeOptions): { rows: AttributedEcho[]; unseen: number[] } {
+  const { owner, unseen } = assignPaths(echoes, P, o);
+  const rows: AttributedEcho[] = echoes.map((echo) => ({
+    echo, paths: [], predicted_t_s: echo.t_s, nearest: -1, folded: [],
+  }));
+  for (let p = 0; p < owner.length; p++) if (owner[p] >= 0) rows[owner[p]].paths.push(p);
+  // Echoes no path reached, strongest first: reshaping, weak paths adding up, or unexplained.
+  const dropped = new Set<number>();
+  const unclaimed = rows.map((_, j) => j).filter((j) => rows[j].paths.length === 0).sort((a, b) => rows[b].echo.level - rows[a].echo.level);
+  for (const j of unclaimed) {
+    const row = rows[j], t = row.echo.t_s, env = row.echo.level;
+    const { order, c, total } = contributions(P, t, o.width_s);
+    const top = order[0];
+    if (top === undefined || !(Math.max(c[top], total) >= HOLDS * env)) { row.nearest = nearestPath(P, t); continue; }
+    const host = owner[top];
+    if (host >= 0 && host !== j && !dropped.has(host)) { rows[host].folded.push(row.echo); dropped.add(j); continue; }
+    const free = order.filter((p) => c[p] >= TOGETHER * c[top] && owner[p] < 0);
+    if (free.length === 0) { row.nearest = nearestPath(P, t); continue; }
+    for (const p of free) owner[p] = j;
+    row.paths = free;
+  }
+  const kept = rows.filter((_, j) => !dropped.has(j));
+  for (const row of kept) {
+    row.paths.sort((a, b) => P.t_s[a] - P.t_s[b]);
+    // An echo holding far more than every path together predicts there is not those paths' echo.
+    if (row.paths.length > 0 && row.echo.level > OVERSHOOT * envelopeAt(lattice(P, row.echo.t_s, o.width_s), row.echo.t_s)) {
+      row.nearest = row.paths.reduce((a, b) => (P.level[b] > P.level[a] ? b : a));
+      unseen.push(...row.paths);
+      row.paths = [];
     }
+    if (row.paths.length === 0) { row.predicted_t_s = row.nearest >= 0 ? P.t_s[row.nearest] : row.echo.t_s; continue; }
+    // where the lattice puts the envelope peak: these paths' own peak, then all paths' summed response there
+    const own = row.paths.length === 1 ? P.t_s[row.paths[0]] : groupPeak(P, row.paths, row.echo.t_s, o.width_s, o.width_s).t;
+    row.predicted_t_s = nearestPeak(lattice(P, own, o.width_s), own, o.width_s / 2, o.width_s)?.t ?? own;
   }
-  for (let k = 0; k < n; k++) {
-    if (matched[k]) continue;
-    let nearest = -1;
-    for (let j = 0; j < m; j++) if (nearest < 0 || Math.abs(predicted.delay_s[j] - t_s[k]) < Math.abs(predicted.delay_s[nearest] - t_s[k])) nearest = j;
-    predicted_t_s[k] = nearest >= 0 ? predicted.delay_s[nearest] : 0;
-    const host = root[k];
-    if (host >= 0) path[k] = `reshaping of the ${path[host].replace(/ \(unresolved\)$/, '')} echo`;
-    else path[k] = nearest >= 0 ? `unmatched (nearest: ${predicted.name[nearest]})` : 'unmatched';
-  }
-  return { predicted_t_s, path };
+  return { rows: kept, unseen };
 }

@@ -8,8 +8,9 @@ import { effectiveConductivity, permittivity } from '../materials/permittivity.t
 import type { BulkModel, MagneticModel } from '../materials/types.ts';
 import type { BulkMaterial, Stack } from '../stack/types.ts';
 import { GHz, MU0_H_per_m, ps } from '../units.ts';
+import { tableInterpolant, tableValue } from '../materials/table.ts';
 import { PlanError } from './errors.ts';
-import { type PowerLawFit, fitCausal, fitPowerLaw } from './fit-power-law.ts';
+import { type PowerLawFit, fitPermittivity, permeabilityTarget, powerLawTarget, tableTarget } from './fit-power-law.ts';
 import { type LineMedium, type StepModel, UNIT_MODEL, lineMedium, stepModelOf } from './media.ts';
 import { probeWeights } from './probe-weights.ts';
 import type { EffectiveStack, GridSegment, GridSheet } from './types.ts';
@@ -42,7 +43,8 @@ export function fitWarnings(fits: readonly PowerLawFit[]): string[] {
     if (!high && !negative) continue;
     const mu = f.quantity === 'permeability', x = mu ? 'μ' : 'ε';
     const below = negative ? `; ${x}' falls to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top` : '';
-    const why = mu ? 'its permeability, a fixed μ with loss, is not causal' : 'a power law is not causal';
+    const why = f.source === 'table' ? `a measured ${mu ? 'μ' : 'ε'} table is not a model the engine steps`
+      : mu ? 'its permeability, a fixed μ with loss, is not causal' : 'a power law is not causal';
     out.push(
       `material "${f.material}": stepped by the pulse engine as a fitted causal model (${why}); ` +
       `its worst error over the band is ${(100 * f.maxRelErr_re).toFixed(2)} % in ${x}' and ${(100 * f.maxRelErr_im).toFixed(2)} % in ${x}''${below} ` +
@@ -105,17 +107,25 @@ function resolveUncached(stack: Stack): Resolved {
   };
   const shuntOf = (mat: BulkMaterial): StepModel => {
     const spec = mat.spec;
-    if (spec.model !== 'power-law') return stepModelOf(spec);
-    return cached(`ε|${mat.name}|${spec.a}|${spec.b}|${spec.c}|${spec.d}`,
-      () => fitPowerLaw(spec, band, mat.name, { probeWeight: probeWeights(stack, mat.name) }));
+    if (spec.model !== 'power-law' && spec.model !== 'table') return stepModelOf(spec);
+    const target = spec.model === 'table' ? tableTarget(spec) : powerLawTarget(spec);
+    return cached(`ε|${mat.name}|${JSON.stringify(spec)}`,
+      () => fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name) }));
   };
   const seriesOf = (mat: BulkMaterial): StepModel => {
-    const m = mat.spec.magnetic, direct = magneticStepModel(m);
+    const spec = mat.spec;
+    const fitMu = (target: ReturnType<typeof permeabilityTarget>) => cached(`μ|${mat.name}|${JSON.stringify(spec)}`,
+      () => fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name, 'permeability') }));
+    if (spec.model === 'table' && spec.mu_points !== undefined) {
+      // A measured μ table: fitted as a table of ε is (its range, no conduction term).
+      const pts = spec.mu_points, range = [...tableInterpolant(pts).range_Hz] as [number, number];
+      if (pts.every(([, re, loss]) => re === 1 && loss === 0)) return UNIT_MODEL;
+      return fitMu(permeabilityTarget('table', (f) => tableValue(pts, f), range, Math.min(...pts.map(([, re]) => re))));
+    }
+    const m = spec.magnetic, direct = magneticStepModel(m);
     if (direct !== null || m === undefined || m.model !== 'fixed') return direct ?? UNIT_MODEL;
     const mu = { re: m.mu_r, im: -m.mu_loss };
-    return cached(`μ|${mat.name}|${m.mu_r}|${m.mu_loss}`, () => fitCausal(() => mu, band, mat.name, {
-      floor: Math.min(1, m.mu_r), quantity: 'permeability', probeWeight: probeWeights(stack, mat.name, 'permeability'),
-    }));
+    return fitMu(permeabilityTarget('fixed', () => mu, null, m.mu_r));
   };
   const media = new Map<BulkMaterial, LineMedium>();
   const modelOf = (mat: BulkMaterial): LineMedium => {

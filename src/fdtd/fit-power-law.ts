@@ -1,35 +1,66 @@
-// Fit an ITU-R P.2040 power-law material (ε' = a f^b, σ = c f^d, f in GHz) with a causal model the kernel
-// can step:  ε∞ − jσ/(ωε0) + Σ c_k/(ω_k² − ω² + jωγ_k), every coefficient ≥ 0, ε∞ ≥ 1.
+// Fit a sampled permittivity — an ITU-R P.2040 power law (ε' = a f^b, σ = c f^d, f in GHz) or a measured table —
+// with a causal model the kernel can step:  ε∞ − jσ/(ωε0) + Σ c_k/(ω_k² − ω² + jωγ_k), every coefficient ≥ 0,
+// ε∞ ≥ 1. The target is any ε(f) with the range where it has values (a table's rows; a power law has any).
 // Each term is passive (its ε'' ≥ 0 at every frequency), so the sum is passive and obeys Kramers–Kronig
 // (common practice, no source). Heavily damped terms (Q ≪ 1) act as Debye relaxations, lightly damped ones
 // above the band let ε' rise with frequency as the table's flat ε' with falling ε'' needs, and with no
 // Drude term (ω_k = 0) the only static conductivity is σ, which is capped at the table's own σ at the
-// bottom of the fitted range: the fit invents no DC conduction the table lacks.
+// bottom of the fitted range (σ_eff = ωε0ε'' there): the fit invents no DC conduction the table lacks.
 //
 // The fit is a linear program (simplex.ts): minimize t subject to
 //   w'(f)·|ε'_fit − ε'|/ε' ≤ t  and  w''(f)·|ε''_fit − ε''|/ε'' ≤ t   (ε' and ε'' separately),
 //   ε'_fit ≥ 1 from half the band's bottom to twice its top,  σ ≤ σ_table(bottom of the fitted range),
-// over the band and the pulse's spectral support around it (weights there fall with the pulse's content,
-// gentler than in the band). The weights say how much R and T at the probes move for a relative change
+// over the band and the pulse's spectral support around it, as far as the target has values (weights there
+// fall with the pulse's content, gentler than in the band). The weights say how much R and T at the probes move for a relative change
 // of ε' and of ε'' at f (`probeWeight`, from the stack: a wall that swallows a wave does not make its
 // depth matter), floored so neither part is ignored. Kramers–Kronig forbids a flat ε' with a falling ε'',
-// so a residue remains; it is reported beside the results (worst errors over the band).
-// `fitCausal` is the same program for any target; it also steps a fixed permeability with loss (μ' − jμ''
-// constant over the band, not causal either) with μ∞ and μ' ≥ min(1, μ') and no conduction term.
+// so for a power law a residue remains; a measured table is fitted as closely as its own causality allows.
+// Either way the residue is reported beside the results (worst errors over the band).
+// The same program fits a permeability the engine cannot step as it is — a fixed μ' − jμ'' with loss (constant
+// over the band, not causal either) or a measured μ table — with μ∞ and μ' ≥ min(1, μ') and no conduction term.
 
 import type { Complex } from '../complex.ts';
-import type { PowerLawModel } from '../materials/types.ts';
+import type { PowerLawModel, TableModel } from '../materials/types.ts';
 import { permittivity } from '../materials/permittivity.ts';
+import { tableInterpolant } from '../materials/table.ts';
 import { EPS0_F_per_m } from '../units.ts';
 import type { StepModel } from './media.ts';
 import { stepModelPermittivity } from './media.ts';
 import { pulseForBand, pulseSpectrumRelative, type PulseShape } from './pulse.ts';
 import { minimizeLp } from './simplex.ts';
 
+/** What a fit approximates: ε_r(f) (or μ_r(f)) where it has values. */
+export interface FitTarget {
+  /** The model the numbers come from. */
+  source: 'power-law' | 'table' | 'fixed';
+  /** The permittivity (default) or the permeability. */
+  quantity?: 'permittivity' | 'permeability';
+  /** ε_r = ε' − jε'' at f_Hz as {re: ε', im: −ε''} (f inside `range_Hz`); μ_r for a permeability. */
+  eps: (f_Hz: number) => Complex;
+  /** Frequencies with values (a table's rows), or null for any. */
+  range_Hz: [number, number] | null;
+  /** ε∞ and ε' over the wide range stay at or above this (default 1). */
+  floor?: number;
+  /** False: no conduction term (a permeability). */
+  conduction?: boolean;
+  /** A resonant target (a magnetic material's μ): the finer dictionary of terms. */
+  resonant?: boolean;
+}
+
+export const powerLawTarget = (pl: PowerLawModel): FitTarget => ({ source: 'power-law', eps: (f) => permittivity(pl, f), range_Hz: null });
+export const tableTarget = (t: TableModel): FitTarget =>
+  ({ source: 'table', eps: (f) => permittivity(t, f), range_Hz: [...tableInterpolant(t.points).range_Hz] as [number, number] });
+/** A permeability to fit: a fixed μ with loss, or a measured μ table (`mu_points`). */
+export function permeabilityTarget(source: 'fixed' | 'table', mu: (f_Hz: number) => Complex, range_Hz: [number, number] | null, lowest_mu_re: number): FitTarget {
+  return { source, quantity: 'permeability', eps: mu, range_Hz, floor: Math.min(1, lowest_mu_re), conduction: false, resonant: true };
+}
+
+/** A fitted causal model (the name says where fits began; tables are fitted the same way). */
 export interface PowerLawFit {
   /** Material name (as the stack names it). */
   material: string;
-  /** What was fitted: the permittivity (a power law) or the permeability (a fixed μ with loss, fitCausal). */
+  /** The model fitted, and which quantity (permittivity or permeability). */
+  source: FitTarget['source'];
   quantity: 'permittivity' | 'permeability';
   band_Hz: [number, number];
   model: StepModel;
@@ -39,7 +70,7 @@ export interface PowerLawFit {
   maxRelErr_im: number;
   /** max |ε_fit − ε| / |ε| over the band. */
   maxRelErr_abs: number;
-  /** Smallest ε'_fit (μ' for a permeability) from half the band's bottom to twice its top (≥ the floor by construction). */
+  /** Smallest ε'_fit (μ') from half the band's bottom to twice its top (≥ the floor by construction). */
   minEpsRe_wide: number;
   /** Frequencies the fit covered (the band and the pulse's support around it). */
   fitRange_Hz: [number, number];
@@ -49,12 +80,6 @@ export interface PowerLawFit {
 export type ProbeWeight = (f_Hz: number) => { re: number; im: number };
 
 export interface FitOptions {
-  /** ε∞ and ε' over the wide range stay at or above this (default 1). */
-  floor?: number;
-  /** σ of the fit at most this (default 0: no conduction). */
-  sigmaMax?: number;
-  /** What the target is (default 'permittivity'). */
-  quantity?: PowerLawFit['quantity'];
   /** Sensitivity of R and T to this material (default: all frequencies alike). */
   probeWeight?: ProbeWeight;
   /** The run's pulse (default: the engine's pulse for the band). */
@@ -67,6 +92,10 @@ const TERMS_BELOW_DECADES = 2;
 const TERMS_ABOVE_DECADES = 2;
 /** Quality factors ω_k/γ_k of the terms (0.02: a Debye relaxation in all but name). */
 const TERM_Q = [0.02, 0.1, 0.3, 1, 3, 10];
+/** For a resonant target (a permeability: a magnetic material's natural resonance has a Q near 1), denser:
+ *  a Lorentz μ of Q = 0.5 is fitted to 5e-4 with these, to 10 % with the power law's. */
+const RESONANT_TERMS_PER_DECADE = 4;
+const RESONANT_TERM_Q = [0.02, 0.1, 0.2, 0.3, 0.5, 0.7, 1, 2, 3, 5, 10];
 /** No term relaxes slower than this many periods of the bottom of the fitted range (the run waits for it). */
 const SLOWEST_RELAXATION_PERIODS = 10 / (2 * Math.PI);
 /** Samples per decade in the band (at least BAND_MIN_SAMPLES) and outside it. */
@@ -93,23 +122,23 @@ const WIDE_CHECK_POINTS = 600;
 
 interface Sample { f: number; w: number; re: number; im: number }
 
-/** The band and the pulse's spectral support around it (down to SUPPORT_LEVEL, within the limits). */
-function supportRange([f1, f2]: [number, number], pulse: PulseShape): [number, number] {
-  const peak = pulseSpectrumRelative(pulse, pulse.f0_Hz);
-  let lo = f1, hi = f2;
-  while (lo > f1 * SUPPORT_LOW_LIMIT && pulseSpectrumRelative(pulse, lo / 1.05) > SUPPORT_LEVEL * peak) lo /= 1.05;
-  while (hi < f2 * SUPPORT_HIGH_LIMIT && pulseSpectrumRelative(pulse, hi * 1.05) > SUPPORT_LEVEL * peak) hi *= 1.05;
-  return [lo, hi];
-}
-
 const logspace = (a: number, b: number, n: number): number[] =>
   n <= 1 ? [a] : Array.from({ length: n }, (_, i) => a * Math.pow(b / a, i / (n - 1)));
 
-/** Band and out-of-band samples with their base weights (1 in the band, falling with the pulse outside). */
-function samples(target: Target, band: [number, number], pulse: PulseShape): { list: Sample[]; range: [number, number] } {
+/**
+ * Band and out-of-band samples with their base weights (1 in the band, falling with the pulse outside), within
+ * the target's range.
+ */
+function samples(target: FitTarget, band: [number, number], pulse: PulseShape): { list: Sample[]; range: [number, number] } {
   const [f1, f2] = band;
   const edge = Math.min(pulseSpectrumRelative(pulse, f1), pulseSpectrumRelative(pulse, f2));
-  const [lo, hi] = supportRange(band, pulse);
+  const peak = pulseSpectrumRelative(pulse, pulse.f0_Hz);
+  const [loLimit, hiLimit] = target.range_Hz ?? [0, Infinity];
+  let lo = f1, hi = f2;
+  while (lo > f1 * SUPPORT_LOW_LIMIT && pulseSpectrumRelative(pulse, lo / 1.05) > SUPPORT_LEVEL * peak) lo /= 1.05;
+  while (hi < f2 * SUPPORT_HIGH_LIMIT && pulseSpectrumRelative(pulse, hi * 1.05) > SUPPORT_LEVEL * peak) hi *= 1.05;
+  lo = Math.min(f1, Math.max(lo, loLimit));
+  hi = Math.max(f2, Math.min(hi, hiLimit));
   const fs: { f: number; w: number }[] = [];
   const decades = (a: number, b: number) => Math.log10(b / a);
   const nBand = Math.max(BAND_MIN_SAMPLES, Math.ceil(BAND_SAMPLES_PER_DECADE * decades(f1, f2)));
@@ -127,7 +156,7 @@ function samples(target: Target, band: [number, number], pulse: PulseShape): { l
   if (lo < f1) outside(lo, f1, false);
   if (hi > f2) outside(f2, hi, true);
   const list = fs.map(({ f, w }) => {
-    const e = target(f);
+    const e = target.eps(f);
     return { f, w, re: e.re, im: -e.im };
   });
   return { list, range: [lo, hi] };
@@ -135,13 +164,13 @@ function samples(target: Target, band: [number, number], pulse: PulseShape): { l
 
 interface Term { w0sq: number; gamma: number }
 
-function dictionary(range: [number, number]): Term[] {
+function dictionary(range: [number, number], resonant = false): Term[] {
   const a = range[0] / 10 ** TERMS_BELOW_DECADES, b = range[1] * 10 ** TERMS_ABOVE_DECADES;
-  const n = Math.ceil(TERMS_PER_DECADE * Math.log10(b / a)) + 1;
+  const n = Math.ceil((resonant ? RESONANT_TERMS_PER_DECADE : TERMS_PER_DECADE) * Math.log10(b / a)) + 1;
   const out: Term[] = [];
   for (const f of logspace(a, b, n)) {
     const w0 = 2 * Math.PI * f;
-    for (const q of TERM_Q) {
+    for (const q of resonant ? RESONANT_TERM_Q : TERM_Q) {
       // Slowest time constant of the term: 2Q/ω0 when it rings, 1/(Qω0) when overdamped.
       const tau = Math.max(2 * q, 1 / q) / w0;
       if (tau <= SLOWEST_RELAXATION_PERIODS / range[0]) out.push({ w0sq: w0 * w0, gamma: w0 / q });
@@ -150,7 +179,7 @@ function dictionary(range: [number, number]): Term[] {
   return out;
 }
 
-/** ε' and ε'' of each unknown at angular frequency w: [ε∞ − 1, σ, c_1 … c_K] (unit coefficients). */
+/** ε' and ε'' of each unknown at angular frequency w: [ε∞ − floor, σ, c_1 … c_K] (unit coefficients). */
 function columns(terms: Term[], w: number, outRe: Float64Array, outIm: Float64Array): void {
   outRe[0] = 1; outIm[0] = 0;
   outRe[1] = 0; outIm[1] = 1 / (w * EPS0_F_per_m);
@@ -160,28 +189,19 @@ function columns(terms: Term[], w: number, outRe: Float64Array, outIm: Float64Ar
   }
 }
 
-/** The complex value to fit at f ({re: x', im: −x''}). */
-export type Target = (f_Hz: number) => Complex;
+/** The fit of a power law (see fitPermittivity). */
+export const fitPowerLaw = (pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', options: FitOptions = {}): PowerLawFit =>
+  fitPermittivity(powerLawTarget(pl), band_Hz, material, options);
 
-export function fitPowerLaw(pl: PowerLawModel, band_Hz: [number, number], material = 'power-law', options: FitOptions = {}): PowerLawFit {
-  // σ ≤ σ of the table at the bottom of the fitted range (no invented DC conduction).
-  const range = supportRange(band_Hz, options.pulse ?? pulseForBand(band_Hz));
-  const sigmaMax = Math.max(0, pl.c * Math.pow(range[0] / 1e9, pl.d));
-  return fitCausal((f) => permittivity(pl, f), band_Hz, material, { ...options, sigmaMax });
-}
-
-/**
- * The same fit of any target: a passive causal model ∞ − jσ/(ωε0) + Σ c_k/(ω_k² − ω² + jωγ_k) with ∞ ≥ floor,
- * the real part ≥ floor over the wide range, σ ≤ sigmaMax. A fixed permeability with loss (a constant μ'' is not
- * causal) is stepped through it with floor min(1, μ') and no σ.
- */
-export function fitCausal(target: Target, band_Hz: [number, number], material: string, options: FitOptions = {}): PowerLawFit {
+/** The causal fit of the header comment to `target` over `band_Hz` (inside the target's range). */
+export function fitPermittivity(target: FitTarget, band_Hz: [number, number], material: string, options: FitOptions = {}): PowerLawFit {
   const [f1, f2] = band_Hz;
-  const floor = options.floor ?? 1;
   const { list, range } = samples(target, band_Hz, options.pulse ?? pulseForBand(band_Hz));
-  const terms = dictionary(range);
+  const terms = dictionary(range, target.resonant);
   const weights = errorWeights(list, options.probeWeight);
-  const sigmaMax = options.sigmaMax ?? 0;
+  // σ ≤ the target's effective conductivity ωε0ε'' at the bottom of the fitted range (no invented DC conduction).
+  const sigmaMax = target.conduction === false ? 0 : Math.max(0, -target.eps(range[0]).im * 2 * Math.PI * range[0] * EPS0_F_per_m);
+  const floor = target.floor ?? 1;
   // ε' ≥ floor: imposed at fixed points, then (cutting planes) wherever the fit still dips below it.
   const checks = logspace(f1 / 2, 2 * f2, EPS_RE_CHECKS);
   let model = solveFit(list, weights, terms, checks, sigmaMax, floor);
@@ -191,7 +211,10 @@ export function fitCausal(target: Target, band_Hz: [number, number], material: s
     checks.push(...dips);
     model = solveFit(list, weights, terms, checks, sigmaMax, floor);
   }
-  return { material, quantity: options.quantity ?? 'permittivity', band_Hz: [f1, f2], model, ...fitErrors(target, model, band_Hz, floor), fitRange_Hz: range };
+  return {
+    material, source: target.source, quantity: target.quantity ?? 'permittivity', band_Hz: [f1, f2], model,
+    ...fitErrors(target, model, band_Hz), fitRange_Hz: range,
+  };
 }
 
 /** Weights on the relative errors of ε' and ε'': the probes' sensitivity, floored, times the sample's base weight. */
@@ -205,7 +228,7 @@ function errorWeights(list: Sample[], probeWeight?: ProbeWeight): { re: number[]
   };
 }
 
-/** Frequencies where ε'_fit dips below the floor: local minima of a fine grid, refined by golden-section search. */
+/** Frequencies where ε'_fit dips below 1: local minima of a fine grid, refined by golden-section search. */
 function epsReDips(model: StepModel, [a, b]: [number, number], floor: number): number[] {
   const fs = logspace(a, b, WIDE_CHECK_POINTS), re = (f: number) => stepModelPermittivity(model, f).re;
   const v = fs.map(re);
@@ -270,13 +293,14 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
 }
 
 /** Worst relative errors over the band and the smallest ε' from half its bottom to twice its top. */
-export function fitErrors(target: Target, model: StepModel, band: [number, number], floor = 1): Omit<PowerLawFit, 'material' | 'quantity' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
+export function fitErrors(target: FitTarget, model: StepModel, band: [number, number]):
+  Omit<PowerLawFit, 'material' | 'source' | 'quantity' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
   const [f1, f2] = band;
   let eRe = 0, eIm = 0, eAbs = 0;
   for (let i = 0; i < CHECK_POINTS; i++) {
     // Linear and logarithmic spacing (a wide band's bottom decade gets points too).
     for (const f of [f1 + ((f2 - f1) * i) / (CHECK_POINTS - 1), f1 * Math.pow(f2 / f1, i / (CHECK_POINTS - 1))]) {
-      const t = target(f), g = stepModelPermittivity(model, f);
+      const t = target.eps(f), g = stepModelPermittivity(model, f);
       eRe = Math.max(eRe, Math.abs(g.re - t.re) / Math.abs(t.re));
       if (t.im !== 0) eIm = Math.max(eIm, Math.abs(g.im - t.im) / Math.abs(t.im));
       eAbs = Math.max(eAbs, Math.hypot(g.re - t.re, g.im - t.im) / Math.hypot(t.re, t.im));
@@ -284,6 +308,6 @@ export function fitErrors(target: Target, model: StepModel, band: [number, numbe
   }
   let minRe = Infinity;
   for (const f of logspace(f1 / 2, 2 * f2, WIDE_CHECK_POINTS)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
-  for (const f of epsReDips(model, [f1 / 2, 2 * f2], floor)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
+  for (const f of epsReDips(model, [f1 / 2, 2 * f2], target.floor ?? 1)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
   return { maxRelErr_re: eRe, maxRelErr_im: eIm, maxRelErr_abs: eAbs, minEpsRe_wide: minRe };
 }

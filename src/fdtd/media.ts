@@ -8,7 +8,7 @@
 // series model on the H nodes (μ-like), both StepModels. On the series side the same terms mean the same
 // thing with μ in place of ε; its `sigma` is in the same normalized unit (the term −j sigma/(ωε0)).
 
-import { type Complex, div as cdiv, mul as cmul, sqrt as csqrt } from '../complex.ts';
+import { type Complex, div as cdiv, mul as cmul, sqrt, sqrt as csqrt } from '../complex.ts';
 import type { BulkModel } from '../materials/types.ts';
 import { EPS0_F_per_m, GHz, ps } from '../units.ts';
 
@@ -34,8 +34,8 @@ export const UNIT_MODEL: StepModel = Object.freeze({ epsInf: 1, sigma: 0, debye:
 /** A line medium; the series side defaults to μ = 1. */
 export const lineMedium = (shunt: StepModel, series: StepModel = UNIT_MODEL): LineMedium => ({ shunt, series });
 
-/** The step model of a bulk model that needs no fitting (everything except power-law). */
-export function stepModelOf(m: Exclude<BulkModel, { model: 'power-law' }>): StepModel {
+/** The step model of a bulk model that needs no fitting (everything except power-law and table). */
+export function stepModelOf(m: Exclude<BulkModel, { model: 'power-law' | 'table' }>): StepModel {
   switch (m.model) {
     case 'fixed':
       return stepModelFixed(m.eps_r, m.sigma_S_per_m);
@@ -101,12 +101,12 @@ const decaying = (r: Complex): Complex => (r.im > 0 || (r.im === 0 && r.re < 0) 
 
 /** Re √ε (the refractive index that sets the wavelength). */
 export function refractiveIndex(e: Complex): number {
-  return Math.sqrt((Math.hypot(e.re, e.im) + e.re) / 2);
+  return sqrt(e).re;
 }
 
 /** Im-part magnitude of √ε (the attenuation index, ≥ 0). */
 export function extinctionIndex(e: Complex): number {
-  return Math.sqrt(Math.max(0, (Math.hypot(e.re, e.im) - e.re) / 2));
+  return Math.abs(sqrt(e).im);
 }
 
 export const hasPoles = (m: StepModel): boolean => m.debye.length + m.osc.length > 0;

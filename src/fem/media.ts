@@ -6,7 +6,7 @@
 // (Jin, The Finite Element Method in Electromagnetics, 3rd ed., 2014, the 1D scalar problem).
 // Both read  (a u')' + a k_z² u = 0, so one element matrix a (S/h − k_z² h M) serves both.
 
-import { type Complex, mul } from '../complex.ts';
+import { type Complex, decayingSqrtInto, mul } from '../complex.ts';
 import { permeability } from '../materials/permeability.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import type { BulkModel } from '../materials/types.ts';
@@ -31,14 +31,7 @@ export const normalWavenumber = (n2: Complex, k0: number, kt2: Complex): Complex
 
 /** normalWavenumber written into `out` (no allocation; for the per-frequency loop); (n2Re, n2Im) = ε_r μ_r. */
 export function setNormalWavenumber(out: Complex, n2Re: number, n2Im: number, k0: number, kt2Re: number, kt2Im: number): Complex {
-  const re = k0 * k0 * n2Re - kt2Re, im = k0 * k0 * n2Im - kt2Im;
-  const m = Math.hypot(re, im);
-  let sr = Math.sqrt((m + re) / 2), si = Math.sqrt(Math.max(0, (m - re) / 2));
-  if (im < 0) si = -si;
-  // The principal root has Re ≥ 0; flip to the decaying branch when Im > 0 (evanescent, lossless).
-  if (si > 0) { sr = -sr; si = -si; }
-  out.re = sr; out.im = si;
-  return out;
+  return decayingSqrtInto(out, k0 * k0 * n2Re - kt2Re, k0 * k0 * n2Im - kt2Im);
 }
 
 /** The weight a of the weak form: 1/μ_r for TE, 1/ε_r for TM. */

@@ -7,6 +7,7 @@ import type { BulkModel } from '../materials/types.ts';
 import type { Polarization, Stack } from '../stack/types.ts';
 import type { FemOrder } from './basis.ts';
 import { FEM_ORDERS } from './basis.ts';
+import { bounceFactors } from './bounce.ts';
 import { densityFor, errorEstimate, MIN_DENSITY } from './dispersion.ts';
 import { freeSpaceWavenumber, indexSquared, normalWavenumber, tangentialWavenumber2 } from './media.ts';
 import type { FemMeshInfo, FemOptions } from './types.ts';
@@ -58,7 +59,7 @@ function maxNormalWavenumber(stack: Stack, m: BulkModel, f_Hz: ArrayLike<number>
   return k;
 }
 
-interface RegionPlan { material: BulkModel; layer: number; thickness_m: number; kMax: number }
+export interface RegionPlan { material: BulkModel; layer: number; thickness_m: number; kMax: number }
 
 const elementsFor = (r: RegionPlan, density: number): number =>
   Math.max(1, Math.ceil((density * r.kMax * r.thickness_m) / (2 * Math.PI) - 1e-9));
@@ -72,11 +73,7 @@ export function validateFemOptions(o: FemOptions): void {
     throw new Error(`fem.tolerance: must be in (0, 1) (got ${o.tolerance})`);
 }
 
-/**
- * Plans the mesh for `stack` sized for the frequencies `sizing_Hz`, optionally with buffers of the front medium
- * (front_m in front of x = 0) and of the back medium (back_m behind the back face, open back only).
- * The a-priori estimate covers the stack's layers and any buffers.
- */
+/** Buffers of the front and back media and what the mesh is sized for (profiles). */
 export interface MeshExtent {
   /** Buffer of the front medium in front of x = 0, and of the back medium behind the back face (metres). */
   front_m: number;
@@ -89,11 +86,34 @@ export interface MeshExtent {
   derivative?: boolean;
 }
 
-export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: FemOptions = {}, extent?: MeshExtent): FemMesh {
+/** The sizing stage of a mesh: order, density and element counts, before anything is built. */
+export interface MeshSize {
+  order: FemOrder;
+  density: number;
+  orderAuto: boolean;
+  densityAuto: boolean;
+  polarization: Polarization;
+  /** Regions front to back: the front buffer (if any), the bulk layers, the back buffer (if any). */
+  regions: RegionPlan[];
+  hasFrontBuffer: boolean;
+  hasBackBuffer: boolean;
+  elements: number;
+  /** The a-priori error estimate of R and T on this mesh. */
+  estimate: number;
+}
+
+/**
+ * Sizes the mesh for `stack` for the frequencies `sizing_Hz`, optionally with buffers of the front medium
+ * (front_m in front of x = 0) and of the back medium (back_m behind the back face, open back only).
+ * The a-priori estimate covers the stack's layers and any buffers. Allocates nothing per element.
+ */
+export function sizeMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: FemOptions = {}, extent?: MeshExtent): MeshSize {
   validateFemOptions(options);
   const pol = extent?.polarization ?? stack.incidence.polarization;
   const front_m = extent?.front_m ?? 0, back_m = extent?.back_m ?? 0;
   const plans: RegionPlan[] = [];
+  // Each layer's phase counts as often as its multiple reflections can magnify an error made in it (bounce.ts).
+  const bounce = bounceFactors(stack, sizing_Hz, pol);
   let phase = 0, interfaces = 1;
   stack.layers.forEach((l, i) => {
     interfaces++;
@@ -109,12 +129,16 @@ export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
   const backPlan: RegionPlan | null = back_m > 0 && back
     ? { material: back, layer: -2, thickness_m: back_m, kMax: maxNormalWavenumber(stack, back, sizing_Hz) } : null;
   for (const b of [frontPlan, backPlan]) if (b) { phase += b.kMax * b.thickness_m; interfaces++; }
+  // A resonance anywhere magnifies every phase error that feeds it: the stack's worst factor applies to all.
+  const magnify = Math.max(1, ...bounce);
+  phase *= magnify; interfaces *= magnify;
   const tolerance = options.tolerance ?? DEFAULT_TOLERANCE;
   const budget = tolerance / ESTIMATE_SAFETY;
   // Field between nodes (profiles): half the tolerance; TM profiles read E from H_y's derivative, and a TE
   // profile with H reads H from E_y's.
   const between = extent?.betweenNodes ? { budget: tolerance / 2, derivative: extent.derivative ?? pol === 'TM' } : undefined;
-  const count = (density: number) => [...plans, frontPlan, backPlan].reduce((n, r) => n + (r ? elementsFor(r, density) : 0), 0);
+  const all: RegionPlan[] = [...(frontPlan ? [frontPlan] : []), ...plans, ...(backPlan ? [backPlan] : [])];
+  const count = (density: number) => all.reduce((n, r) => n + elementsFor(r, density), 0);
 
   let order: FemOrder, density: number;
   const orderAuto = options.order === undefined, densityAuto = options.density === undefined;
@@ -135,11 +159,30 @@ export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
     }
   }
   density = Math.max(density, densityAuto ? MIN_DENSITY : 3);
+  return {
+    order, density, orderAuto, densityAuto, polarization: pol, regions: all,
+    hasFrontBuffer: frontPlan !== null, hasBackBuffer: backPlan !== null,
+    elements: count(density), estimate: errorEstimate(order, density, phase, interfaces),
+  };
+}
 
-  const all: RegionPlan[] = [...(frontPlan ? [frontPlan] : []), ...plans, ...(backPlan ? [backPlan] : [])];
-  const totalElements = all.reduce((n, r) => n + elementsFor(r, density), 0);
-  if (totalElements > MAX_ELEMENTS)
-    throw new Error(`fem: the mesh would need ${totalElements} elements (limit ${MAX_ELEMENTS}); lower the FEM density or the band top`);
+/** The refusal of a mesh over MAX_ELEMENTS, in the words planMesh throws. */
+export const meshTooLarge = (elements: number): string =>
+  `fem: the mesh would need ${elements} elements (limit ${MAX_ELEMENTS}); lower the FEM density or the band top`;
+
+/** Plans (sizes, then builds) the mesh; throws an Error naming the limit when it would exceed MAX_ELEMENTS. */
+export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: FemOptions = {}, extent?: MeshExtent): FemMesh {
+  const size = sizeMesh(stack, sizing_Hz, options, extent);
+  if (size.elements > MAX_ELEMENTS) throw new Error(meshTooLarge(size.elements));
+  return buildMesh(stack, size, extent);
+}
+
+function buildMesh(stack: Stack, size: MeshSize, extent?: MeshExtent): FemMesh {
+  const { order, density, polarization: pol, regions: all } = size;
+  const front_m = extent?.front_m ?? 0;
+  const frontPlan = size.hasFrontBuffer ? all[0] : null;
+  const backPlan = size.hasBackBuffer ? all[all.length - 1] : null;
+  const back = stack.back === 'pec' ? null : stack.back.spec;
 
   // Walk front to back building segments and vertices.
   const regions: FemRegion[] = [];
@@ -172,11 +215,11 @@ export function planMesh(stack: Stack, sizing_Hz: ArrayLike<number>, options: Fe
 
   const elements = segRegion.filter((r) => r >= 0).length;
   const info: FemMeshInfo = {
-    order, density, order_auto: orderAuto, density_auto: densityAuto,
+    order, density, order_auto: size.orderAuto, density_auto: size.densityAuto,
     elements_per_layer: elementsPerLayer,
     elements,
     unknowns: vertex + 1 + elements * (order - 1),
-    estimate: errorEstimate(order, density, phase, interfaces),
+    estimate: size.estimate,
   };
   return {
     order, density, polarization: pol, angle_rad: stack.incidence.angle_rad, front: stack.front.spec, back, regions, sheets,

@@ -14,20 +14,29 @@ import type { Stack } from '../stack/types.ts';
 import { stackThickness_m } from '../stack/types.ts';
 import { basisDerivatives, basisValues } from './basis.ts';
 import type { FemMesh } from './mesh.ts';
-import { planMesh } from './mesh.ts';
+import { planMesh, sizeMesh, type MeshExtent } from './mesh.ts';
 import { type FemSystem, createFemSystem, solveAt } from './system.ts';
 import type { FemOptions } from './types.ts';
 
-/** The mesh a profile over [xLo, xHi] (metres) uses at f_Hz; `withH` sizes it for the tangential H too. */
-export function planProfileMesh(stack: Stack, f_Hz: number, xLo: number, xHi: number, options: FemOptions = {},
-  withH = false): FemMesh {
+/** The buffers and sizing of a profile mesh over [xLo, xHi] (metres); `withH` sizes it for the tangential H too. */
+function profileExtent(stack: Stack, xLo: number, xHi: number, withH: boolean): MeshExtent {
   const L = stackThickness_m(stack);
   const pol = stack.incidence.angle_rad === 0 ? 'TE' : stack.incidence.polarization;
   const back_m = stack.back === 'pec' ? 0 : Math.max(0, xHi - L);
   // Whichever field comes from u' needs the derivative's sizing: E in TM, H in TE.
   const derivative = pol === 'TM' || withH;
-  return planMesh(stack, [f_Hz], options, { front_m: Math.max(0, -xLo), back_m, polarization: pol, betweenNodes: true, derivative });
+  return { front_m: Math.max(0, -xLo), back_m, polarization: pol, betweenNodes: true, derivative };
 }
+
+/** The mesh a profile over [xLo, xHi] (metres) uses at f_Hz; `withH` sizes it for the tangential H too. */
+export function planProfileMesh(stack: Stack, f_Hz: number, xLo: number, xHi: number, options: FemOptions = {},
+  withH = false): FemMesh {
+  return planMesh(stack, [f_Hz], options, profileExtent(stack, xLo, xHi, withH));
+}
+
+/** Elements of the profile mesh over [xLo, xHi], without building it. */
+export const profileMeshElements = (stack: Stack, f_Hz: number, xLo: number, xHi: number, options: FemOptions = {},
+  withH = false): number => sizeMesh(stack, [f_Hz], options, profileExtent(stack, xLo, xHi, withH)).elements;
 
 /** Sample positions with `perElement` intervals in every element of the profile mesh over [xLo, xHi], sorted. */
 export function femSamplePositions(stack: Stack, f_Hz: number, xLo: number, xHi: number, options: FemOptions = {},

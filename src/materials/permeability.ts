@@ -4,6 +4,7 @@
 import type { Complex } from '../complex.ts';
 import { GHz, ps } from '../units.ts';
 import { addDebyeTerm, addLorentzTerm } from './poles.ts';
+import { tableValue } from './table.ts';
 import type { BulkModel, MagneticModel } from './types.ts';
 
 /** μ_r of a magnetic block at f_Hz (> 0); 1 when there is none. */
@@ -26,5 +27,19 @@ export function magneticPermeability(m: MagneticModel | undefined, f_Hz: number)
   }
 }
 
-/** μ_r of a bulk material at f_Hz. */
-export const permeability = (spec: BulkModel, f_Hz: number): Complex => magneticPermeability(spec.magnetic, f_Hz);
+/** μ_r of a bulk material at f_Hz: a table's measured μ (`mu_points`), else its magnetic block's. */
+export const permeability = (spec: BulkModel, f_Hz: number): Complex =>
+  spec.model === 'table' && spec.mu_points !== undefined ? tableValue(spec.mu_points, f_Hz) : magneticPermeability(spec.magnetic, f_Hz);
+
+/** True when the material has μ_r = 1 at every frequency (no magnetic block that changes it, no μ table other than 1 − j0). */
+export function isNonMagneticMaterial(spec: BulkModel): boolean {
+  if (spec.model === 'table' && spec.mu_points !== undefined) return spec.mu_points.every(([, re, loss]) => re === 1 && loss === 0);
+  return isNonMagnetic(spec.magnetic);
+}
+
+/** True when the block leaves μ_r = 1 at every frequency (absent, fixed 1 − j0, or no pole strength on μ∞ = 1). */
+export function isNonMagnetic(m: MagneticModel | undefined): boolean {
+  if (m === undefined) return true;
+  if (m.model === 'fixed') return m.mu_r === 1 && m.mu_loss === 0;
+  return m.mu_inf === 1 && m.poles.every((p) => p.delta_mu === 0);
+}

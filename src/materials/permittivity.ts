@@ -4,6 +4,7 @@
 import type { Complex } from '../complex.ts';
 import { EPS0_F_per_m, GHz, ps } from '../units.ts';
 import { addDebyeTerm, addLorentzTerm } from './poles.ts';
+import { tableValue } from './table.ts';
 import type { BulkModel } from './types.ts';
 
 /** ε_r at f_Hz (> 0). */
@@ -36,6 +37,8 @@ export function permittivity(m: BulkModel, f_Hz: number): Complex {
       const sigma = m.c * Math.pow(f_GHz, m.d);
       return { re: m.a * Math.pow(f_GHz, m.b), im: -sigma / (w * EPS0_F_per_m) };
     }
+    case 'table':
+      return tableValue(m.points, f_Hz);
   }
 }
 

@@ -25,14 +25,21 @@ export interface LorentzModel extends MaybeMagnetic { model: 'lorentz'; eps_inf:
 export interface DrudeModel extends MaybeMagnetic { model: 'drude'; eps_inf: number; plasma_GHz: number; collision_GHz: number; sigma_S_per_m: number }
 /** ITU-R P.2040 form: ε' = a f^b, σ = c f^d, f in GHz. */
 export interface PowerLawModel extends MaybeMagnetic { model: 'power-law'; a: number; b: number; c: number; d: number }
+/** One row of a measured table: frequency in GHz, then the real part and the loss (ε' and ε'', or μ' and μ''). */
+export type TablePoint = [f_GHz: number, re: number, loss: number];
+/**
+ * Measured ε_r = ε' − jε'' (ε'' ≥ 0) at increasing frequencies, interpolated by PCHIP in ln f (table.ts);
+ * `mu_points`, when given, is the sample's measured μ_r = μ' − jμ'' the same way (then no `magnetic` block).
+ */
+export interface TableModel extends MaybeMagnetic { model: 'table'; points: TablePoint[]; mu_points?: TablePoint[] }
 /** A resistive sheet of zero thickness. */
 export interface SheetModel { model: 'sheet'; ohm_per_sq: number }
 
-export type BulkModel = FixedModel | DebyeModel | LorentzModel | DrudeModel | PowerLawModel;
+export type BulkModel = FixedModel | DebyeModel | LorentzModel | DrudeModel | PowerLawModel | TableModel;
 export type MaterialModel = BulkModel | SheetModel;
 export type ModelName = MaterialModel['model'];
 
-export const MODEL_NAMES: readonly ModelName[] = ['fixed', 'debye', 'lorentz', 'drude', 'power-law', 'sheet'];
+export const MODEL_NAMES: readonly ModelName[] = ['fixed', 'debye', 'lorentz', 'drude', 'power-law', 'table', 'sheet'];
 
 /** A material with its provenance, as the catalog lists it and as a stack resolves it. */
 export interface Material {

@@ -35,7 +35,7 @@ export const FEM_DENSITIES: Record<FemOrder, number[]> = {
   3: [4, 8, 16, 32],
 };
 /** A study row stops here (elements) to keep `converge` quick. */
-const MAX_STUDY_ELEMENTS = 400_000;
+export const MAX_STUDY_ELEMENTS = 400_000;
 
 export function femStudy(stack: Stack, ref: Spectrum, orders: FemOrder[]): StudyRow[] {
   const rows: StudyRow[] = [];

@@ -3,30 +3,39 @@
 // methods in the summary. DOM-free; the caller writes the files.
 
 import { type Complex, exp, mul, add } from '../complex.ts';
-import { echoTable, type EchoTable } from '../echoes/table.ts';
+import { analyseEchoes, type EchoAnalysis, type EchoEnvelopes } from '../echoes/table.ts';
 import { PlanError } from '../fdtd/errors.ts';
 import { createPulseRun, runToEnd } from '../fdtd/run.ts';
-import { solveEffective } from '../fdtd/stepped-exact.ts';
 import type { GridPlan, PulseOptions, PulseRun } from '../fdtd/types.ts';
 import type { Profile, Spectrum } from '../results.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
 import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
-import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
-import { echoColumns, nsList, type EchoColumns } from './echo-table.ts';
+import { roundedRow } from './format-agreement.ts';
+import { fdtdAgreementRows } from './fdtd-agreement.ts';
+import { QUANTITY_NAMES } from '../studies/quantities.ts';
+import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns } from './echo-table.ts';
 import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
+import { estimateRun, WorkRefused } from './estimate.ts';
+import { decimationStride } from './output-plan.ts';
 
 export interface RunOptions extends SolveOptions {
   pulse?: PulseOptions;
   /** Polled between chunks of steps; true stops the run (the report is then marked stopped). */
   shouldStop?: () => boolean;
+  /** Echo floor, dB relative to the incident pulse's envelope peak (default −40). */
+  echoFloor_dB?: number;
 }
 
 export interface RunReport extends Report {
+  /** Echoes of the reflected record (echoes.csv) and of the transmitted one (echoes_T.csv; no rows behind a conductor). */
   echoes: EchoColumns;
+  echoesT: EchoColumns;
+  /** t_ns, incident_dB, reflected_dB, transmitted_dB: the band-limited envelopes the echoes are read from, for display. */
+  envelope: Column[];
   /** t_ns, E_incident, E_reflected, E_transmitted at the reference planes, every time step. */
   trace: Column[];
   /** True when shouldStop ended the run early: every table is complete but the run is cut short. */
@@ -48,7 +57,10 @@ const r6 = (x: number): number => Number(x.toPrecision(6));
  */
 export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
   const progress = options.onProgress ?? (() => {});
-  const base = solveReport(stack, { ...options, onProgress: (f) => progress(0.1 * f) });
+  // The estimate (pulse plan, FEM, outputs) before any heavy work; a job it refuses throws WorkRefused here.
+  const job = options.job ?? estimateRun(stack, { fem: options.fem, pulse: options.pulse, budget: options.budget });
+  if (job.refusal !== undefined) throw new WorkRefused(job.refusal);
+  const base = solveReport(stack, { ...options, job, onProgress: (f) => progress(0.1 * f) });
   const stepped = (options.media ?? 'tables') === 'stepped';
   const warnings = [...base.warnings];
   const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
@@ -64,7 +76,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
       summary.fdtd = { skipped: e.message };
       summary.warnings = warnings;
       progress(1);
-      return { ...base, summary, warnings, echoes: { columns: emptyEchoColumns(), path: [] }, trace: emptyTrace(), stopped: false, skipped: e.message };
+      return { ...base, summary, warnings, echoes: emptyEchoColumns(), echoesT: emptyEchoColumns(), envelope: envelopeColumns(null), trace: emptyTrace(), stopped: false, skipped: e.message };
     }
     throw e;
   }
@@ -84,7 +96,11 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const fdtd = spectrumFromRecords(rec, f_Hz);
   for (const w of fdtd.warnings) warn(w);
   const spectrum_ms = now() - t1;
-  const spectrum = [...base.spectrum, ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im)];
+  // The pulse columns go after the other methods' and before the engineering quantities, which stay last.
+  const isQuantity = (c: Column) => (QUANTITY_NAMES as readonly string[]).includes(c.name);
+  const spectrum = [...base.spectrum.filter((c) => !isQuantity(c)),
+    ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im),
+    ...base.spectrum.filter(isQuantity)];
 
   // Profile: the FDTD phasor interpolated onto the report's x grid.
   let profile = base.profile;
@@ -97,32 +113,20 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
 
   // Echoes.
   t1 = now();
-  const echoes: EchoTable = echoTable(stack, rec);
+  const echoes: EchoAnalysis = analyseEchoes(stack, rec, { floor_dB: options.echoFloor_dB });
   const echoes_ms = now() - t1;
 
-  const trace: Column[] = [
-    scaledColumn('t_ns', Float64Array.from({ length: rec.count }, (_, k) => k * rec.dt_s), 1e9),
-    { name: 'E_incident', data: rec.incident.slice() },
-    { name: 'E_reflected', data: rec.reflected.slice() },
-    { name: 'E_transmitted', data: rec.transmitted.slice() },
-  ];
-
-  // Agreement rows: fdtd against the exact solution, and against the FEM when its columns are there.
-  const agreement: AgreementRow[] = [];
-  const tmm = spectrumFromColumns(spectrum, 'tmm', f_Hz);
-  const target = run.plan.accuracyTarget;
-  if (tmm) agreement.push(agreementRow('fdtd-tmm', fdtd, tmm, target));
-  const fem = spectrumFromColumns(spectrum, 'fem', f_Hz);
-  if (fem) agreement.push(agreementRow('fdtd-fem', fdtd, fem, target));
-  // When the engine steps other media than the stack names (power laws fitted, metal as a wall or a
-  // sheet), split the figure: the engine against the exact solution of what it stepped (its own
-  // numerical error), and that exact solution against the original (the material model's share).
-  // With --media stepped the tmm columns already are the stepped media, and solve's report has the share.
-  if (tmm && !stepped && run.plan.effective.substitutions > 0) {
-    const exactStepped = solveEffective(run.plan.effective, f_Hz);
-    agreement.push(agreementRow('fdtd-tmm as stepped', fdtd, exactStepped, target));
-    agreement.push(agreementRow('stepped media-tmm', exactStepped, tmm));
+  // The traces, every stride-th step when all of them would pass the output limit.
+  const stride = decimationStride(rec.count, job.outputs.traceRowsCap ?? Infinity);
+  const trace = traceColumns(rec, stride);
+  if (stride > 1) {
+    warn(`trace.csv holds every ${stride}th time step (${r6(stride * rec.dt_s * 1e12)} ps apart, ${trace[0].data.length} of ${rec.count} samples) ` +
+      `to stay within the output limit (${job.outputs.limitName}); the spectra and echoes use every step`);
   }
+
+  // Agreement rows: fdtd against the exact solution, against the FEM when its columns are there and, when the
+  // engine stepped other media than the tables (and the tmm columns are the tables'), the stepped-media split.
+  const agreement = fdtdAgreementRows(run, fdtd, spectrumFromColumns(spectrum, 'tmm', f_Hz), spectrumFromColumns(spectrum, 'fem', f_Hz), !stepped);
   const allAgreement = [...base.agreement, ...agreement];
   summary.agreement = allAgreement.map(roundedRow);
 
@@ -139,9 +143,11 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     decay_target_dB: -run.plan.decay_dB,
     truncated: run.doneReason !== 'converged',
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
+    trace_every_nth_step: stride,
   };
   summary.power_law_fits = run.plan.fits.filter((f) => f.quantity === 'permittivity').map((f) => ({
     material: f.material,
+    source_model: f.source,
     band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
     max_rel_error_eps_re: r3(f.maxRelErr_re),
     max_rel_error_eps_im: r3(f.maxRelErr_im),
@@ -150,9 +156,10 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
     model: fittedModel(f.model),
   }));
-  // A fixed permeability with loss is not causal either: stepped as a fitted Lorentz sum, written as a magnetic block.
+  // A fixed permeability with loss (not causal) or a μ table: stepped as a fitted Lorentz sum, written as a magnetic block.
   summary.permeability_fits = run.plan.fits.filter((f) => f.quantity === 'permeability').map((f) => ({
     material: f.material,
+    source_model: f.source,
     band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
     max_rel_error_mu_re: r3(f.maxRelErr_re),
     max_rel_error_mu_im: r3(f.maxRelErr_im),
@@ -164,32 +171,61 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     f0_GHz: r6(run.plan.pulse.f0_Hz / 1e9),
     tau_ps: r6(run.plan.pulse.tau_s * 1e12),
     band_edge_dB: run.plan.pulse.edge_dB,
-    envelope_fwhm_ns: r6(echoes.pulseWidth_s * 1e9),
+    envelope_fwhm_ns: r6(2 * Math.sqrt(Math.LN2) * run.plan.pulse.tau_s * 1e9),
   };
-  summary.echoes = {
-    count: echoes.t_s.length,
-    group_delays_at_GHz: r6(echoes.centre_Hz / 1e9),
-    t_ns: nsList(echoes.t_s),
-    level_dB: Array.from(echoes.level_dB, (x) => Number(x.toFixed(2))),
-    predicted_t_ns: nsList(echoes.predicted_t_s),
-    path: echoes.path,
-  };
+  summary.echoes = { ...echoAnalysisSummary(echoes), ...echoSummary(echoes.reflected) };
+  summary.transmitted = echoes.transmitted ? echoSummary(echoes.transmitted) : null;
   summary.timings_ms = { fdtd: Math.round(run_ms), spectra: Math.round(spectrum_ms), echoes: Math.round(echoes_ms) };
   summary.warnings = warnings;
 
   assertTable(spectrum);
   if (profile.length > 0) assertTable(profile);
   assertTable(trace);
-  const ech = echoColumns(echoes);
-  if (ech.path.length > 0) assertTable(ech.columns);
+  const ech = echoColumns(echoes.reflected), echT = echoes.transmitted ? echoColumns(echoes.transmitted) : emptyEchoColumns();
+  for (const t of [ech, echT]) if (t.path.length > 0) assertTable(t.columns);
+  const envelope = envelopeColumns(echoes.envelopes);
+  assertTable(envelope);
   assertFiniteValues(summary);
   progress(1);
-  return { spectrum, profile, summary, warnings, echoes: ech, trace, agreement: allAgreement, stopped };
+  return { spectrum, profile, summary, warnings, echoes: ech, echoesT: echT, envelope, trace, agreement: allAgreement, stopped };
 }
 
-function emptyEchoColumns(): Column[] {
-  return ['t_ns', 'level_dB', 'amplitude', 'predicted_t_ns'].map((name) => ({ name, data: new Float64Array(0) }));
+/** How the echoes were read, for summary.json. */
+function echoAnalysisSummary(e: EchoAnalysis): Record<string, unknown> {
+  return {
+    window: 'Kaiser, β = 12, over the band',
+    pulse_width_ns: r6(e.pulse.width_s * 1e9),
+    floor_dB: e.floor_dB,
+    delay_zero_ns: r6(e.incidentAt_s * 1e9),
+  };
 }
+
+/** Lowest level written for an envelope (dB): the nulls between sidelobes would be −∞. */
+const ENVELOPE_FLOOR_dB = -200;
+const dB = (x: Float64Array): Float64Array => x.map((v) => (v > 0 ? Math.max(ENVELOPE_FLOOR_dB, 20 * Math.log10(v)) : ENVELOPE_FLOOR_dB));
+
+function envelopeColumns(e: EchoEnvelopes | null): Column[] {
+  const none = new Float64Array(0);
+  return [
+    scaledColumn('t_ns', e?.t_s ?? none, 1e9),
+    { name: 'incident_dB', data: e ? dB(e.incident) : none },
+    { name: 'reflected_dB', data: e ? dB(e.reflected) : none },
+    { name: 'transmitted_dB', data: e?.transmitted ? dB(e.transmitted) : e ? new Float64Array(e.t_s.length).fill(ENVELOPE_FLOOR_dB) : none },
+  ];
+}
+
+/** t_ns and the three records at every `stride`-th step (the first included). */
+function traceColumns(rec: { count: number; dt_s: number; incident: Float64Array; reflected: Float64Array; transmitted: Float64Array }, stride: number): Column[] {
+  const n = Math.ceil(rec.count / stride);
+  const pick = (x: Float64Array) => { const out = new Float64Array(n); for (let i = 0; i < n; i++) out[i] = x[i * stride]; return out; };
+  return [
+    scaledColumn('t_ns', Float64Array.from({ length: n }, (_, k) => k * stride * rec.dt_s), 1e9),
+    { name: 'E_incident', data: pick(rec.incident) },
+    { name: 'E_reflected', data: pick(rec.reflected) },
+    { name: 'E_transmitted', data: pick(rec.transmitted) },
+  ];
+}
+
 function emptyTrace(): Column[] {
   return ['t_ns', 'E_incident', 'E_reflected', 'E_transmitted'].map((name) => ({ name, data: new Float64Array(0) }));
 }

@@ -21,6 +21,10 @@ import { profileColumns, profileHasH } from './profile-columns.ts';
 import { agreementRow, roundedRow, type AgreementRow } from './format-agreement.ts';
 import { steppedStack } from '../fdtd/stepped-stack.ts';
 import { PlanError } from '../fdtd/errors.ts';
+import type { WorkBudget } from './budget.ts';
+import { estimateSolve, WorkRefused, type JobEstimate } from './estimate.ts';
+import { quantitiesOf, quantitiesUnavailable, frontIsLossless } from '../studies/quantities.ts';
+import { quantitiesInBrief, quantityColumns } from '../studies/extremes.ts';
 
 export interface Report {
   /** f_GHz, then R_tmm_re, R_tmm_im, T_tmm_re, T_tmm_im (later methods append their groups). */
@@ -42,6 +46,10 @@ export interface SolveOptions {
   inputWarnings?: readonly string[];
   /** FEM order / density / tolerance (defaults: chosen from its a-priori error estimate). */
   fem?: FemOptions;
+  /** Output, time and memory limits (default DEFAULT_BUDGET); ignored when `job` is given. */
+  budget?: WorkBudget;
+  /** The job's estimate (estimate.ts), when the caller has made it; otherwise solveReport makes its own. */
+  job?: JobEstimate;
   /**
    * 'tables' (default): every method solves the media as the stack names them. 'stepped': the exact solver and
    * the FEM solve the media the pulse engine steps (fitted causal models for power laws, conductors as walls
@@ -60,13 +68,20 @@ export interface MethodRun { name: string; description: string; time_ms: number 
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
-/** Solve `stack` with the exact method (and, as they land, the others) and assemble the report. */
+/**
+ * Solve `stack` with the exact method (and, as they land, the others) and assemble the report. Follows the job's
+ * estimate: throws WorkRefused (before any heavy work) when it refuses the job, skips the FEM when it says so,
+ * and samples the profile as densely as the output limit allows.
+ */
 export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
   const progress = options.onProgress ?? (() => {});
+  const job = options.job ?? estimateSolve(stack, { fem: options.fem, budget: options.budget });
+  if (job.refusal !== undefined) throw new WorkRefused(job.refusal);
   const warnings: string[] = [];
   const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
   for (const w of options.inputWarnings ?? []) warn(w);
   for (const w of stackWarnings(stack)) warn(w);
+  for (const w of job.outputs.notes) warn(w);
   const methods: MethodRun[] = [];
   progress(0);
 
@@ -93,33 +108,45 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
 
   // FEM cross-check on the same frequencies, with its agreement against the exact solution.
   const femOptions = options.fem ?? {};
-  const fem = femSpectrumPart(stack, tmm, femOptions, warn);
+  if (job.femSkip !== undefined) warn(job.femSkip);
+  const fem = job.femSkip === undefined ? femSpectrumPart(stack, tmm, femOptions, warn) : null;
   const agreement: AgreementRow[] = [];
   if (fem) { spectrum.push(...fem.spectrum); agreement.push(fem.agreement); }
   if (media === 'stepped' && stack !== tables) agreement.push(agreementRow('stepped media-tmm', tmm, solveTmm(tables, f_Hz)));
+  // Engineering quantities of the exact solution (of the media it solved), after every method's columns
+  // (runReport keeps them last).
+  const unavailable = quantitiesUnavailable(stack);
+  const quantities = unavailable === null ? quantitiesOf(stack, tmm) : null;
+  if (quantities) spectrum.push(...quantityColumns(quantities));
+  else warn(`${unavailable}; spectrum.csv leaves them out`);
   progress(0.95);
 
   // Standing-wave profile: tangential E along the normal line (and in TM the tangential H), at any incidence.
   const angle_deg = roundDeg(degFromRad(stack.incidence.angle_rad));
   const withH = profileHasH(stack);
-  t0 = now();
-  // The exact solver's grid, refined to ≥ 10 samples in every FEM element.
-  const x_m = fem ? profileGridWithFem(stack, stack.profile_Hz, profilePositions(stack, stack.profile_Hz), femOptions, withH)
-    : profilePositions(stack, stack.profile_Hz);
-  const prof = profileTmm(stack, stack.profile_Hz, x_m);
-  const profile: Column[] = [scaledColumn('x_mm', prof.x_m, 1e3), ...profileColumns('tmm', prof, withH)];
-  tmm_ms += now() - t0;
-  if (fem) {
+  const level = job.outputs.profile?.level;
+  let profile: Column[] = [];
+  let prof: Profile | undefined;
+  if (level !== undefined) {
     t0 = now();
-    profile.push(...femProfileColumns(stack, stack.profile_Hz, x_m, femOptions, withH));
-    fem.time_ms += now() - t0;
+    // The exact solver's grid, refined to ≥ 10 samples in every FEM element (when the output limit allows).
+    const base = profilePositions(stack, stack.profile_Hz, level.pointsPerWavelength);
+    const x_m = fem && level.femSamples ? profileGridWithFem(stack, stack.profile_Hz, base, femOptions, withH) : base;
+    prof = profileTmm(stack, stack.profile_Hz, x_m);
+    profile = [scaledColumn('x_mm', prof.x_m, 1e3), ...profileColumns('tmm', prof, withH)];
+    tmm_ms += now() - t0;
+    if (fem) {
+      t0 = now();
+      profile.push(...femProfileColumns(stack, stack.profile_Hz, x_m, femOptions, withH));
+      fem.time_ms += now() - t0;
+    }
   }
   methods.push({ name: 'tmm', description: 'exact transfer-matrix solution', time_ms: round3(tmm_ms) });
   if (fem) methods.push({ name: 'fem', description: `frequency-domain FEM, Lagrange p = ${fem.mesh.order}`, time_ms: round3(fem.time_ms) });
 
   // Never hand out a NaN: a non-finite value here is a solver bug, reported as such.
   assertTable(spectrum);
-  assertTable(profile);
+  if (profile.length > 0) assertTable(profile);
 
   const described = tables; // the summary describes the stack as written
   const summary: Record<string, unknown> = {
@@ -129,7 +156,7 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
     band_GHz: [ghzFromHz(stack.band_Hz[0]), ghzFromHz(stack.band_Hz[1])],
     points: stack.points,
     incidence: { angle_deg, polarization: stack.incidence.polarization },
-    profile_GHz: ghzFromHz(stack.profile_Hz),
+    profile_GHz: prof ? ghzFromHz(stack.profile_Hz) : null,
     front: materialSummary(described.front, described),
     layers: described.layers.map((l, index) => ({
       index,
@@ -139,7 +166,7 @@ export function solveReport(stack: Stack, options: SolveOptions = {}): Report {
     back: described.back === 'pec' ? { name: 'pec', model: 'perfect conductor' } : materialSummary(described.back, described),
     total_thickness_mm: mmFromM(stackThickness_m(described)),
     methods,
-    results: resultsInBrief(stack, tmm),
+    results: { ...resultsInBrief(stack, tmm), ...(quantities ? quantitiesInBrief(tmm.f_Hz, quantities) : {}) },
     ...(fem ? { fem: fem.mesh } : {}),
     agreement: agreement.map(roundedRow),
     warnings,
@@ -193,9 +220,7 @@ function resultsInBrief(stack: Stack, sp: Spectrum): Record<string, unknown> {
     T_dB_min: stack.back === 'pec' ? null : round3(tMin), T_dB_max: stack.back === 'pec' ? null : round3(tMax),
   };
   // Incident and reflected powers separate only in a lossless front medium.
-  const frontLossless = [stack.band_Hz[0], stack.band_Hz[1]].every((f) =>
-    permittivity(stack.front.spec, f).im === 0 && permeability(stack.front.spec, f).im === 0);
-  if (frontLossless) {
+  if (frontIsLossless(stack)) {
     const A = absorption(stack, sp);
     let iMax = 0, aMin = Infinity;
     for (let i = 0; i < n; i++) { if (A[i] > A[iMax]) iMax = i; aMin = Math.min(aMin, A[i]); }

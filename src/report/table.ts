@@ -51,21 +51,58 @@ export function assertFiniteValues(value: unknown, path = 'summary'): void {
 /** A number with 12 significant digits, trailing zeros dropped: 1.5, 0.000123, 1.23e-7, -0 → 0. */
 export function formatNumber(x: number): string {
   if (x === 0) return '0';
-  return String(Number(x.toPrecision(12)));
+  // Fast path, the same text as String(Number(x.toPrecision(12))) (the definition, below): in fixed notation
+  // (1e-6 ≤ |x| < 1e12) the 12 digits with trailing zeros cut are what String(Number(·)) gives back, since the
+  // shortest text naming the same double has no fewer digits.
+  const s = x.toPrecision(12);
+  if (s.indexOf('e') >= 0) return String(Number(s));
+  if (s.indexOf('.') < 0) return s;
+  let end = s.length;
+  while (s.charCodeAt(end - 1) === 48) end--; // '0'
+  if (s.charCodeAt(end - 1) === 46) end--; // '.'
+  return s.slice(0, end);
 }
 
-/** CSV text: a header line of column names, then one line per row; "\n" line ends. Refuses NaN and ±Infinity. */
-export function formatCsv(columns: readonly Column[]): string {
-  assertTable(columns);
-  const n = columns[0].data.length;
-  const lines: string[] = [columns.map((c) => c.name).join(',')];
-  const row: string[] = new Array(columns.length);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < columns.length; j++) row[j] = formatNumber(columns[j].data[i]);
-    lines.push(row.join(','));
-  }
-  return lines.join('\n') + '\n';
+/** The header line of a table's CSV form, with its "\n". */
+export const csvHeader = (columns: readonly Column[]): string => `${columns.map((c) => c.name).join(',')}\n`;
+
+/** Row i of a table's CSV form, with its "\n" (no checks: csvChunks checks the table first). */
+export function csvRow(columns: readonly Column[], i: number): string {
+  let line = '';
+  for (let j = 0; j < columns.length; j++) line += (j === 0 ? '' : ',') + formatNumber(columns[j].data[i]);
+  return `${line}\n`;
 }
+
+/** Rows per chunk of csvChunks: a chunk is then some tens of kilobytes. */
+export const CSV_ROWS_PER_CHUNK = 512;
+
+/**
+ * A table's CSV form as a sequence of text chunks (the header, then rows in batches), for streaming to a file:
+ * the whole text is never built. Refuses NaN and ±Infinity (TableError) before yielding anything.
+ */
+export function* csvChunks(columns: readonly Column[], rowsPerChunk = CSV_ROWS_PER_CHUNK): Generator<string> {
+  assertTable(columns);
+  yield csvHeader(columns);
+  const n = columns[0].data.length;
+  for (let i0 = 0; i0 < n; i0 += rowsPerChunk) {
+    let chunk = '';
+    for (let i = i0; i < Math.min(n, i0 + rowsPerChunk); i++) chunk += csvRow(columns, i);
+    yield chunk;
+  }
+}
+
+/** CSV text in one string: a header line of column names, then one line per row; "\n" line ends. For small
+ *  tables (the workbench's downloads, tests); files are written from csvChunks. Refuses NaN and ±Infinity. */
+export function formatCsv(columns: readonly Column[]): string {
+  return [...csvChunks(columns)].join('');
+}
+
+/** Characters a number takes at most in CSV (sign, 12 digits, point, "e-308"), plus its separator. */
+export const CSV_CHARS_PER_NUMBER = 20;
+
+/** An upper bound on the bytes of a numeric table's CSV form with these columns and rows. */
+export const csvBytesBound = (names: readonly string[], rows: number): number =>
+  names.reduce((n, c) => n + c.length + 1, 0) + rows * names.length * CSV_CHARS_PER_NUMBER;
 
 /** The column called `name`, or undefined. */
 export const findColumn = (columns: readonly Column[], name: string): Column | undefined =>

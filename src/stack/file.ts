@@ -57,6 +57,7 @@ export const STACK_LIMITS = Object.freeze({
   minPoints: 2,
   maxPoints: 100_000,
   maxPoles: 16,
+  maxTableRows: 10_000,
   maxTitleChars: 200,
   maxNameChars: 64,
   maxNoteChars: 1000,

@@ -5,9 +5,11 @@ import type { DebyePole, LorentzPole, MagneticModel, MagneticModelName, Material
 import { MAGNETIC_MODEL_NAMES, MODEL_NAMES } from '../materials/types.ts';
 import type { StackFileMaterial } from './file.ts';
 import { STACK_LIMITS } from './file.ts';
+import { parseTableModel, type TableFileReader } from './parse-table.ts';
 import {
-  describe, has, isRecord, joinIndex, joinKey, own, Problems, readNumber, refuseUnknownKeys, suggest,
+  describe, has, isRecord, joinIndex, joinKey, own, Problems, quoteShort, readNumber, refuseUnknownKeys, suggest,
 } from './problems.ts';
+import { unsafeTextProblem } from './text.ts';
 
 /** Keys each model takes (besides `model`, `valid_GHz`, `note`); optional ones default as noted. */
 const MODEL_KEYS: Record<ModelName, { required: readonly string[]; optional: readonly string[] }> = {
@@ -16,6 +18,7 @@ const MODEL_KEYS: Record<ModelName, { required: readonly string[]; optional: rea
   lorentz: { required: ['eps_inf', 'poles'], optional: ['sigma_S_per_m'] },
   drude: { required: ['eps_inf', 'plasma_GHz', 'collision_GHz'], optional: ['sigma_S_per_m'] },
   'power-law': { required: ['a', 'b', 'c', 'd'], optional: [] },
+  table: { required: [], optional: ['points', 'mu_points', 'file'] }, // points or file: parse-table.ts
   sheet: { required: ['ohm_per_sq'], optional: [] },
 };
 const COMMON_KEYS = ['model', 'valid_GHz', 'note'] as const;
@@ -33,11 +36,12 @@ const atLeast = (lo: number) => (x: number) => x >= lo;
 const above = (lo: number) => (x: number) => x > lo;
 
 /**
- * Validate `def` at `path`; `band_GHz` (when valid) is used for checks that depend on the band.
+ * Validate `def` at `path`; `band_GHz` (when valid) is used for checks that depend on the band, and
+ * `readTableFile` (when given) reads a table material's `file`.
  * Returns the normalized definition (defaults filled in), or undefined if it has problems.
  */
 export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
-  band_GHz: [number, number] | undefined): StackFileMaterial | undefined {
+  band_GHz: [number, number] | undefined, readTableFile?: TableFileReader): StackFileMaterial | undefined {
   if (!isRecord(def)) {
     p.error(path, `must be an object such as {"model": "fixed", "eps_r": 4} (got ${describe(def)})`);
     return undefined;
@@ -50,7 +54,7 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
   }
   if (typeof modelValue !== 'string' || !(MODEL_NAMES as readonly string[]).includes(modelValue)) {
     const near = typeof modelValue === 'string' ? suggest(modelValue, MODEL_NAMES) : undefined;
-    p.error(joinKey(path, 'model'), `unknown model ${typeof modelValue === 'string' ? JSON.stringify(modelValue) : describe(modelValue)}${near ? ` (did you mean "${near}"?)` : ''}; one of ${MODEL_NAMES.join(', ')}`);
+    p.error(joinKey(path, 'model'), `unknown model ${typeof modelValue === 'string' ? quoteShort(modelValue) : describe(modelValue)}${near ? ` (did you mean "${near}"?)` : ''}; one of ${MODEL_NAMES.join(', ')}`);
     return undefined;
   }
   const model = modelValue as ModelName;
@@ -112,6 +116,9 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
       if (a !== undefined && b !== undefined && c !== undefined && d !== undefined) spec = { model, a, b, c, d };
       break;
     }
+    case 'table':
+      spec = parseTableModel(p, def, path, band_GHz, readTableFile);
+      break;
     case 'sheet': {
       const ohm_per_sq = num('ohm_per_sq', 'a number > 0', above(0));
       if (ohm_per_sq !== undefined) spec = { model, ohm_per_sq };
@@ -132,7 +139,12 @@ export function parseMaterialDefinition(p: Problems, def: unknown, path: string,
     const note = def.note;
     if (typeof note !== 'string' || note.length > STACK_LIMITS.maxNoteChars) {
       p.error(joinKey(path, 'note'), `must be text of at most ${STACK_LIMITS.maxNoteChars} characters (got ${describe(note)})`);
-    } else if (out) out.note = note;
+    } else {
+      // A note may run over several lines (tab and line feed pass); other controls are refused.
+      const bad = unsafeTextProblem(note, true);
+      if (bad !== undefined) p.error(joinKey(path, 'note'), bad);
+      else if (out) out.note = note;
+    }
   }
   return p.count === before ? out : undefined;
 }

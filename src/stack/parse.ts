@@ -13,10 +13,13 @@ import type { StackFile, StackFileLayer, StackFileMaterial } from './file.ts';
 import { STACK_DEFAULTS, STACK_KEYS, STACK_LIMITS } from './file.ts';
 import { parseJsonText, utf8Bytes } from './json-text.ts';
 import { parseMaterialDefinition, readRange } from './parse-material.ts';
+import type { TableFileReader } from './parse-table.ts';
+import { tableCovers, tableRange_GHz } from '../materials/table.ts';
 import {
-  describe, FORBIDDEN_KEYS, has, isRecord, joinIndex, joinKey, own, Problems, readNumber,
+  describe, FORBIDDEN_KEYS, has, isRecord, joinIndex, joinKey, own, Problems, quoteShort, readNumber,
   refuseForbiddenKeys, refuseUnknownKeys, suggest,
 } from './problems.ts';
+import { unsafeTextProblem } from './text.ts';
 import { fmtGHz, stackWarnings } from './warnings.ts';
 
 export type ParseResult =
@@ -25,19 +28,25 @@ export type ParseResult =
 
 const L = STACK_LIMITS;
 
+/** What the caller lends the parser besides the file itself. */
+export interface ParseOptions {
+  /** Reads a table material's `file` (the command line does, beside the stack file); without it `file` is refused. */
+  readTableFile?: TableFileReader;
+}
+
 /** Parse stack-file text (JSON). */
-export function parseStackText(text: string): ParseResult {
+export function parseStackText(text: string, options: ParseOptions = {}): ParseResult {
   const bytes = utf8Bytes(text);
   if (bytes > L.maxTextBytes) {
     return { ok: false, errors: [`file: ${bytes} bytes is over the ${L.maxTextBytes / 1e6} MB limit for a stack file`] };
   }
   const json = parseJsonText(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
   if (!json.ok) return { ok: false, errors: [`file: ${json.error}`] };
-  return parseStackObject(json.value);
+  return parseStackObject(json.value, options);
 }
 
 /** Validate an already-parsed value (from JSON.parse, or built by the app). */
-export function parseStackObject(obj: unknown): ParseResult {
+export function parseStackObject(obj: unknown, options: ParseOptions = {}): ParseResult {
   const p = new Problems();
   if (!isRecord(obj)) {
     p.error('(top level)', `must be a JSON object {…} describing a stack (got ${describe(obj)})`);
@@ -50,12 +59,13 @@ export function parseStackObject(obj: unknown): ParseResult {
   const band = readBand(p, obj);
   const points = readPoints(p, obj);
   const incidence = readIncidence(p, obj);
-  const user = readUserMaterials(p, obj, band);
+  const user = readUserMaterials(p, obj, band, options.readTableFile);
   const resolve = (name: string) => resolveMaterial(name, user.valid, band);
   const front = readHalfSpace(p, obj, 'front', user.names, resolve);
   const back = readHalfSpace(p, obj, 'back', user.names, resolve);
   const layers = readLayers(p, obj, user.names, resolve);
   const profile_GHz = readProfile(p, obj, band);
+  if (profile_GHz != null) refuseProfileOutsideTables(p, user.defs, profile_GHz);
 
   if (p.count > 0 || !band || !points || !incidence || !front || front.resolved === 'pec' || !back || !layers
     || title === undefined || profile_GHz === undefined) {
@@ -100,6 +110,8 @@ function readTitle(p: Problems, o: Record<string, unknown>): string | undefined 
     p.error('title', `must be text of at most ${L.maxTitleChars} characters (got ${describe(t)})`);
     return undefined;
   }
+  const bad = unsafeTextProblem(t);
+  if (bad !== undefined) { p.error('title', bad); return undefined; }
   return t.trim() === '' ? STACK_DEFAULTS.title : t;
 }
 
@@ -152,7 +164,8 @@ interface UserMaterials {
   valid: Map<string, Material>;
 }
 
-function readUserMaterials(p: Problems, o: Record<string, unknown>, band: [number, number] | undefined): UserMaterials {
+function readUserMaterials(p: Problems, o: Record<string, unknown>, band: [number, number] | undefined,
+  readTableFile: TableFileReader | undefined): UserMaterials {
   const out: UserMaterials = { names: new Map(), defs: new Map(), valid: new Map() };
   if (!has(o, 'materials')) return out;
   const mats = o.materials;
@@ -170,7 +183,9 @@ function readUserMaterials(p: Problems, o: Record<string, unknown>, band: [numbe
     const path = joinKey('materials', name);
     const def = mats[name];
     defined.set(name, isRecord(def) ? own(def, 'model') : undefined);
-    if (name.trim() === '' || name.length > L.maxNameChars || /[\u0000-\u001f]/.test(name)) {
+    const bad = unsafeTextProblem(name);
+    if (bad !== undefined) { p.error(path, `the material name ${bad}`); continue; }
+    if (name.trim() === '' || name.length > L.maxNameChars) {
       p.error(path, `a material name must be 1 to ${L.maxNameChars} visible characters`);
       continue;
     }
@@ -181,7 +196,7 @@ function readUserMaterials(p: Problems, o: Record<string, unknown>, band: [numbe
         : `"${name}" is a catalog material name; choose another name for your own material`);
       continue;
     }
-    const parsed = parseMaterialDefinition(p, def, path, band);
+    const parsed = parseMaterialDefinition(p, def, path, band, readTableFile);
     if (parsed === undefined) continue;
     out.defs.set(name, parsed);
     const { valid_GHz, note, ...spec } = parsed;
@@ -207,7 +222,7 @@ function unknownName(p: Problems, path: string, name: string, userNames: Readonl
   if (userNames.has(name)) return;
   const candidates = [...catalogNames(), ...userNames.keys(), ...extra];
   const near = suggest(name, candidates);
-  p.error(path, `unknown material "${name.length > 40 ? `${name.slice(0, 40)}…` : name}"${near ? ` (did you mean "${near}"?)` : ''}: ` +
+  p.error(path, `unknown material ${quoteShort(name)}${near ? ` (did you mean "${near}"?)` : ''}: ` +
     'not in the catalog and not defined under "materials"');
 }
 
@@ -287,6 +302,19 @@ function readThickness(p: Problems, v: unknown, path: string): number | undefine
   if (d === undefined) return undefined;
   if (d > L.maxThickness_mm) { p.error(path, `must be at most ${L.maxThickness_mm} mm (10 m) (got ${d})`); return undefined; }
   return d;
+}
+
+/** A table has no value outside its rows, so the profile frequency must lie inside every table's range. */
+function refuseProfileOutsideTables(p: Problems, defs: ReadonlyMap<string, StackFileMaterial>, f_GHz: number): void {
+  for (const [name, def] of defs) {
+    if (def.model !== 'table') continue;
+    for (const rows of def.mu_points ? [def.points, def.mu_points] : [def.points]) {
+      if (tableCovers(rows, f_GHz, f_GHz)) continue;
+      const [a, b] = tableRange_GHz(rows);
+      p.error('profile_GHz', `${fmtGHz(f_GHz)} GHz lies outside the range of the table material "${name}" (${fmtGHz(a)}–${fmtGHz(b)} GHz)`);
+      return;
+    }
+  }
 }
 
 function readProfile(p: Problems, o: Record<string, unknown>, band: [number, number] | undefined): number | null | undefined {

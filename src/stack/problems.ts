@@ -1,5 +1,8 @@
 // Collecting validation problems with field paths (`layers[1].thickness_mm: must be a number > 0`),
-// and small readers for JSON values that never look beyond an object's own keys.
+// and small readers for JSON values that never look beyond an object's own keys. Text from the file that a
+// message quotes is escaped (text.ts), so a message never carries a raw control character to the terminal.
+
+import { escapeUnsafe } from './text.ts';
 
 /** Keys refused anywhere in a stack file: they could reach an object's prototype. */
 export const FORBIDDEN_KEYS: ReadonlySet<string> = new Set(['__proto__', 'constructor', 'prototype']);
@@ -32,7 +35,7 @@ export class Problems {
 /** `path.key`, or `path["odd key"]` for keys that are not plain identifiers. */
 export function joinKey(path: string, key: string): string {
   if (/^[A-Za-z_][A-Za-z0-9_-]*$/.test(key)) return path === '' ? key : `${path}.${key}`;
-  return `${path}[${JSON.stringify(key)}]`;
+  return `${path}[${quoteText(key)}]`;
 }
 
 export const joinIndex = (path: string, i: number): string => `${path}[${i}]`;
@@ -50,13 +53,19 @@ export const own = (o: Record<string, unknown>, key: string): unknown =>
 
 export const has = (o: Record<string, unknown>, key: string): boolean => Object.hasOwn(o, key);
 
+/** Text in double quotes for a message, with JSON's escapes and every other unsafe character as \u{XXXX}. */
+export const quoteText = (s: string): string => escapeUnsafe(JSON.stringify(s));
+
+/** The first 40 characters of `s` (whole code points), quoted for a message. */
+export const quoteShort = (s: string): string => {
+  const chars = [...s];
+  return quoteText(chars.length > 40 ? `${chars.slice(0, 40).join('')}…` : s);
+};
+
 /** A short description of a value for messages: `the string "12"`, `null`, `a list`, `NaN`. */
 export function describe(v: unknown): string {
   if (v === null) return 'null';
-  if (typeof v === 'string') {
-    const s = v.length > 40 ? `${v.slice(0, 40)}…` : v;
-    return `the string ${JSON.stringify(s)}`;
-  }
+  if (typeof v === 'string') return `the string ${quoteShort(v)}`;
   if (typeof v === 'number') return String(v);
   if (typeof v === 'boolean') return String(v);
   if (Array.isArray(v)) return v.length === 0 ? 'an empty list' : `a list of ${v.length}`;
@@ -70,6 +79,11 @@ export function describe(v: unknown): string {
  */
 export function readNumber(p: Problems, v: unknown, path: string, need: string,
   ok: (x: number) => boolean): number | undefined {
+  // JSON has no Infinity: a number that becomes one (1e400) was too large for a double.
+  if (v === Infinity || v === -Infinity) {
+    p.error(path, `${v > 0 ? 'too large' : 'too large a negative number'} (beyond ±1.8e308, the range of a double-precision number); must be ${need}`);
+    return undefined;
+  }
   if (typeof v !== 'number' || !Number.isFinite(v) || !ok(v)) {
     p.error(path, `must be ${need} (got ${describe(v)})`);
     return undefined;

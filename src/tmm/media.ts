@@ -7,7 +7,7 @@
 // forward (Born & Wolf §1.6; Orfanidis ch. 7).
 // Admittance Y = H_t / E_t of a forward wave: TE  Y = k_x / (ω μ0 μ_r);  TM  Y = ω ε0 ε_r / k_x.
 
-import { type Complex, div, mul, scale, sqrt, sub } from '../complex.ts';
+import { type Complex, decayingSqrtInto, div, mul, scale } from '../complex.ts';
 import { permeability } from '../materials/permeability.ts';
 import { permittivity } from '../materials/permittivity.ts';
 import type { BulkMaterial, Stack } from '../stack/types.ts';
@@ -48,13 +48,26 @@ export function regionOf(eps: Complex, thickness_m: number, f_Hz: number, kt2_ov
   mu: Complex = ONE): Region {
   const w = 2 * Math.PI * f_Hz;
   const k0 = w / C0_m_per_s;
-  let q = sqrt(sub(mul(eps, mu), kt2_over_k02)); // k_x / k0
-  if (q.im > 0 || (q.im === 0 && q.re < 0)) q = scale(q, -1);
+  const n2 = mul(eps, mu); // ε_r μ_r
+  const q = awayFromGrazing(decayingSqrtInto({ re: 0, im: 0 }, n2.re - kt2_over_k02.re, n2.im - kt2_over_k02.im)); // k_x / k0
   const kx = scale(q, k0);
   const Y = pol === 'TE'
     ? div(kx, scale(mu, w * MU0_H_per_m))
     : div(scale(eps, w * EPS0_F_per_m), kx);
   return { eps, mu, kx, Y, thickness_m };
+}
+
+/**
+ * At grazing inside a region (k_x → 0: the angle meets the critical one) the admittance vanishes (TE) or diverges
+ * (TM) and the recursion's 1 ± Γ lose every digit (exactly at it, 0/0). R and T are even in k_x there, so moving
+ * |k_x/k0| up to Q_MIN changes them by about (Q_MIN k0 d)², and keeps them finite.
+ */
+const Q_MIN = 1e-8;
+function awayFromGrazing(q: Complex): Complex {
+  const m = Math.hypot(q.re, q.im);
+  if (m >= Q_MIN) return q;
+  if (m === 0) return { re: Q_MIN, im: 0 };
+  return { re: (q.re / m) * Q_MIN, im: (q.im / m) * Q_MIN };
 }
 
 const region = (material: BulkMaterial, thickness_m: number, f_Hz: number, kt2_over_k02: Complex, pol: 'TE' | 'TM'): Region =>

@@ -56,45 +56,82 @@ function currentInLayer(s: StackAtFrequency, sol: Solution, i: number, z: number
   return mul(sol.A[i], sub(wave(L, z), mul(sol.gammaBack[i], wave(L, 2 * L.thickness_m - z))));
 }
 
+/** How far (in nepers of growth) a profile reaches into a lossy front medium. */
+const FRONT_GROWTH_NP = 20;
+
+/** A run of evenly spaced profile positions: m points from a towards b (b itself only with includeEnd). */
+interface ProfileSegment { a: number; b: number; m: number; includeEnd: boolean }
+
 /**
- * Sample positions for a profile at f_Hz: at least 1.5 wavelengths of the front medium in front
- * (and at least as far as the stack is thick), the whole stack with every interface exactly and at
- * least `minPerLayer` points per layer, and half a wavelength of the back medium behind (nothing
- * behind a conductor). Spacing at most λ_local / pointsPerWavelength everywhere.
+ * The segments behind profilePositions: at least 1.5 wavelengths of the front medium in front (and at least as
+ * far as the stack is thick), the whole stack with every interface exactly and at least `minPerLayer` points per
+ * layer, and half a wavelength of the back medium behind (nothing behind a conductor). Spacing at most
+ * λ_local / pointsPerWavelength everywhere.
  */
-export function profilePositions(
-  stack: Stack,
-  f_Hz: number,
-  pointsPerWavelength = 48,
-  minPerLayer = 8,
-): Float64Array {
+function profileSegments(stack: Stack, f_Hz: number, pointsPerWavelength: number, minPerLayer: number): ProfileSegment[] {
   const lambda0 = C0_m_per_s / f_Hz;
   const lambdaIn = (spec: BulkModel) => {
     const n = sqrt(mul(permittivity(spec, f_Hz), permeability(spec, f_Hz))).re; // Re √(εμ)
     return lambda0 / Math.max(n, 1e-6);
   };
-  const xs: number[] = [];
+  // In a lossy front medium the total field grows towards −x (relative to the incident wave at x = 0): stop
+  // where it has grown by e^FRONT_GROWTH_NP, long before it leaves the range of a double.
+  const frontLoss_per_m = (2 * Math.PI / lambda0) * Math.abs(sqrt(mul(permittivity(stack.front.spec, f_Hz), permeability(stack.front.spec, f_Hz))).im);
+  const out: ProfileSegment[] = [];
   const segment = (a: number, b: number, step: number, minPoints: number, includeEnd: boolean) => {
-    const m = Math.max(minPoints, Math.ceil((b - a) / step));
-    for (let i = 0; i < m; i++) xs.push(a + ((b - a) * i) / m);
-    if (includeEnd) xs.push(b);
+    out.push({ a, b, m: Math.max(minPoints, Math.ceil((b - a) / step)), includeEnd });
   };
   let d = 0;
   for (const l of stack.layers) if (l.kind === 'bulk') d += l.thickness_m;
   const lf = lambdaIn(stack.front.spec);
-  segment(-Math.max(1.5 * lf, d), 0, lf / pointsPerWavelength, 1, false);
+  const front = Math.max(1.5 * lf, d);
+  segment(-(frontLoss_per_m > 0 ? Math.min(front, FRONT_GROWTH_NP / frontLoss_per_m) : front), 0, lf / pointsPerWavelength, 1, false);
   let x = 0;
   for (const l of stack.layers) {
     if (l.kind !== 'bulk') continue;
     segment(x, x + l.thickness_m, lambdaIn(l.material.spec) / pointsPerWavelength, minPerLayer, false);
     x += l.thickness_m;
   }
-  xs.push(d);
+  out.push({ a: d, b: d, m: 0, includeEnd: true });
   if (stack.back !== 'pec') {
     const lb = lambdaIn(stack.back.spec);
     segment(d, d + 0.5 * lb, lb / pointsPerWavelength, 1, true);
   }
+  return out;
+}
+
+export const PROFILE_POINTS_PER_WAVELENGTH = 48;
+export const PROFILE_MIN_PER_LAYER = 8;
+
+/** Sample positions for a profile at f_Hz (see profileSegments), sorted and distinct. */
+export function profilePositions(
+  stack: Stack,
+  f_Hz: number,
+  pointsPerWavelength = PROFILE_POINTS_PER_WAVELENGTH,
+  minPerLayer = PROFILE_MIN_PER_LAYER,
+): Float64Array {
+  const xs: number[] = [];
+  for (const { a, b, m, includeEnd } of profileSegments(stack, f_Hz, pointsPerWavelength, minPerLayer)) {
+    for (let i = 0; i < m; i++) xs.push(a + ((b - a) * i) / m);
+    if (includeEnd) xs.push(b);
+  }
   return Float64Array.from(dedupeSorted(xs));
+}
+
+/** How many positions profilePositions gives at most (before merging equal ones), without making them. */
+export function profilePointCount(
+  stack: Stack,
+  f_Hz: number,
+  pointsPerWavelength = PROFILE_POINTS_PER_WAVELENGTH,
+  minPerLayer = PROFILE_MIN_PER_LAYER,
+): number {
+  return profileSegments(stack, f_Hz, pointsPerWavelength, minPerLayer).reduce((n, s) => n + s.m + (s.includeEnd ? 1 : 0), 0);
+}
+
+/** The x range profilePositions covers, metres. */
+export function profileRange(stack: Stack, f_Hz: number): [number, number] {
+  const segs = profileSegments(stack, f_Hz, PROFILE_POINTS_PER_WAVELENGTH, 1);
+  return [segs[0].a, segs[segs.length - 1].b];
 }
 
 function dedupeSorted(xs: number[]): number[] {

@@ -239,7 +239,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
       byName.set(path.slice(folder.length + 1), Buffer.from(data));
     }
     expect([...byName.keys()].sort()).toEqual([
-      'README.txt', `${DEFAULT_STEM}.mp4`, `${DEFAULT_STEM}.stack.json`, 'echoes.csv', ...VIEWS.map((v) => `${v}.png`),
+      'README.txt', `${DEFAULT_STEM}.mp4`, `${DEFAULT_STEM}.stack.json`, 'echoes.csv', 'echoes_T.csv', ...VIEWS.map((v) => `${v}.png`),
       'profile.csv', 'spectrum.csv', 'summary.json', 'trace.csv',
     ].sort());
     const text = (n: string): string => { const b = byName.get(n); expect(b, n).toBeDefined(); return b!.toString('utf8'); };
@@ -248,13 +248,14 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(header('spectrum.csv')).toContain('R_fdtd_re,R_fdtd_im,T_fdtd_re,T_fdtd_im');
     expect(header('profile.csv')).toMatch(/^x_mm,E_tmm_re,E_tmm_im/);
     expect(header('profile.csv')).toContain('E_fdtd_re,E_fdtd_im');
-    expect(header('echoes.csv')).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path');
+    expect(header('echoes.csv')).toBe('t_ns,level_dB,amplitude,predicted_t_ns,path,nearest_path,resolved');
+    expect(header('echoes_T.csv')).toBe(header('echoes.csv'));
     expect(header('trace.csv')).toBe('t_ns,E_incident,E_reflected,E_transmitted');
     expect(JSON.parse(text('summary.json'))).toHaveProperty('grid');
     // The exported stack file runs unchanged through the pipeline `slabecho run` uses and gives the
     // same tables: same header, same rows, same paths, numbers equal to 1e-9 (relative above 1). The
     // browser's and node's JavaScript engines may differ in the last bits of a few Math functions;
-    // the echo fit's iterations amplify that, so echo delays and levels are held to 1e-6.
+    // echo delays and levels come from iterated peak searches, so they are held to 1e-6.
     const stackText = text(`${DEFAULT_STEM}.stack.json`);
     expect(parseStackText(stackText).ok).toBe(true);
     const cli = await nodeReport(stackText);
@@ -262,9 +263,10 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
       'spectrum.csv': formatCsv(cli.spectrum),
       'profile.csv': formatCsv(cli.profile),
       'echoes.csv': formatEchoesCsv(cli.echoes),
+      'echoes_T.csv': formatEchoesCsv(cli.echoesT),
       'trace.csv': formatCsv(cli.trace),
     };
-    for (const [name, want] of Object.entries(expected)) sameCsv(name, text(name), want, name === 'echoes.csv' ? 1e-6 : 1e-9);
+    for (const [name, want] of Object.entries(expected)) sameCsv(name, text(name), want, name.startsWith('echoes') ? 1e-6 : 1e-9);
     for (const v of VIEWS) {
       const png = byName.get(`${v}.png`);
       expect(png, `${v}.png`).toBeDefined();

@@ -101,6 +101,24 @@ describe('magnetic media in TE (μ ≠ 1)', () => {
   });
 });
 
+describe('a measured μ table', () => {
+  it('is stepped as a fitted causal model: a table sampled from the Lorentz μ above runs like the Lorentz model, TM at 40°', () => {
+    const mu = (f_GHz: number) => { const r = f_GHz / 2.5, d = (1 - r * r) ** 2 + (r * 2) ** 2; return { re: 1 + (3 * (1 - r * r)) / d, loss: (3 * r * 2) / d }; };
+    const rows = Array.from({ length: 41 }, (_, i) => 1 + (7 * i) / 40).map((f): [number, number, number] => [f, mu(f).re, mu(f).loss]);
+    const eps = rows.map(([f]): [number, number, number] => [f, 12, 0.05 / (2 * Math.PI * f * 1e9 * 8.8541878128e-12)]);
+    const table = material('sampled', { model: 'table', points: eps, mu_points: rows } as BulkModel);
+    const s = at(stackOf([bulk(table, 4)], { band_GHz: [2, 6], back: 'pec' }), 40, 'TM');
+    const { run, engine, total } = errors(s);
+    expect(run.plan.fits.map((f) => `${f.quantity}/${f.source}`)).toEqual(['permittivity/table', 'permeability/table']);
+    expect(engine).toBeLessThan(run.plan.accuracyTarget);
+    // Against the Lorentz model the table was sampled from (the exact solver on it).
+    const f = linspace(2e9, 6e9, 31);
+    const lorentz = maxDiff(runSpectrum(run, f), solveTmm(at(stackOf([bulk(loaded, 4)], { band_GHz: [2, 6], back: 'pec' }), 40, 'TM'), f));
+    expect(Math.max(lorentz.R, lorentz.T)).toBeLessThan(run.plan.accuracyTarget);
+    expect(total).toBeLessThan(run.plan.accuracyTarget);
+  });
+});
+
 describe('the line the engine steps is the stack at its angle', () => {
   it('its exact solution equals the stack\'s at the angle to rounding of the partial fractions (TM and TE, μ and ε dispersive)', () => {
     const f = linspace(1e9, 8e9, 29);

@@ -52,7 +52,7 @@ describe('closed forms', () => {
 
 describe('the pulse engine steps the same media', () => {
   it('step models of Debye, Lorentz and Drude materials (with σ) give the material ε_r(f) to rounding', () => {
-    const models: Exclude<BulkModel, { model: 'power-law' }>[] = [
+    const models: Exclude<BulkModel, { model: 'power-law' | 'table' }>[] = [
       { model: 'debye', eps_inf: 3, poles: [{ delta_eps: 10, tau_ps: 20 }, { delta_eps: 2, tau_ps: 3 }], sigma_S_per_m: 0.05 },
       { model: 'lorentz', eps_inf: 2, poles: [{ delta_eps: 3, f0_GHz: 6, gamma_GHz: 1 }, { delta_eps: 0.5, f0_GHz: 15, gamma_GHz: 4 }], sigma_S_per_m: 0.01 },
       { model: 'drude', eps_inf: 1, plasma_GHz: 6, collision_GHz: 0.5, sigma_S_per_m: 0.2 },

@@ -2,7 +2,7 @@
 // (the same sign convention as ε_r; physics reference, conventions). A material without a magnetic block has μ_r = 1.
 
 import { describe, expect, it } from 'vitest';
-import { magneticPermeability, permeability } from '../../src/materials/permeability.ts';
+import { isNonMagnetic, magneticPermeability, permeability } from '../../src/materials/permeability.ts';
 import { permittivity } from '../../src/materials/permittivity.ts';
 import type { BulkModel, DebyeMagnetic, LorentzMagnetic } from '../../src/materials/types.ts';
 
@@ -45,5 +45,16 @@ describe('closed forms', () => {
     const above = magneticPermeability(m, 4 * GHz);
     expect(above.re).toBeLessThan(1);
     for (const f of [0.5, 1, 2, 3, 5, 10]) expect(magneticPermeability(m, f * GHz).im).toBeLessThanOrEqual(0);
+  });
+});
+
+describe('isNonMagnetic', () => {
+  it('is true only for blocks that leave μ_r = 1', () => {
+    expect(isNonMagnetic(undefined)).toBe(true);
+    expect(isNonMagnetic({ model: 'fixed', mu_r: 1, mu_loss: 0 })).toBe(true);
+    expect(isNonMagnetic({ model: 'debye', mu_inf: 1, poles: [{ delta_mu: 0, tau_ps: 3 }] })).toBe(true);
+    expect(isNonMagnetic({ model: 'fixed', mu_r: 1, mu_loss: 0.01 })).toBe(false);
+    expect(isNonMagnetic({ model: 'fixed', mu_r: 1.5, mu_loss: 0 })).toBe(false);
+    expect(isNonMagnetic({ model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 1, f0_GHz: 3, gamma_GHz: 1 }] })).toBe(false);
   });
 });

@@ -173,8 +173,11 @@ describe('bad input: band, points, profile', () => {
   });
   it('NaN and Infinity (objects built in code; 1e999 in JSON)', () => {
     expectError({ band_GHz: [1, Number.NaN] }, 'band_GHz[1]', /got NaN/);
-    expectError({ band_GHz: [1, Infinity] }, 'band_GHz[1]', /got Infinity/);
-    expectError('{"band_GHz": [1, 1e999]}', 'band_GHz[1]', /got Infinity/);
+    expectError({ band_GHz: [1, Infinity] }, 'band_GHz[1]', /too large/);
+    // A number beyond the double range overflows to Infinity when read (IEEE 754: the largest double is about 1.8e308).
+    expectError('{"band_GHz": [1, 1e999]}', 'band_GHz[1]', /^band_GHz\[1\]: too large \(beyond ±1\.8e308/);
+    expectError(withBase({ layers: [{ material: 'brick', thickness_mm: 1e400 }] }), 'layers[0].thickness_mm', /too large.*must be a number > 0/);
+    expectError('{"band_GHz": [1, 2], "incidence": {"angle_deg": -1e400}}', 'incidence.angle_deg', /too large a negative number/);
     expectError(withBase({ layers: [{ material: 'brick', thickness_mm: Number.NaN }] }), 'layers[0].thickness_mm');
     expectError(withBase({ materials: { f: { model: 'fixed', eps_r: Number.NaN } } }), 'materials.f.eps_r');
   });
@@ -316,6 +319,43 @@ describe('warnings (the stack stays valid)', () => {
   });
 });
 
+describe('text that could mislead a terminal or break a file', () => {
+  // Control characters (C0 U+0000–001F, DEL, C1 U+0080–009F) and the explicit bidirectional controls of Unicode
+  // Standard Annex #9 (LRE/RLE/PDF/LRO/RLO U+202A–202E, isolates U+2066–2069, marks U+200E/200F/061C; from memory).
+  const cases: [string, string][] = [
+    ['NUL', '\u0000'], ['escape', '\u001b[31m'], ['tab', '\t'], ['C1 next line', '\u0085'], ['DEL', '\u007f'],
+    ['right-to-left override', '\u202e'], ['left-to-right isolate', '\u2066'], ['right-to-left mark', '\u200f'],
+    ['line separator', '\u2028'],
+  ];
+  it('a title with any of them is refused, naming the field, the character and where it is', () => {
+    for (const [what, ch] of cases) {
+      const errs = expectError(withBase({ title: `Wall ${ch}x` }), 'title', new RegExp(`U\\+${ch.codePointAt(0)!.toString(16).toUpperCase().padStart(4, '0')}\\) at character 6`));
+      expect(errs.join('\n'), what).not.toContain(ch);
+    }
+  });
+  it('an unpaired surrogate written as a JSON escape is refused too', () => {
+    expectError('{"band_GHz": [1, 2], "title": "ab\\ud800"}', 'title', /unpaired surrogate/);
+  });
+  it('material names are refused; notes may hold tabs and line feeds but nothing else', () => {
+    expectError(withBase({ materials: { 'foam\u202e': { model: 'fixed', eps_r: 1.1 } } }), 'materials["foam\\u{202E}"]', /bidirectional-text control \(U\+202E\)/);
+    ok(withBase({ materials: { foam: { model: 'fixed', eps_r: 1.1, note: 'line one\n\tline two' } }, layers: [{ material: 'foam', thickness_mm: 1 }] }));
+    expectError(withBase({ materials: { foam: { model: 'fixed', eps_r: 1.1, note: 'a\u0007b' } }, layers: [{ material: 'foam', thickness_mm: 1 }] }),
+      'materials.foam.note', /control character \(U\+0007\)/);
+  });
+  it('messages quoting a refused value, key or name show the characters escaped, never raw', () => {
+    for (const input of [
+      withBase({ layers: [{ material: 'brick\u202e', thickness_mm: 1 }] }),
+      withBase({ 'tit\u202ele': 'x' }),
+      withBase({ incidence: { polarization: 'T\u202eE' } }),
+      withBase({ materials: { m: { model: 'fix\u202eed' } } }),
+    ]) {
+      const errs = errors(parseStackObject(input)).join('\n');
+      expect(errs).not.toMatch(/[\u202e]/);
+      expect(errs).toContain('\\u{202E}');
+    }
+  });
+});
+
 describe('magnetic blocks (permeability on a bulk material)', () => {
   const mag = (magnetic: unknown, extra: Record<string, unknown> = {}) => withBase({
     materials: { ferrite: { model: 'fixed', eps_r: 12, magnetic, ...extra } },
@@ -361,7 +401,7 @@ describe('magnetic blocks (permeability on a bulk material)', () => {
     expectError(mag({ model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 1, f0_GHz: 3, gamma_GHz: -1 }] }), 'materials.ferrite.magnetic.poles[0].gamma_GHz', /≥ 0/);
     // A lossless resonance inside the band (1–6 GHz) is singular there.
     expectError(mag({ model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 1, f0_GHz: 3, gamma_GHz: 0 }] }), 'materials.ferrite.magnetic.poles[0].gamma_GHz', /inside the band/);
-    expectError(mag({ model: 'fixed', mu_r: Infinity }), 'materials.ferrite.magnetic.mu_r', /Infinity/);
+    expectError(mag({ model: 'fixed', mu_r: Infinity }), 'materials.ferrite.magnetic.mu_r', /too large/);
   });
   it('reports a bad block together with the permittivity\'s own problems, and refuses one on a sheet', () => {
     const errs = expectError(mag({ model: 'fixed', mu_r: 0 }, { eps_r: 0.5 }), 'materials.ferrite.eps_r', /≥ 1/);

@@ -9,7 +9,9 @@ import { solveFem } from '../../fem/solve.ts';
 import type { Stack } from '../../stack/types.ts';
 import { loadStackFile } from '../io.ts';
 import type { Command } from '../command.ts';
-import { numberOption, readArgs, type ParsedArgs } from '../command.ts';
+import { InputError, numberOption, readArgs, type ParsedArgs } from '../command.ts';
+import { estimateBench } from '../../report/estimate-study.ts';
+import { budgetFromArgs } from '../budget-args.ts';
 
 const DEFAULT_CELLS = 200_000;
 const DEFAULT_STEPS = 5_000;
@@ -46,14 +48,18 @@ second. Defaults: N = ${DEFAULT_CELLS}, T = ${DEFAULT_STEPS} (a few seconds). Be
 Options:
   --cells N   grid size (1 to 20000000)
   --steps T   time steps (1 to 10000000)
+  --max-seconds S  refuse a benchmark estimated to take longer than S seconds (default 30)
   --json      print one JSON object {"cells","steps","seconds","mcells_per_s","fem"}`,
   async run(args, io) {
     const parsed = readArgs(bench, args, io, {
-      cells: { type: 'string' }, steps: { type: 'string' }, json: { type: 'boolean' },
+      cells: { type: 'string' }, steps: { type: 'string' }, json: { type: 'boolean' }, 'max-seconds': { type: 'string' },
     }, [0, 0]);
     if (parsed === null) return 0;
     const cells = countOption(parsed.values, 'cells', DEFAULT_CELLS, 20_000_000);
     const steps = countOption(parsed.values, 'steps', DEFAULT_STEPS, 10_000_000);
+    const { budget, limitNames } = budgetFromArgs(parsed.values);
+    const est = estimateBench(cells, steps, budget, limitNames.seconds);
+    if (est.refusal !== undefined) throw new InputError(est.refusal);
     const grid = benchGrid(cells);
     benchSteps(grid, Math.min(50, steps)); // warm-up (JIT), not timed
     const t0 = performance.now();

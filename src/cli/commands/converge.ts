@@ -12,6 +12,8 @@ import type { Command } from '../command.ts';
 import { InputError, readArgs, UsageError } from '../command.ts';
 import { femOrderFromArgs } from '../fem-args.ts';
 import { loadOrExplain, MEDIA_ARG_OPTIONS, mediaFromArgs, planErrorAsInput } from './solve.ts';
+import { estimateFdtdStudy, estimateFemStudy } from '../../report/estimate-study.ts';
+import { budgetFromArgs } from '../budget-args.ts';
 
 /** Frequencies a study uses: the stack's own, at most this many (the study solves many meshes). */
 const MAX_STUDY_POINTS = 201;
@@ -32,12 +34,13 @@ Options:
   --fem-order P   study one FEM order (1, 2 or 3) instead of all three
   --media M       tables (default) or stepped: the FEM study solves the media as the pulse engine steps
                   them (power laws as their fitted causal models); the FDTD study always shows both
+  --max-seconds S refuse a study estimated to take longer than S seconds (default 30)
   -h, --help      show this help
 
 Uses the stack's frequencies (at most ${MAX_STUDY_POINTS}, spread over the band).
 Exit: 0 done, 2 invalid stack or usage, 1 internal error.`,
   async run(args, io) {
-    const a = readArgs(converge, args, io, { method: { type: 'string' }, 'fem-order': { type: 'string' }, ...MEDIA_ARG_OPTIONS }, [1, 1]);
+    const a = readArgs(converge, args, io, { method: { type: 'string' }, 'fem-order': { type: 'string' }, ...MEDIA_ARG_OPTIONS, 'max-seconds': { type: 'string' } }, [1, 1]);
     if (a === null) return 0;
     const method = (a.values.method as string | undefined) ?? 'fem';
     if (method !== 'fem' && method !== 'fdtd') throw new UsageError(`--method: must be fem or fdtd (got "${method}")`);
@@ -45,9 +48,14 @@ Exit: 0 done, 2 invalid stack or usage, 1 internal error.`,
     if (po !== undefined && method === 'fdtd') throw new UsageError('--fem-order: applies to --method fem only');
     const orders: FemOrder[] = po === undefined ? [1, 2, 3] : [po];
     const media = mediaFromArgs(a.values);
+    const { budget, limitNames } = budgetFromArgs(a.values);
     const { stack, warnings } = loadOrExplain(a.positionals[0], io);
     for (const w of warnings) io.err(`warning: ${w}`);
     const f = stack.points <= MAX_STUDY_POINTS ? bandFrequencies(stack) : linspace(stack.band_Hz[0], stack.band_Hz[1], MAX_STUDY_POINTS);
+    // Every mesh or grid the study will make, estimated before the first is built.
+    const est = method === 'fem' ? estimateFemStudy(stack, f, orders, budget, limitNames.seconds)
+      : estimateFdtdStudy(stack, f.length, budget, limitNames.seconds);
+    if (est.refusal !== undefined) throw new InputError(est.refusal);
     // The study runs before anything is printed, so a stack the engine refuses gives one line and exit 2.
     const lines: string[] = [];
     if (method === 'fem') {

@@ -1,12 +1,14 @@
 // slabecho materials [--at-GHz F] [--json]: the built-in catalog with sources and validity ranges.
 
-import { CATALOG, CATALOG_EDITION, CATALOG_ROWS, catalogRanges, pickRange } from '../../materials/catalog.ts';
+import { CATALOG, CATALOG_EDITION, CATALOG_ROWS, catalogNames, catalogRanges, pickRange } from '../../materials/catalog.ts';
+import { suggest } from '../../stack/problems.ts';
 import { effectiveConductivity, permittivity } from '../../materials/permittivity.ts';
 import { permeability } from '../../materials/permeability.ts';
+import { tableRange_GHz } from '../../materials/table.ts';
 import type { MagneticModel, Material, MaterialModel } from '../../materials/types.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
-import type { Command } from '../command.ts';
-import { numberOption, readArgs } from '../command.ts';
+import type { Command, Io } from '../command.ts';
+import { numberOption, readArgs, UsageError } from '../command.ts';
 
 export interface MaterialRow {
   name: string;
@@ -60,6 +62,10 @@ function permittivityText(s: MaterialModel): string {
     case 'debye': return `ε∞=${s.eps_inf} ${s.poles.map((p) => `Δε=${p.delta_eps} τ=${p.tau_ps}ps`).join(' ')}${s.sigma_S_per_m ? ` σ=${s.sigma_S_per_m}` : ''}`;
     case 'lorentz': return `ε∞=${s.eps_inf} ${s.poles.map((p) => `Δε=${p.delta_eps} f0=${p.f0_GHz} γ=${p.gamma_GHz}GHz`).join(' ')}`;
     case 'drude': return `ε∞=${s.eps_inf} fp=${s.plasma_GHz} fc=${s.collision_GHz}GHz`;
+    case 'table': {
+      const [a, b] = tableRange_GHz(s.points);
+      return `${s.points.length} rows ${a}–${b} GHz${s.mu_points ? `, μ: ${s.mu_points.length} rows` : ''}`;
+    }
     case 'sheet': return `${s.ohm_per_sq} Ω/sq`;
   }
 }
@@ -73,7 +79,7 @@ function table(header: string[], rows: string[][]): string[] {
 export const materials: Command = {
   name: 'materials',
   summary: 'list the built-in materials with their sources and validity ranges',
-  usage: `Usage: slabecho materials [--at-GHz F] [--json]
+  usage: `Usage: slabecho materials [--at-GHz F] [--json] [--export NAME]
 
 List the built-in material catalog: name, model, parameters, the source of the numbers and the
 frequency range over which the source vouches for them (a material with two ranges, each with its own
@@ -86,11 +92,15 @@ Options:
   --json       print a JSON array of rows {name, model, eps_r, sigma_S_per_m, mu_r, mu_loss, parameters,
                source, valid_GHz, note} (eps_r and sigma_S_per_m only with --at-GHz, mu_r and mu_loss
                only then and for a magnetic material)
+  --export NAME  print catalog material NAME as a user material (JSON, to paste under "materials" in a
+               stack file and edit; its values can then be swept or varied, e.g. materials.NAME-custom.a);
+               with --at-GHz, the validity range that holds F
   -h, --help   show this help`,
   async run(args, io) {
-    const a = readArgs(materials, args, io, { 'at-GHz': { type: 'string' }, json: { type: 'boolean' } }, [0, 0]);
+    const a = readArgs(materials, args, io, { 'at-GHz': { type: 'string' }, json: { type: 'boolean' }, export: { type: 'string' } }, [0, 0]);
     if (a === null) return 0;
     const f = numberOption(a.values, 'at-GHz', 'must be a number > 0 and at most 1000 (GHz)', (x) => x > 0 && x <= 1000);
+    if (typeof a.values.export === 'string') { exportMaterial(a.values.export, f, io); return 0; }
     // Every validity range is a row; at one frequency, each material in the range that holds it (or the nearest).
     const listed = f === undefined ? CATALOG_ROWS : CATALOG.map((m) => pickRange(catalogRanges(m.name), f, f).range);
     const rows = listed.map((m) => materialRow(m, f));
@@ -126,3 +136,28 @@ Options:
     return 0;
   },
 };
+
+/**
+ * `--export NAME`: the catalog material as a user material, `{"NAME-custom": {model, parameters, valid_GHz, note}}`,
+ * ready to paste under "materials" (a user material may not reuse a catalog name, hence the new name).
+ */
+function exportMaterial(name: string, f_GHz: number | undefined, io: Io): void {
+  const ranges = catalogRanges(name);
+  if (ranges.length === 0) {
+    const near = suggest(name, catalogNames());
+    throw new UsageError(`--export: "${name}" is not a catalog material${near ? ` (did you mean "${near}"?)` : ''}; see slabecho materials`);
+  }
+  const m = f_GHz === undefined ? ranges[0] : pickRange(ranges, f_GHz, f_GHz).range;
+  const own = `${name}-custom`;
+  const entry: Record<string, unknown> = { ...structuredClone(m.spec) };
+  if (m.valid_GHz !== null) entry.valid_GHz = [...m.valid_GHz];
+  // The catalog's own note (values from memory, a conductor) travels with the copy.
+  entry.note = `copied from the catalog's ${name} (${m.source}); use "${own}" in layers, front or back${m.note ? `. Catalog note: ${m.note}` : ''}`;
+  io.out(JSON.stringify({ [own]: entry }, null, 2));
+  for (const r of ranges) {
+    if (r !== m && r.valid_GHz) {
+      io.err(`note: ${name} has another validity range, ${fmtGHz(r.valid_GHz[0])}–${fmtGHz(r.valid_GHz[1])} GHz, with its own coefficients ` +
+        `(add --at-GHz ${fmtGHz(r.valid_GHz[0])} to export that one)`);
+    }
+  }
+}

@@ -3,14 +3,23 @@
 import { join } from 'node:path';
 import { solveReport, type Media, type Report } from '../../report/solve.ts';
 import { PlanError } from '../../fdtd/errors.ts';
-import { formatCsv } from '../../report/table.ts';
+import { csvChunks } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import type { Stack } from '../../stack/types.ts';
+import type { StackFile } from '../../stack/file.ts';
 import type { Command, Io, ParsedArgs } from '../command.ts';
 import { CliError, InputError, readArgs, UsageError } from '../command.ts';
-import { ensureDir, loadStackFile, removeIfPresent, writeFilesAtomic } from '../io.ts';
+import { ensureDir, loadStackFile, removeIfPresent, textFile, writeFilesAtomic, type OutputFile, type WriteOptions } from '../io.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
+import { estimateSolve } from '../../report/estimate.ts';
+import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
+import { SParameterError, sParameters, type PlaneShift } from '../../studies/sparams.ts';
+import { bandFrequencies } from '../../results.ts';
+import { solveTmm } from '../../tmm/solve.ts';
+import { touchstoneExtension, touchstoneText } from '../../studies/touchstone.ts';
+import { SLABECHO_VERSION } from '../../version.ts';
+import { TOUCHSTONE_ARG_OPTIONS, TOUCHSTONE_ARG_USAGE, touchstoneFromArgs } from '../studies/args.ts';
 
 /** --media, shared by solve, run and converge. */
 export const MEDIA_ARG_OPTIONS = { media: { type: 'string' } } as const;
@@ -35,37 +44,49 @@ export function planErrorAsInput<T>(work: () => T): T {
 }
 
 /** Load FILE, or print its problems (one line each) and throw InputError (exit 2). */
-export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: string[] } {
+export function loadOrExplain(path: string, io: Io): { stack: Stack; warnings: string[]; file: StackFile } {
   const r = loadStackFile(path);
   if (!r.ok) {
     for (const line of r.errors) io.err(`${path}: ${line}`);
     throw new InputError(`${path}: ${r.errors.length} problem${r.errors.length === 1 ? '' : 's'}; nothing was written`);
   }
-  return { stack: r.stack, warnings: r.warnings };
+  return { stack: r.stack, warnings: r.warnings, file: r.file };
 }
 
-/** A file of a report: its name in the output directory and its text. */
-export interface ReportFile { name: string; text: string }
-
 /**
- * Write a report's files into `dir` (created if needed) all at once, atomically: spectrum.csv, profile.csv
- * (when there is a profile), then `extra`, then summary.json. Returns the paths written.
+ * Write a report's files into `dir` (created if needed) all at once, atomically and streamed row by row:
+ * spectrum.csv, profile.csv (when there is a profile), then `extra`, then summary.json. Returns the paths written.
  */
-export function writeReport(dir: string, report: Report, extra: readonly ReportFile[] = []): string[] {
+export function writeReport(dir: string, report: Report, extra: readonly OutputFile[] = [], options: WriteOptions = {}): string[] {
   ensureDir(dir);
-  const files: ReportFile[] = [{ name: 'spectrum.csv', text: formatCsv(report.spectrum) }];
-  if (report.profile.length > 0) files.push({ name: 'profile.csv', text: formatCsv(report.profile) });
-  files.push(...extra, { name: 'summary.json', text: `${JSON.stringify(report.summary, null, 2)}\n` });
-  const written = writeFilesAtomic(dir, files);
+  const files: OutputFile[] = [{ name: 'spectrum.csv', chunks: csvChunks(report.spectrum) }];
+  if (report.profile.length > 0) files.push({ name: 'profile.csv', chunks: csvChunks(report.profile) });
+  files.push(...extra, textFile('summary.json', `${JSON.stringify(report.summary, null, 2)}\n`));
+  const written = writeFilesAtomic(dir, files, options);
   // A profile.csv left by an earlier normal-incidence run would not belong to these results.
   if (report.profile.length === 0) removeIfPresent(join(dir, 'profile.csv'));
   return written;
+}
+
+/**
+ * spectrum.s2p (or .s1p behind a conductor) of the stack as written (also with --media stepped); InputError (exit 2,
+ * nothing written) when a half-space cannot be a port.
+ */
+export function touchstoneFile(stack: Stack, shift: PlaneShift): OutputFile {
+  try {
+    const s = sParameters(stack, solveTmm(stack, bandFrequencies(stack)), shift);
+    return textFile(`spectrum${touchstoneExtension(s)}`, touchstoneText(stack, s, shift, SLABECHO_VERSION));
+  } catch (e) {
+    if (e instanceof SParameterError) throw new InputError(`--touchstone: ${e.message}; nothing was written`);
+    throw e;
+  }
 }
 
 export const solve: Command = {
   name: 'solve',
   summary: 'exact R, T spectra and standing-wave profile of a stack into a directory',
   usage: `Usage: slabecho solve FILE --out DIR [--fem-order P] [--fem-density N] [--media tables|stepped]
+                    [--touchstone [--deembed-mm F,B]]
 
 Solve the stack in FILE with the exact transfer-matrix method, cross-checked by the FEM, and write into DIR
 (created if needed):
@@ -73,28 +94,39 @@ Solve the stack in FILE with the exact transfer-matrix method, cross-checked by 
   profile.csv    x_mm,E_tmm_re,E_tmm_im,E_fem_re,E_fem_im: total tangential E along the normal line at
                  profile_GHz, incident amplitude 1 at x = 0, at any angle; in TM also H_tmm_re,H_tmm_im
                  after E_tmm and H_fem_re,H_fem_im after E_fem: the tangential H over its incident value
+                 ... then R_power,T_power,absorbed,IL_dB,RL_dB,IPD_deg (the engineering quantities, exact)
   summary.json   the stack as understood, methods run with timings, results in brief, warnings
+  spectrum.s2p   with --touchstone (spectrum.s1p behind a conductor): Touchstone 2.0 S-parameters
 Files are written atomically: an interrupted run leaves the previous files or the new ones.
+The work is estimated first: a job over the limits below is refused before it starts.
 
 Options:
-  --out DIR    output directory (required)
+  --out DIR          output directory (required)
 ${FEM_ARG_USAGE}
 ${MEDIA_ARG_USAGE}
-  -h, --help   show this help
+${TOUCHSTONE_ARG_USAGE}
+${BUDGET_ARG_USAGE}
+  -h, --help         show this help
 
-Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
+Exit: 0 done, 2 invalid stack, usage, or a job over its limits (nothing written), 1 internal error.`,
   async run(args, io) {
-    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...MEDIA_ARG_OPTIONS }, [1, 1]);
+    const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...MEDIA_ARG_OPTIONS, ...TOUCHSTONE_ARG_OPTIONS, ...BUDGET_ARG_OPTIONS }, [1, 1]);
     if (a === null) return 0;
     const out = a.values.out;
     if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho solve --help)');
     const fem = femOptionsFromArgs(a.values);
     const media = mediaFromArgs(a.values);
+    const shift = touchstoneFromArgs(a.values);
+    const { budget, limitNames } = budgetFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
-    const report = planErrorAsInput(() => solveReport(stack, { inputWarnings: warnings, fem, media }));
+    const job = estimateSolve(stack, { fem, budget, limitNames, touchstone: shift !== null });
+    if (job.refusal !== undefined) throw new InputError(`${job.refusal}; nothing was written`);
+    const report = planErrorAsInput(() => solveReport(stack, { inputWarnings: warnings, fem, media, job }));
+    const touchstone = shift === null ? [] : [touchstoneFile(stack, shift)];
     for (const w of report.warnings) io.err(`warning: ${w}`);
-    const written = writeReport(out, report);
+    const written = writeReport(out, report, touchstone, { maxBytes: budget.maxOutput_bytes, limitName: limitNames.output });
+    if (touchstone.length > 0) removeIfPresent(join(out, touchstone[0].name.endsWith('.s1p') ? 'spectrum.s2p' : 'spectrum.s1p'));
     const s = report.summary as { results: Record<string, number | null>; methods: { name: string; time_ms: number }[] };
     const r = s.results;
     const inc = stack.incidence.angle_rad === 0 ? `normal incidence (${stack.incidence.polarization})`
@@ -107,6 +139,10 @@ Exit: 0 done, 2 invalid stack or usage (nothing written), 1 internal error.`,
       line += `; absorbed up to ${(100 * r.absorbed_fraction_max).toFixed(1)} % (at ${fmtGHz(r.absorbed_fraction_max_at_GHz as number)} GHz)`;
     }
     io.out(line);
+    if (r.T_dB_min !== null && typeof r.IL_dB_min === 'number') {
+      io.out(`insertion loss ${r.IL_dB_min.toFixed(2)} to ${(r.IL_dB_max as number).toFixed(2)} dB; ` +
+        `insertion phase delay ${(r.IPD_deg_min as number).toFixed(1)} to ${(r.IPD_deg_max as number).toFixed(1)}°`);
+    }
     io.out(`wrote ${written.join(', ')} (${s.methods.map((m) => `${m.name} ${m.time_ms.toFixed(1)} ms`).join(', ')})`);
     if (report.agreement.length > 0) io.out(formatAgreement(report.agreement));
     return 0;

@@ -1,0 +1,113 @@
+// Rows and names on the stacks a radar or wall-survey engineer meets, from records synthesized with the
+// exact solution: one row per resolvable group of paths, paths closer than the resolution named
+// together as unresolved, sheets named by their material, no row before the front face, path text of
+// at most 80 characters, no path in two rows. Layer materials: ITU-R P.2040-3 Table 3 power laws and
+// the catalog's Debye water; the scenarios are invented.
+import { describe, expect, it } from 'vitest';
+import { catalogMaterial } from '../../src/materials/catalog.ts';
+import { analyseEchoes, type EchoAnalysis, type EchoTable } from '../../src/echoes/table.ts';
+import { bandPulse } from '../../src/echoes/band-pulse.ts';
+import type { BulkMaterial, Layer, SheetMaterial, Stack } from '../../src/stack/types.ts';
+import { AIR, dielectric, layer, makeStack } from '../support/build-stack.ts';
+import { exactRecords, expectExact } from './support.ts';
+import { EARLIEST_WIDTHS } from '../../src/echoes/detect.ts';
+
+const cat = (name: string) => catalogMaterial(name) as BulkMaterial;
+const named = (name: string, ohm_per_sq: number): Layer =>
+  ({ kind: 'sheet', material: { name, spec: { model: 'sheet', ohm_per_sq }, source: 'test', valid_GHz: null } as SheetMaterial });
+
+/** Checks every table must pass, whatever the stack. */
+function expectWellFormed(stack: Stack, a: EchoAnalysis): void {
+  const W = bandPulse(stack.band_Hz).width_s;
+  for (const t of [a.reflected, a.transmitted].filter((x): x is EchoTable => x !== null)) {
+    for (const p of t.path) expect(p.length).toBeLessThanOrEqual(80);
+    const all = t.members.flat().map((m) => m.path);
+    expect(new Set(all).size).toBe(all.length); // no path in two rows
+    for (let i = 1; i < t.t_s.length; i++) expect(t.t_s[i] - t.t_s[i - 1]).toBeGreaterThanOrEqual(W); // one row per group
+    t.path.forEach((p, i) => expect(p.endsWith('(unresolved)')).toBe(!t.resolved[i]));
+  }
+  for (let i = 0; i < a.reflected.t_s.length; i++) {
+    if (a.reflected.t_s[i] < 0) {
+      expect(i).toBe(0);
+      expect(a.reflected.t_s[i]).toBeGreaterThanOrEqual(-EARLIEST_WIDTHS * W);
+      expect(a.reflected.path[i]).toMatch(/front face/);
+    }
+  }
+}
+
+const analyse = (stack: Stack) => { const a = analyseEchoes(stack, exactRecords(stack)); expectWellFormed(stack, a); return a; };
+const rowWith = (t: EchoTable, text: string) => t.path.findIndex((p) => p.includes(text));
+
+describe('rows and names on real stacks', () => {
+  it('150 mm concrete on a conductor, 1–6 GHz: two rows, front face and conductor', () => {
+    const stack = makeStack({ band_GHz: [1, 6], layers: [layer(cat('concrete'), 0.15)], back: 'pec' });
+    const a = analyse(stack);
+    expect(a.reflected.path).toEqual(['front face', 'conductor']);
+    expect(a.transmitted).toBeNull();
+  });
+
+  it('20 mm skin of ε = 3, 1–6 GHz: front and back face closer than the pulse width are one row naming both', () => {
+    // 2 d √ε / c = 0.231 ns, below the band pulse's 0.535 ns width
+    const stack = makeStack({ band_GHz: [1, 6], layers: [layer(dielectric(3, 0, 'skin'), 0.02)] });
+    const a = analyse(stack);
+    expect(a.reflected.path[0]).toMatch(/^front face \+ back face.*\(unresolved\)$/);
+    expect(a.reflected.resolved[0]).toBe(false);
+    expect(a.reflected.members[0].map((m) => m.path).slice(0, 2)).toEqual(['front face', 'back face']);
+    expect(a.transmitted!.path[0]).toMatch(/^direct \+/);
+  });
+
+  it('double-skin partition (18 mm chipboard, 45 mm cavity, 18 mm chipboard), 1–6 GHz: every face is named', () => {
+    const stack = makeStack({ band_GHz: [1, 6], layers: [layer(cat('chipboard'), 0.018), layer(AIR, 0.045), layer(cat('chipboard'), 0.018)] });
+    const a = analyse(stack);
+    const names = a.reflected.members.flat().map((m) => m.path);
+    for (const face of ['front face', 'back of layer 1 (chipboard)', 'back of layer 2 (air)', 'back face']) expect(names).toContain(face);
+    expect(a.reflected.path).not.toContain('unexplained');
+    expectExact(stack, a.reflected, 'R');
+  });
+
+  it('coated double pane (6 mm glass, 15 Ω/sq coating, 16 mm gap, 6 mm glass), 2–18 GHz: the coating is named', () => {
+    const stack = makeStack({ band_GHz: [2, 18], layers: [layer(cat('glass'), 0.006), named('coat', 15), layer(AIR, 0.016), layer(cat('glass'), 0.006)] });
+    const a = analyse(stack);
+    // the coating reflects most: it is named in the strongest row, beside the front face it cannot be resolved from
+    const strongest = a.reflected.level_dB.indexOf(Math.max(...a.reflected.level_dB));
+    expect(a.reflected.path[strongest]).toMatch(/^front face \+ coat \(sheet\)/);
+    const coatPath = a.reflected.members[strongest].find((m) => m.path === 'coat (sheet)');
+    expect(coatPath!.level_dB).toBeGreaterThan(a.reflected.members[strongest].find((m) => m.path === 'front face')!.level_dB);
+    expect(rowWith(a.transmitted!, 'direct')).toBe(0);
+  });
+
+  it('a water film between two panes, 1–6 GHz: one front-face row, none before it', () => {
+    const stack = makeStack({ band_GHz: [1, 6], layers: [layer(cat('glass'), 0.004), layer(cat('water-25c'), 0.0005), layer(cat('glass'), 0.004)] });
+    const a = analyse(stack);
+    expect(a.reflected.path[0]).toMatch(/^front face/);
+    expect(a.reflected.t_s.length).toBe(1);
+  });
+
+  it('an echo no path predicts is "unexplained", with the nearest path beside it', () => {
+    // 100 mm of ε = 4: front face at 0, back face at 1.334 ns, two round trips at 2.668 ns (−29.7 dB); a
+    // stray copy of the incident pulse (an invented scatterer) at −20 dB, 2.05 ns, where no path arrives
+    const stack = makeStack({ band_GHz: [1, 6], layers: [layer(dielectric(4, 0, 'slab'), 0.1)] });
+    const stray = (t_s: number) => {
+      const rec = exactRecords(stack), lag = Math.round(t_s / rec.dt_s);
+      for (let n = lag; n < rec.count; n++) rec.reflected[n] += 0.1 * rec.incident[n - lag];
+      return { a: analyseEchoes(stack, rec), t: lag * rec.dt_s };
+    };
+    const { a, t } = stray(2.05e-9);
+    expect(a.reflected.path).toEqual(['front face', 'back face', 'unexplained', 'back face, 2 round trips in layer 1 (slab)']);
+    expect(Math.abs(a.reflected.t_s[2] - t)).toBeLessThan(0.005 * t); // the back face's main lobe, 1.25 widths away, pulls it by 6 ps
+    expect(Math.abs(a.reflected.level_dB[2] + 20)).toBeLessThan(0.2);
+    expect(a.reflected.nearest_path[2]).toBe('back face, 2 round trips in layer 1 (slab)');
+    // on top of the −29.7 dB path (0.5 ns after it, inside its reach) the stray's 10 dB more is still unexplained
+    const late = stray(3.2e-9).a.reflected;
+    expect(late.path.at(-1)).toBe('unexplained');
+    expect(late.nearest_path.at(-1)).toBe('back face, 2 round trips in layer 1 (slab)');
+    expect(late.unseen.map((u) => u.path)).toEqual(['back face, 2 round trips in layer 1 (slab)']);
+  });
+
+  it('two-sheet absorber on a conductor, 4–16 GHz: both sheets and the conductor are named', () => {
+    const foam = dielectric(1.1, 0, 'foam');
+    const stack = makeStack({ band_GHz: [4, 16], layers: [named('outer', 900), layer(foam, 0.007), named('inner', 300), layer(foam, 0.007)], back: 'pec' });
+    const a = analyse(stack);
+    expect(a.reflected.path[0]).toMatch(/outer \(sheet, front face\) \+ inner \(sheet\) \+ conductor/);
+  });
+});

@@ -1,0 +1,29 @@
+// formatNumber's fast path writes the same text as its definition, String(Number(x.toPrecision(12))): 12
+// significant digits, trailing zeros dropped, JavaScript's own exponent form outside [1e-7, 1e21).
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { formatNumber } from '../../src/report/table.ts';
+
+const definition = (x: number): string => (x === 0 ? '0' : String(Number(x.toPrecision(12))));
+
+describe('formatNumber', () => {
+  it('equals its definition for any finite double (fast-check)', () => {
+    fc.assert(fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), (x) => formatNumber(x) === definition(x)), { numRuns: 50000 });
+    // and most often where the tables' numbers live
+    fc.assert(fc.property(fc.double({ min: -1e4, max: 1e4, noNaN: true }), (x) => formatNumber(x) === definition(x)), { numRuns: 50000 });
+  });
+
+  it('equals it on 12-digit decimals and on values halfway between two of them, where rounding is closest', () => {
+    const near = fc.tuple(fc.integer({ min: 1e11, max: 1e12 - 1 }), fc.integer({ min: -8, max: 13 }), fc.constantFrom(0, 0.5, 0.4999, 0.5001), fc.boolean());
+    fc.assert(fc.property(near, ([m, e, f, neg]) => {
+      const x = (neg ? -1 : 1) * (m + f) * 10 ** (e - 11);
+      return formatNumber(x) === definition(x);
+    }), { numRuns: 50000 });
+  });
+
+  it('equals it at the edges of the fixed notation and where rounding carries a digit', () => {
+    for (const x of [1e-6, 9.999999999995e-7, 1e-7, 0.000001234, 999999999999.5, 1e12, 123456789012, 0.5, -0.5, 1, -0, 1e21, 5e-324]) {
+      expect(formatNumber(x)).toBe(definition(x));
+    }
+  });
+});
