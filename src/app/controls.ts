@@ -7,11 +7,11 @@ import GUI, { type Controller } from 'lil-gui';
 import { catalogNames } from '../materials/catalog.ts';
 import type { StackFile, StackFileLayer } from '../stack/file.ts';
 import { TRACE_NAMES } from './fieldView.ts';
-import { CLIP_LENGTH_LIMITS_s, type Settings, type SpectrumMode } from './settings.ts';
+import { CLIP_LENGTH_LIMITS_s, SPACETIME_GAINS, type Settings, type SpectrumMode } from './settings.ts';
 import type { ClipFormat } from './clip/sinks.ts';
 import { guardNumber } from './numberField.ts';
 
-export type SettingsTopic = 'traces' | 'axis' | 'spectrum' | 'trace' | 'speed' | 'accuracy' | 'clip';
+export type SettingsTopic = 'traces' | 'axis' | 'spectrum' | 'trace' | 'speed' | 'accuracy' | 'clip' | 'spacetime';
 
 export interface ControlHost {
   readonly file: StackFile;
@@ -277,6 +277,16 @@ export class Controls {
     tag(folder.add(this.view, 'envelope').name('echoes as dB envelope').onChange((e: boolean) => {
       s.envelope = e; host.settingsChanged('trace');
     }), 'envelope');
+    const st = { field: s.spacetimeField, gain: `×${s.spacetimeGain}`, rays: s.spacetimeRays };
+    tag(folder.add(st, 'field', { 'total field': 'total', 'scattered field': 'scattered' }).name('space–time map shows').onChange((v: 'total' | 'scattered') => {
+      s.spacetimeField = v; host.settingsChanged('spacetime');
+    }), 'spacetime-field');
+    tag(folder.add(st, 'gain', SPACETIME_GAINS.map((g) => `×${g}`)).name('space–time colour gain').onChange((v: string) => {
+      s.spacetimeGain = Number(v.slice(1)); host.settingsChanged('spacetime');
+    }), 'spacetime-gain');
+    tag(folder.add(st, 'rays').name('space–time echo rays').onChange((v: boolean) => {
+      s.spacetimeRays = v; host.settingsChanged('spacetime');
+    }), 'spacetime-rays');
   }
 }
 

@@ -18,6 +18,8 @@ export interface ExportInput {
   /** The full pulse-run report for the current stack, or null when it has not finished. */
   report: WireReport | null;
   canvases: Array<[string, HTMLCanvasElement]>;
+  /** Further text files of the views (spacetime.csv …), each with a line for the README. */
+  texts: Array<{ name: string; text: string; about: string }>;
   /** The latest clip, when it shows the current stack. */
   clip: { name: string; blob: Blob } | null;
   date: Date;
@@ -66,20 +68,23 @@ export async function exportZip(input: ExportInput): Promise<ExportResult> {
       notes.push(`${name}.png: ${e instanceof Error ? e.message : String(e)}`);
     }
   }
+  for (const t of input.texts) put(t.name, strToU8(t.text), false);
   if (input.clip !== null) put(input.clip.name, new Uint8Array(await input.clip.blob.arrayBuffer()), true);
-  put('README.txt', strToU8(readme(input.title, stackName, Object.keys(entries).map((k) => k.slice(base.length + 1)), notes)), false);
+  const files = Object.keys(entries).map((k) => k.slice(base.length + 1));
+  put('README.txt', strToU8(readme(input.title, stackName, files, input.texts.map((t) => t.about), notes)), false);
   const zip = zipSync(entries, { mtime: input.date });
   return { name: `${base}.zip`, blob: new Blob([zip], { type: 'application/zip' }), files: Object.keys(entries), notes };
 }
 
-function readme(title: string, stackName: string, files: string[], notes: string[]): string {
+function readme(title: string, stackName: string, files: string[], about: string[], notes: string[]): string {
   return [
     `slabecho export: ${title}`,
     '',
     'Files:',
     ...[...files, 'README.txt'].map((f) => `  ${f}`),
     '',
-    `The CSV files and summary.json are those \`slabecho run ${stackName} --out DIR\` writes for this stack.`,
+    `spectrum.csv, profile.csv, echoes.csv, echoes_T.csv, trace.csv and summary.json are those \`slabecho run ${stackName} --out DIR\` writes for this stack.`,
+    ...about,
     ...(notes.length > 0 ? ['', 'Left out:', ...notes.map((n) => `  ${n}`)] : []),
     '',
     'These results are for an idealised infinite, planar, homogeneous stack lit by a plane wave. Where safety',

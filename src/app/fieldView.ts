@@ -12,7 +12,7 @@ import { niceTicks, tickLabel } from './charts/ticks.ts';
 import type { FieldFrame, PulseGeometry } from './protocol.ts';
 import type { StackSketch } from './sketch.ts';
 import { fmt } from './sketch.ts';
-import { centreSpan, clampSpan, defaultSpan, isZoomed, panSpan, sameSpan, spanWidth, zoomSpan, type FramingFacts, type Span } from './field/framing.ts';
+import { centreSpan, clampSpan, defaultSpan, gridSpan, isZoomed, minSpanWidth, panSpan, sameSpan, spanWidth, zoomSpan, type FramingFacts, type Span } from './field/framing.ts';
 import { headerLayout, type Box } from './field/header.ts';
 import { paintAbsorbers, paintHalfSpaces, paintProbes, paintStack, TAG_ROW, TAG_W, type PlotBox, type Scene } from './field/paint.ts';
 import type { LabelPlan } from './field/marks.ts';
@@ -190,18 +190,13 @@ export class FieldView {
   full(): Span {
     const g = this.geometry, sk = this.sketch;
     const d = sk?.thickness_m ?? 0.1, L = sk?.pulseLength_m ?? 0.1;
-    if (g !== null && g.x_m.length > 1) {
-      const a = g.x_m[0], b = g.x_m[g.x_m.length - 1];
-      // Behind a conductor the grid ends at its face: leave room to draw the conductor.
-      return { x0_m: a, x1_m: sk?.pec === true ? b + 0.06 * (b - a) : b };
-    }
+    // Behind a conductor the grid ends at its face: leave room to draw the conductor.
+    if (g !== null && g.x_m.length > 1) return gridSpan(g.x_m, sk?.pec === true);
     return { x0_m: -(L + 0.25 * d), x1_m: d + 0.25 * (d + L) };
   }
 
   private minWidth(): number {
-    const g = this.geometry;
-    const dx = g !== null && g.x_m.length > 1 ? g.x_m[1] - g.x_m[0] : 0;
-    return Math.max(8 * dx, spanWidth(this.full()) / 5000);
+    return minSpanWidth(this.geometry?.x_m ?? [], this.full());
   }
 
   private facts(): FramingFacts {

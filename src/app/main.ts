@@ -24,6 +24,16 @@ import { SpectrumView } from './views/spectrumView.ts';
 import { ProfileView } from './views/profileView.ts';
 import { TraceView } from './views/traceView.ts';
 import { AgreementView } from './views/agreementView.ts';
+import { SpacetimeView } from './spacetime/view.ts';
+import { MaterialEditor, type EditorHost } from './materials/editor.ts';
+import { StudyPanel, type StudyHost } from './studies/panel.ts';
+import { StudyMapView } from './studies/mapView.ts';
+import type { SweepResult, ToleranceResult } from './studies/compute.ts';
+import type { QuantityName } from '../studies/quantities.ts';
+import { TunePanel, type TuneHost } from './tune/panel.ts';
+import type { MeasuredOverlay, ToleranceOverlay } from './views/spectrumView.ts';
+import { formatCsv } from '../report/table.ts';
+import { csvGrid, spacetimeCsv } from './spacetime/csv.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
 
 const $ = <T extends HTMLElement>(testid: string): T => {
@@ -32,7 +42,7 @@ const $ = <T extends HTMLElement>(testid: string): T => {
   return el;
 };
 
-class Workbench implements ControlHost {
+class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
   file: StackFile;
   stack: Stack;
   sketch: StackSketch;
@@ -50,8 +60,18 @@ class Workbench implements ControlHost {
   private readonly profile = new ProfileView($('profile-view'));
   private readonly trace = new TraceView($('trace-view'));
   private readonly agreement = new AgreementView($('agreement'));
+  private readonly spacetime = new SpacetimeView($('spacetime-view'));
   private field!: FieldView;
   private controls!: Controls;
+  private editor!: MaterialEditor;
+  private studies!: StudyPanel;
+  private tuning!: TunePanel;
+  private readonly studyMap = new StudyMapView($('study-view'));
+  /** The latest sweep and tolerance study (for the stack version they ran on), and the measured overlay. */
+  private sweep: { version: number; result: SweepResult } | null = null;
+  private tolerance: { version: number; result: ToleranceResult } | null = null;
+  private mapQuantityName: QuantityName = 'IL_dB';
+  private measured: MeasuredOverlay | null = null;
   private version = 0;
   private solved: Solved | null = null;
   private solvedVersion = -1;
@@ -108,6 +128,10 @@ class Workbench implements ControlHost {
     this.spectrum.chart.onDraw = () => this.noteUpdated();
     this.profile.chart.onDraw = () => this.noteUpdated();
     this.controls = new Controls($('controls'), this);
+    this.editor = new MaterialEditor($('controls'), this);
+    this.studies = new StudyPanel($('controls'), this);
+    this.tuning = new TunePanel($('controls'), this);
+    this.drawStudyMap();
     this.wireButtons();
     this.wireKeys();
     this.showTitle();
@@ -115,7 +139,7 @@ class Workbench implements ControlHost {
     this.solveNow();
     this.restartPulse(0);
     requestAnimationFrame(() => this.loop());
-    const charts = { 'spectrum-view': this.spectrum.chart, 'profile-view': this.profile.chart, 'trace-view': this.trace.chart };
+    const charts = { 'spectrum-view': this.spectrum.chart, 'profile-view': this.profile.chart, 'trace-view': this.trace.chart, 'material-plot': this.editor.plot };
     window.slabecho = {
       stats: this.stats,
       probe: {
@@ -124,6 +148,12 @@ class Workbench implements ControlHost {
         fieldBoxes: () => this.field.layoutBoxes,
         fieldMarks: () => this.field.layoutMarks,
         fieldLabels: () => this.field.labelTexts,
+        spacetime: () => this.spacetime.probe(),
+        studyMap: () => this.studyMap.probe(),
+        tolerance: () => (this.tolerance === null ? null
+          : { samples: this.tolerance.result.samples, columns: this.tolerance.result.columns.map((c) => ({ name: c.name, data: Array.from(c.data) })) }),
+        solvedSpectrum: () => (this.solvedVersion === this.version && this.solved !== null
+          ? this.solved.spectrum.map((c) => ({ name: c.name, data: Array.from(c.data as Float64Array) })) : null),
       },
     };
   }
@@ -158,6 +188,9 @@ class Workbench implements ControlHost {
     return true;
   }
 
+  /** EditorHost: the layer menus list the stack's own materials. */
+  materialsChanged(): void { this.controls.refresh(); }
+
   /** ControlHost: a view or run setting was refused. */
   refuse(field: string, need: string, text: string): void {
     this.messages.show('edit', 'error', 'That change was not applied:', [`${field}: must be ${need} (got ${describeValue(text)})`]);
@@ -184,6 +217,9 @@ class Workbench implements ControlHost {
     storeOrigin(this.origin);
     this.field.resetFraming();
     this.controls.refresh();
+    this.editor.refresh();
+    this.studies.refresh();
+    this.tuning.refresh();
   }
 
   importText(name: string, text: string): void {
@@ -198,6 +234,9 @@ class Workbench implements ControlHost {
     storeOrigin(this.origin);
     this.field.resetFraming();
     this.controls.refresh();
+    this.editor.refresh();
+    this.studies.refresh();
+    this.tuning.refresh();
     this.messages.show('import', 'info', `Loaded ${name}.`, []);
   }
 
@@ -215,6 +254,9 @@ class Workbench implements ControlHost {
     this.showTitle();
     this.showWarnings();
     this.field.setStack(this.sketch);
+    this.editor?.drawPlot();
+    this.tuning?.recheck();
+    if (this.sweep !== null) this.drawStudyMap();
     this.editStart = performance.now();
     this.solveNow();
     this.restartPulse(350);
@@ -270,7 +312,7 @@ class Workbench implements ControlHost {
         : rep.skipped !== undefined ? 'the pulse engine did not run for this stack (see the messages above)' : '';
     const s = this.solved;
     const look = { mode: this.settings.spectrumMode, freqScale: this.settings.freqScale, magnitude: this.settings.magnitude };
-    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], look, pending);
+    this.spectrum.show([s?.spectrum ?? null, rep?.spectrum ?? null], look, pending, { measured: this.measured, tolerance: this.toleranceOverlay() });
     this.profile.show([s?.profile ?? null, rep?.profile ?? null], this.sketch, this.file.profile_GHz, pending,
       s === null ? 'solving…' : 'no profile', this.file.incidence);
     // The full run's rows include the exact/FEM row; until it is there, show the solve's own.
@@ -279,6 +321,7 @@ class Workbench implements ControlHost {
   }
 
   private drawTraceView(): void {
+    this.drawSpacetime();
     const rep = this.reportCurrent();
     const note = rep !== null ? (rep.skipped !== undefined ? `The pulse engine did not run for this stack: ${rep.skipped}`
       : rep.trace[0]?.data.length === 0 ? 'the pulse run recorded nothing for this stack' : '')
@@ -288,6 +331,76 @@ class Workbench implements ControlHost {
       trace: rep?.trace ?? null, echoes: rep?.echoes ?? null, echoesT: rep?.echoesT ?? null, envelope: rep?.envelope ?? null,
       delayZero_ns: typeof zero === 'number' ? zero : null,
     }, this.settings.envelope, note);
+  }
+
+  private drawSpacetime(): void {
+    const rep = this.reportCurrent();
+    const note = rep !== null ? (rep.skipped !== undefined ? `The pulse engine did not run for this stack: ${rep.skipped}`
+      : rep.spacetime === null ? 'the pulse run recorded nothing for this stack' : '')
+      : this.engine.reporting ? 'pulse run in progress… (the map is recorded from it)' : 'no finished pulse run for this stack';
+    const s = this.settings;
+    this.spacetime.show({ map: rep?.spacetime ?? null, rays: rep?.rays ?? null, sketch: this.sketch, note },
+      { field: s.spacetimeField, gain: s.spacetimeGain, rays: s.spacetimeRays });
+  }
+
+  // ---- design studies and tuning ------------------------------------------------------------
+
+  studyProblems(title: string | null, lines: string[]): void {
+    if (title === null) this.messages.clear('study'); else this.messages.show('study', 'error', title, lines);
+  }
+
+  tuneProblems(title: string | null, lines: string[]): void {
+    if (title === null) this.messages.clear('tune'); else this.messages.show('tune', 'error', title, lines);
+  }
+
+  sweepDone(result: SweepResult): void {
+    this.sweep = { version: this.version, result };
+    if (result.warnings.length > 0) this.messages.show('study', 'warn', 'The sweep\'s cases gave warnings:', result.warnings);
+    this.drawStudyMap();
+  }
+
+  toleranceDone(result: ToleranceResult): void {
+    this.tolerance = { version: this.version, result };
+    if (result.warnings.length > 0) this.messages.show('study', 'warn', 'The tolerance study\'s samples gave warnings:', result.warnings);
+    this.drawFrequencyViews();
+  }
+
+  mapQuantity(q: QuantityName): void {
+    this.mapQuantityName = q;
+    this.drawStudyMap();
+  }
+
+  measuredChanged(m: MeasuredOverlay | null): void {
+    this.measured = m;
+    this.drawFrequencyViews();
+  }
+
+  applyTuned(file: StackFile): void {
+    if (this.edit((f) => { Object.assign(f, structuredClone(file)); })) {
+      this.controls.refresh();
+      this.editor.refresh();
+      this.messages.show('tune', 'info', 'The tuned stack is now the workbench\'s stack.', []);
+    }
+  }
+
+  downloadStack(file: StackFile): void {
+    downloadBlob(`${fileStem(file.title)}-tuned.stack.json`, new Blob([`${JSON.stringify(file, null, 2)}\n`], { type: 'application/json' }));
+  }
+
+  /** Studies hold for the stack they ran on: after an edit they are dropped from the views, saying so. */
+  private drawStudyMap(): void {
+    const sw = this.sweep;
+    const current = sw !== null && sw.version === this.version;
+    this.studyMap.show(current ? sw.result : null, this.mapQuantityName,
+      sw !== null && !current ? 'the stack has changed since the sweep: run it again' : '');
+  }
+
+  private toleranceOverlay(): ToleranceOverlay | null {
+    const t = this.tolerance;
+    if (t === null || t.version !== this.version) return null;
+    const col = (n: string): Float64Array => t.result.columns.find((c) => c.name === n)!.data;
+    const pct = (q: string) => ({ p05: col(`${q}_p05`), p50: col(`${q}_p50`), p95: col(`${q}_p95`) });
+    return { samples: t.result.samples, f_GHz: col('f_GHz'), R: pct('R_power'), T: pct('T_power'), tIsMagnitude: this.file.front === this.file.back };
   }
 
   // ---- pulse run -----------------------------------------------------------------------------
@@ -415,6 +528,7 @@ class Workbench implements ControlHost {
       this.field.render();
       this.stats.fieldRenders++;
       this.stats.step = f.step;
+      this.spacetime.setNow(this.pulseVersion === this.reportVersion ? f.time_s * 1e9 : null);
       if (f.done && this.playing) this.setPlaying(false);
     }
     if (this.clip !== null) {
@@ -519,6 +633,7 @@ class Workbench implements ControlHost {
     if (topic === 'traces' || topic === 'axis') { this.field.setOptions(this.fieldOptions()); return; }
     if (topic === 'spectrum') { this.drawFrequencyViews(); return; }
     if (topic === 'trace') { this.drawTraceView(); return; }
+    if (topic === 'spacetime') { this.drawSpacetime(); return; }
     if (topic === 'accuracy') { this.restartPulse(0); return; }
     if (topic === 'speed' && this.settings.autoSpeed && this.geometry !== null) {
       this.settings.speed = autoStepsPerFrame(this.geometry.cells, this.geometry.courant);
@@ -574,6 +689,26 @@ class Workbench implements ControlHost {
     window.addEventListener('keyup', (e) => { if (isSpace(e) && !typing(e)) e.preventDefault(); });
   }
 
+  /** Files of the views beyond the CLI's tables, with a README line each. */
+  private exportTexts(): Array<{ name: string; text: string; about: string }> {
+    const out: Array<{ name: string; text: string; about: string }> = [];
+    const t = this.tolerance;
+    if (t !== null && t.version === this.version) {
+      out.push({ name: 'tolerance.csv', text: formatCsv(t.result.columns),
+        about: `tolerance.csv: the tolerance study's percentiles (${t.result.samples} samples, seed ${t.result.seed}, varying ${t.result.varies.join('; ')}), as \`slabecho tolerance\` writes them` });
+    }
+    const map = this.reportCurrent()?.spacetime ?? null;
+    if (map !== null) {
+      const g = csvGrid(map), field = this.settings.spacetimeField;
+      out.push({
+        name: 'spacetime.csv', text: spacetimeCsv(map, field),
+        about: `spacetime.csv: the ${field} field E/E0 of the space–time map, t_ns,x_mm,E, on ${g.times} times ${+g.dt_ns.toPrecision(4)} ns apart`
+          + ` × ${g.positions} positions ${+g.dx_mm.toPrecision(4)} mm apart (every ${g.every_row * map.stepsPerRow} steps of the run, every ${g.every_column}th grid node of the view)`,
+      });
+    }
+    return out;
+  }
+
   private async exportNow(): Promise<void> {
     this.field.render();
     const clip = this.lastClip !== null && this.lastClip.version === this.version ? { name: this.lastClip.name, blob: this.lastClip.clip.blob } : null;
@@ -588,7 +723,10 @@ class Workbench implements ControlHost {
           ['trace-view', this.trace.chart.canvas],
           ['spectrum-view', this.spectrum.chart.canvas],
           ['profile-view', this.profile.chart.canvas],
+          ['spacetime-view', this.spacetime.canvas],
+          ...(this.sweep?.version === this.version ? [['study-view', this.studyMap.canvas] as [string, HTMLCanvasElement]] : []),
         ],
+        texts: this.exportTexts(),
         clip,
         date: new Date(),
       });

@@ -7,6 +7,8 @@
 
 import type { AgreementRow } from '../report/format-agreement.ts';
 import type { ClipTiming } from './clip/scout.ts';
+import type { EchoRays } from '../echoes/rays.ts';
+import type { SpacetimeMap } from './spacetime/recorder.ts';
 
 /** A table column on the wire: numbers, or text (the echo table's path names). */
 export interface WireColumn {
@@ -58,6 +60,10 @@ export interface WireReport {
   summary: unknown;
   warnings: string[];
   ms: number;
+  /** The field over the default framing and the run's time, recorded as it ran (null when it did not run). */
+  spacetime: SpacetimeMap | null;
+  /** The echo rows' bounce paths as rays (null when the engine did not run). */
+  rays: EchoRays | null;
   /** Why the pulse engine declined the stack (the report then holds the exact and FEM results only). */
   skipped?: string;
 }

@@ -11,6 +11,7 @@ import { runReport } from '../report/run.ts';
 import { copyTable } from './tables.ts';
 import type { FieldFrame, PulseGeometry, RunSettings, WireColumn, WireReport } from './protocol.ts';
 import { scoutClip, type ClipTiming } from './clip/scout.ts';
+import { SpacetimeRecorder } from './spacetime/recorder.ts';
 
 let run: PulseRun | null = null;
 let runStack: Stack | null = null;
@@ -119,9 +120,11 @@ export async function fullReport(
   stack: Stack, inputWarnings: string[], settings: RunSettings, progress: (fraction: number, note: string) => void,
 ): Promise<Omit<WireReport, 'ms'>> {
   let last = -1;
+  const recorder = new SpacetimeRecorder(stack);
   const rep = await runReport(stack, {
     inputWarnings,
     pulse: pulseOptions(settings),
+    observe: recorder,
     onProgress: (f) => {
       const t = performance.now();
       if (t - last < 100 && f < 1) return;
@@ -138,6 +141,8 @@ export async function fullReport(
     trace: copyTable(rep.trace),
     summary: rep.summary,
     warnings: [...rep.warnings],
+    spacetime: rep.skipped === undefined ? recorder.map() : null,
+    rays: rep.rays,
     ...(rep.skipped !== undefined ? { skipped: rep.skipped } : {}),
   };
 }

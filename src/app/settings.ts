@@ -2,6 +2,7 @@
 
 import type { TraceName } from './fieldView.ts';
 import type { ClipFormat } from './clip/sinks.ts';
+import type { SpacetimeField } from './spacetime/view.ts';
 
 export type SpectrumMode = 'magnitude' | 'phase' | 'group delay';
 
@@ -26,7 +27,13 @@ export interface Settings {
   /** Clips of the field view: file format and playing time. */
   clipFormat: ClipFormat;
   clipLength_s: number;
+  /** Space–time map: which field, the colour gain (range = largest |E| / gain), the echo rays on or off. */
+  spacetimeField: SpacetimeField;
+  spacetimeGain: number;
+  spacetimeRays: boolean;
 }
+
+export const SPACETIME_GAINS = [1, 4, 16] as const;
 
 /** Clip frame rate (frames per second of playing time). */
 export const CLIP_FPS = 30;
@@ -45,6 +52,9 @@ export const DEFAULT_SETTINGS: Settings = {
   accuracy: null,
   clipFormat: 'webm',
   clipLength_s: 6,
+  spacetimeField: 'total',
+  spacetimeGain: 1,
+  spacetimeRays: true,
 };
 
 /** Stored settings merged over the defaults, each field checked. */
@@ -69,6 +79,9 @@ export function readSettings(value: unknown): Settings {
   s.accuracy = v.accuracy === null ? null : num(v.accuracy, 1e-4, 0.5) ?? s.accuracy;
   if (v.clipFormat === 'webm' || v.clipFormat === 'mp4') s.clipFormat = v.clipFormat;
   s.clipLength_s = num(v.clipLength_s, ...CLIP_LENGTH_LIMITS_s) ?? s.clipLength_s;
+  if (v.spacetimeField === 'total' || v.spacetimeField === 'scattered') s.spacetimeField = v.spacetimeField;
+  if ((SPACETIME_GAINS as readonly unknown[]).includes(v.spacetimeGain)) s.spacetimeGain = v.spacetimeGain as number;
+  if (typeof v.spacetimeRays === 'boolean') s.spacetimeRays = v.spacetimeRays;
   return s;
 }
 

@@ -2,6 +2,8 @@
 // and a probe into the drawn geometry of the charts and the field view.
 
 import type { FieldBoxes, FieldMarks } from './fieldView.ts';
+import type { SpacetimeView } from './spacetime/view.ts';
+import type { StudyMapView } from './studies/mapView.ts';
 
 /** Figures the browser tests and the benchmark read. */
 export interface WorkbenchStats {
@@ -29,8 +31,16 @@ export interface WorkbenchProbe {
   fieldBoxes(): FieldBoxes;
   fieldMarks(): FieldMarks;
   fieldLabels(): Array<{ text: string; x: number; y: number; w: number }>;
+  /** The space–time map's grid, ranges and rays (mm, ns of run time), or null when none is drawn. */
+  spacetime(): ReturnType<SpacetimeView['probe']>;
+  /** The exact/FEM spectrum table of the current stack (the CLI's spectrum.csv columns), or null while solving. */
+  solvedSpectrum(): Array<{ name: string; data: number[] }> | null;
+  /** The sweep map's shown quantity over cases × frequencies, or null when no current sweep is drawn. */
+  studyMap(): ReturnType<StudyMapView['probe']>;
+  /** The latest tolerance study's percentile columns (tolerance.csv's), or null. */
+  tolerance(): { samples: number; columns: Array<{ name: string; data: number[] }> } | null;
 }
-type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view';
+type ChartViewId = 'spectrum-view' | 'profile-view' | 'trace-view' | 'material-plot';
 
 declare global {
   interface Window { slabecho?: { stats: WorkbenchStats; probe: WorkbenchProbe } }

@@ -19,6 +19,7 @@ export const THEME = {
   fem: '#d08a00',
   fdtd: '#0f8a7d',
   diff: '#a23b72',
+  measured: '#c2185b',
   // Geometry.
   absorber: '#cfc9bd',
   conductor: '#4a4d55',

@@ -19,3 +19,17 @@ export function layerGroupDelays_s(stack: Stack, f_Hz: number): Float64Array {
   }
   return out;
 }
+
+/**
+ * Group slowness along x of the two half-spaces at a frequency, dRe(k_x)/dω in s/m (n_g/c at normal incidence):
+ * how fast an echo's envelope leaves the stack on either side. Null behind a conductor.
+ */
+export function halfSpaceSlowness_s_per_m(stack: Stack, f_Hz: number): { front: number; back: number | null } {
+  const h = f_Hz * REL_STEP;
+  const a = stackAtFrequency(stack, f_Hz - h), b = stackAtFrequency(stack, f_Hz + h);
+  const slope = (ka: number, kb: number) => Math.max(0, (kb - ka) / (2 * Math.PI * 2 * h));
+  return {
+    front: slope(a.front.kx.re, b.front.kx.re),
+    back: a.back !== null && b.back !== null ? slope(a.back.kx.re, b.back.kx.re) : null,
+  };
+}

@@ -117,7 +117,8 @@ function pathSet(f_Hz: Float64Array, paths: Map<Key, Wave>): PathSet {
 }
 
 /** Reflected and transmitted bounce paths of the stack at the frequencies f_Hz (group delays at centre_Hz). */
-export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number, o: LatticeOptions): { reflected: PathSet; transmitted: PathSet } {
+export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number, o: LatticeOptions):
+  { reflected: PathSet; transmitted: PathSet; layerDelays_s: Float64Array } {
   const F = f_Hz.length;
   const s = Array.from(f_Hz, (f) => stackAtFrequency(stack, f));
   const L = s[0].layers.length;
@@ -182,5 +183,6 @@ export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number
     }
     level = next;
   }
-  return { reflected: pathSet(f_Hz, reflected.map), transmitted: pathSet(f_Hz, transmitted.map) };
+  // The per-layer delays go out too: the space–time view draws each path's rays from exactly these.
+  return { reflected: pathSet(f_Hz, reflected.map), transmitted: pathSet(f_Hz, transmitted.map), layerDelays_s: tau };
 }

@@ -21,8 +21,8 @@ import { latticePaths, type PathSet } from './lattice.ts';
 import { MAX_PATH_CHARS, type RowName, reflectedPathName, rowText, transmittedPathName } from './names.ts';
 import { latticeFrequencies, predictPaths, type PredictedPaths } from './paths.ts';
 
-/** A bounce path's own echo through the band pulse. */
-export interface PathEcho { path: string; t_s: number; level_dB: number }
+/** A bounce path's own echo through the band pulse; `crossings` counts its crossings of each bulk layer. */
+export interface PathEcho { path: string; t_s: number; level_dB: number; crossings: Int32Array }
 
 /** One table (reflected or transmitted), a row per echo in order of delay. */
 export interface EchoTable {
@@ -62,6 +62,8 @@ export interface EchoAnalysis {
   /** Arrival of the incident pulse at x = 0 (s from the start of the run): delay 0. */
   incidentAt_s: number;
   envelopes: EchoEnvelopes;
+  /** One-way group delay of each bulk layer at the band centre, the lattice's own (empty without a pulse). */
+  layerDelays_s: Float64Array;
 }
 
 export interface EchoOptions {
@@ -86,6 +88,7 @@ function emptyAnalysis(stack: Stack, pulse: BandPulse, floor_dB: number): EchoAn
   return {
     reflected: emptyEchoTable(), transmitted: stack.back === 'pec' ? null : emptyEchoTable(), pulse, floor_dB, incidentAt_s: 0,
     envelopes: { t_s: none, incident: none, reflected: none, transmitted: stack.back === 'pec' ? null : none },
+    layerDelays_s: none,
   };
 }
 
@@ -102,7 +105,7 @@ type Namer = (stack: Stack, crossings: ArrayLike<number>, compact?: boolean) => 
 function tableOf(rows: AttributedEcho[], unseen: number[], P: PredictedPaths, stack: Stack, name: Namer): EchoTable {
   const full = (p: number) => name(stack, P.set.crossings[p]);
   const named = (p: number): RowName => ({ full: full(p), compact: name(stack, P.set.crossings[p], true), t_s: P.t_s[p], level: P.level[p] });
-  const echo = (p: number): PathEcho => ({ path: full(p), t_s: P.t_s[p], level_dB: 20 * Math.log10(P.level[p]) });
+  const echo = (p: number): PathEcho => ({ path: full(p), t_s: P.t_s[p], level_dB: 20 * Math.log10(P.level[p]), crossings: P.set.crossings[p] });
   const t: EchoTable = {
     t_s: Float64Array.from(rows, (r) => r.echo.t_s),
     level_dB: Float64Array.from(rows, (r) => 20 * Math.log10(r.echo.level)),
@@ -171,6 +174,7 @@ export function analyseEchoes(stack: Stack, records: PulseRecords, options: Echo
     transmitted: stack.back === 'pec' ? null : transmittedTable ?? emptyEchoTable(),
     pulse, floor_dB, incidentAt_s: t_inc,
     envelopes: displayEnvelopes(aR, aT, t_inc, end_s, pulse, b.responses[0].peak, aT ? b.responses[1].peak : 1),
+    layerDelays_s: lattice.layerDelays_s,
   };
 }
 

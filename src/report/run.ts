@@ -4,8 +4,9 @@
 
 import { type Complex, exp, mul, add } from '../complex.ts';
 import { analyseEchoes, type EchoAnalysis, type EchoEnvelopes } from '../echoes/table.ts';
+import { echoRays, type EchoRays } from '../echoes/rays.ts';
 import { PlanError } from '../fdtd/errors.ts';
-import { createPulseRun, runToEnd } from '../fdtd/run.ts';
+import { createPulseRun, runProgress, runToEnd } from '../fdtd/run.ts';
 import type { GridPlan, PulseOptions, PulseRun } from '../fdtd/types.ts';
 import type { Profile, Spectrum } from '../results.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
@@ -28,6 +29,16 @@ export interface RunOptions extends SolveOptions {
   shouldStop?: () => boolean;
   /** Echo floor, dB relative to the incident pulse's envelope peak (default −40). */
   echoFloor_dB?: number;
+  /**
+   * Watches the run as it steps (the workbench records its space–time map so): `sample` sees the run at step 0
+   * and after every `every_steps(plan)` steps. It may read the run's fields, never step it.
+   */
+  observe?: RunObserver;
+}
+
+export interface RunObserver {
+  every_steps(plan: GridPlan): number;
+  sample(run: PulseRun): void;
 }
 
 export interface RunReport extends Report {
@@ -42,6 +53,8 @@ export interface RunReport extends Report {
   stopped: boolean;
   /** Set when the pulse engine declined this stack (e.g. a lossy front medium at an angle): solve's results only. */
   skipped?: string;
+  /** The echo rows' bounce paths as rays in x and t, for drawing (not written to any file); null when skipped. */
+  rays: EchoRays | null;
 }
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
@@ -76,12 +89,13 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
       summary.fdtd = { skipped: e.message };
       summary.warnings = warnings;
       progress(1);
-      return { ...base, summary, warnings, echoes: emptyEchoColumns(), echoesT: emptyEchoColumns(), envelope: envelopeColumns(null), trace: emptyTrace(), stopped: false, skipped: e.message };
+      return { ...base, summary, warnings, echoes: emptyEchoColumns(), echoesT: emptyEchoColumns(), envelope: envelopeColumns(null), trace: emptyTrace(), stopped: false, skipped: e.message, rays: null };
     }
     throw e;
   }
   const t0 = now();
-  await runToEnd(run, { onProgress: (f) => progress(0.1 + 0.85 * f), shouldStop: options.shouldStop });
+  const stepping = { onProgress: (f: number) => progress(0.1 + 0.85 * f), shouldStop: options.shouldStop };
+  await (options.observe ? runObserved(run, options.observe, stepping) : runToEnd(run, stepping));
   const run_ms = now() - t0;
   const stopped = run.doneReason === 'stopped';
   for (const w of run.warnings) warn(w);
@@ -187,7 +201,22 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   assertTable(envelope);
   assertFiniteValues(summary);
   progress(1);
-  return { spectrum, profile, summary, warnings, echoes: ech, echoesT: echT, envelope, trace, agreement: allAgreement, stopped };
+  return { spectrum, profile, summary, warnings, echoes: ech, echoesT: echT, envelope, trace, agreement: allAgreement, stopped, rays: echoRays(stack, echoes) };
+}
+
+/** runToEnd with an observer: chunks of whole strides, `sample` after each stride, a turn of the event loop per chunk. */
+async function runObserved(run: PulseRun, o: RunObserver, opts: { onProgress(f: number): void; shouldStop?: () => boolean }): Promise<void> {
+  const stride = Math.max(1, Math.round(o.every_steps(run.plan)));
+  const strides = Math.max(1, Math.round(2e6 / ((run.plan.nodes.total + run.plan.nodes.auxTotal) * stride)));
+  o.sample(run);
+  while (!run.done) {
+    for (let k = 0; k < strides && !run.done; k++) {
+      if (run.step(stride) > 0) o.sample(run);
+    }
+    opts.onProgress(runProgress(run));
+    if (!run.done && opts.shouldStop?.()) run.stop();
+    if (!run.done) await new Promise<void>((resolve) => setTimeout(resolve, 0));
+  }
 }
 
 /** How the echoes were read, for summary.json. */

@@ -21,9 +21,10 @@ import { findColumn, formatCsv } from '../../src/report/table.ts';
 import { solveTmm } from '../../src/tmm/solve.ts';
 import { stackThickness_m } from '../../src/stack/types.ts';
 import type { WorkbenchProbe, WorkbenchStats } from '../../src/app/stats.ts';
+import { cli, readCsv, tempDir } from '../cli/support.ts';
 
 const ARTIFACTS = join(ROOT, 'test-artifacts');
-const VIEWS = ['field-view', 'trace-view', 'spectrum-view', 'profile-view'] as const;
+const VIEWS = ['field-view', 'trace-view', 'spectrum-view', 'profile-view', 'spacetime-view'] as const;
 
 let dist = '';
 let site: StaticSite;
@@ -240,7 +241,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     }
     expect([...byName.keys()].sort()).toEqual([
       'README.txt', `${DEFAULT_STEM}.mp4`, `${DEFAULT_STEM}.stack.json`, 'echoes.csv', 'echoes_T.csv', ...VIEWS.map((v) => `${v}.png`),
-      'profile.csv', 'spectrum.csv', 'summary.json', 'trace.csv',
+      'profile.csv', 'spectrum.csv', 'summary.json', 'trace.csv', 'spacetime.csv',
     ].sort());
     const text = (n: string): string => { const b = byName.get(n); expect(b, n).toBeDefined(); return b!.toString('utf8'); };
     const header = (n: string): string => text(n).split('\n')[0];
@@ -252,6 +253,18 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(header('echoes_T.csv')).toBe(header('echoes.csv'));
     expect(header('trace.csv')).toBe('t_ns,E_incident,E_reflected,E_transmitted');
     expect(JSON.parse(text('summary.json'))).toHaveProperty('grid');
+    // spacetime.csv: t_ns,x_mm,E on the grid the README states, times and positions in order, finite values.
+    const grid = /spacetime\.csv: .* on (\d+) times .* × (\d+) positions/.exec(text('README.txt'));
+    expect(grid).not.toBeNull();
+    const st = text('spacetime.csv').trimEnd().split('\n');
+    expect(st[0]).toBe('t_ns,x_mm,E');
+    const [times, positions] = [Number(grid![1]), Number(grid![2])];
+    expect(st.length - 1).toBe(times * positions);
+    const cells = st.slice(1).map((l) => l.split(',').map(Number));
+    expect(cells.every((c) => c.length === 3 && c.every(Number.isFinite))).toBe(true);
+    expect(cells[positions][0]).toBeGreaterThan(cells[0][0]);
+    expect(cells[1][1]).toBeGreaterThan(cells[0][1]);
+    expect(Math.max(...cells.map((c) => Math.abs(c[2])))).toBeGreaterThan(0.3); // the incident pulse is in it (peak 1)
     // The exported stack file runs unchanged through the pipeline `slabecho run` uses and gives the
     // same tables: same header, same rows, same paths, numbers equal to 1e-9 (relative above 1). The
     // browser's and node's JavaScript engines may differ in the last bits of a few Math functions;
@@ -276,6 +289,55 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     expect(text('README.txt')).toMatch(/licensed professional practice/);
     for (const v of VIEWS) await page.locator(`[data-testid="${v}"]`).screenshot({ path: join(ARTIFACTS, `${v}.png`) });
     await page.screenshot({ path: join(ARTIFACTS, 'workbench.png'), fullPage: true });
+  });
+
+  it('maps the pulse run in space and time, with each echo row\'s ray returning to the front face at the echo table\'s delay', async () => {
+    // A lossless slab: echo k comes back after k round trips of 2 d √ε / c (the multiple-reflection series,
+    // Born & Wolf §1.6), and node's runReport of the same file gives the echo table the rays must meet.
+    const d_mm = 100, slab = { title: 'Ceramic slab for the space-time check', band_GHz: [1, 6], points: 101, layers: [{ material: 'tile', thickness_mm: d_mm }], materials: { tile: { model: 'fixed', eps_r: 4 } } };
+    const path = join(ARTIFACTS, 'downloads', 'spacetime-slab.stack.json');
+    writeFileSync(path, JSON.stringify(slab));
+    await page.setInputFiles('[data-testid="import"]', path);
+    await page.waitForFunction(() => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return s.reportVersion === s.version && document.querySelector('[data-testid="stack-title"]')?.textContent?.startsWith('Ceramic') === true;
+    }, undefined, { timeout: 120_000 });
+    await expect.poll(async () => (await probe('spacetime'))?.rays.length ?? 0).toBeGreaterThan(3);
+    const map = (await probe('spacetime'))!;
+    expect(map.rows).toBeGreaterThan(50);
+    expect(map.columns).toBeGreaterThan(50);
+    expect(map.x_mm[0]).toBeLessThan(0);
+    expect(map.x_mm[1]).toBeGreaterThan(d_mm);
+    const rep = await nodeReport(JSON.stringify(slab));
+    const summary = rep.summary as { echoes: { delay_zero_ns: number; t_ns: number[] } };
+    const t0 = summary.echoes.delay_zero_ns, delays = summary.echoes.t_ns;
+    expect(delays.length).toBeGreaterThanOrEqual(3);
+    const roundTrip_ns = (2 * d_mm * 1e-3 * 2) / C0 * 1e9;
+    delays.forEach((t, i) => {
+      const ray = map.rays.find((r) => r.label === String(i + 1));
+      expect(ray, `ray ${i + 1}`).toBeDefined();
+      // Where the ray meets x = 0 on its way out (the last vertex at the front face).
+      const k = ray!.x_mm.map((x) => Math.abs(x) < 1e-9).lastIndexOf(true);
+      const exit = ray!.t_ns[k];
+      expect(Math.abs(exit - (t0 + t))).toBeLessThan(2e-3); // the echo table's delay (ns, 6 digits in summary.json)
+      expect(Math.abs(exit - t0 - i * roundTrip_ns)).toBeLessThan(2e-3); // the series
+      expect(Math.max(...ray!.x_mm.slice(0, k + 1))).toBeCloseTo(i === 0 ? 0 : d_mm, 9);
+    });
+    const t1 = map.rays.find((r) => r.label === 'T1');
+    expect(t1).toBeDefined();
+    expect(t1!.t_ns[1] - t1!.t_ns[0]).toBeCloseTo(roundTrip_ns / 2, 4);
+    // The picture holds the field: strongly coloured pixels along the incident ray, pale ones far from any ray.
+    const colourful = await page.locator('[data-testid="spacetime-view"] canvas').evaluate((c) => {
+      const cv = c as HTMLCanvasElement, ctx = cv.getContext('2d')!;
+      const px = ctx.getImageData(0, 0, cv.width, cv.height).data;
+      let strong = 0;
+      for (let i = 0; i < px.length; i += 4) if (Math.max(px[i], px[i + 1], px[i + 2]) - Math.min(px[i], px[i + 1], px[i + 2]) > 80) strong++;
+      return strong / (cv.width * cv.height);
+    });
+    expect(colourful).toBeGreaterThan(0.01);
+    await page.locator('[data-testid="spacetime-view"]').screenshot({ path: join(ARTIFACTS, 'spacetime-view-slab.png') });
+    await choosePreset('default');
+    await page.waitForSelector('[data-testid="run-status"][data-state="done"]', { timeout: 120_000 }); // the readout test reads the FDTD curve
   });
 
   it('switches the spectrum to phase and group delay and the echoes to a dB envelope (each redraws the chart)', async () => {
@@ -308,6 +370,7 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
         return { head: el.querySelector('.readout-head')?.textContent ?? '', rows: out };
       });
     const hover = async (f_GHz: number, panel = 0): Promise<void> => {
+      await page.locator('[data-testid="spectrum-view"]').scrollIntoViewIfNeeded(); // the views column is taller than the window
       const pt = await probe('chartPoint', 'spectrum-view', f_GHz, panel);
       expect(pt).not.toBeNull();
       await page.mouse.move(pt!.x, pt!.y);
@@ -442,6 +505,203 @@ describe('workbench in headless chromium', { timeout: 180_000 }, () => {
     // Each sheet's label is beside its cap or in the key, never dropped.
     for (const m of marks.plan.sheets) expect(m.label !== null || marks.plan.key.some((k) => k.startsWith(`${m.number} `))).toBe(true);
     await page.locator('[data-testid="field-view"]').screenshot({ path: join(ARTIFACTS, 'field-view-sheets.png') });
+    await choosePreset('default');
+  });
+
+  it('makes a material of every model in the editor, refuses bad values in the parser\'s words, plots ε and μ, and solves it as an imported file with the same material does', async () => {
+    await choosePreset('default');
+    const editor = page.locator('[data-testid="material-editor"]');
+    const field = (id: string) => editor.locator(`[data-testid="${id}"]`);
+    const msg = page.locator('[data-testid="msg-edit"]');
+    const settled = () => page.waitForFunction(() => {
+      const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats;
+      return s.solvedVersion === s.version;
+    });
+    const commit = async (id: string, text: string): Promise<void> => { await field(id).fill(text); await field(id).press('Enter'); };
+    await field('me-new').click();
+    await commit('me-name', 'loaded-foam');
+    await expect.poll(() => field('me-name').inputValue()).toBe('loaded-foam');
+    // Every model's starting definition passes the parser (no refusal), and the plot follows.
+    for (const model of ['sheet', 'fixed', 'lorentz', 'drude', 'power-law', 'table', 'debye']) {
+      await field('me-model').selectOption(model);
+      await expect.poll(() => field('me-model').inputValue()).toBe(model);
+      expect(await msg.count(), model).toBe(0);
+    }
+    // A table's rows are checked cell by cell: a loss below zero is named by its row and column.
+    await field('me-model').selectOption('table');
+    await field('me-points').fill('1, 2.2, 0.01\n6, 2.1, -0.02');
+    await field('me-points').blur();
+    await expect.poll(() => msg.textContent()).toContain('materials.loaded-foam.points[1][2]');
+    await field('me-model').selectOption('debye');
+    await commit('me-field-eps_inf', '1.8');
+    await commit('me-field-sigma_S_per_m', '0.01');
+    await commit('me-pole-0-delta_eps', '2.5');
+    await commit('me-pole-0-tau_ps', '30');
+    await field('me-magnetic').check();
+    await field('me-mag-model').selectOption('lorentz');
+    await commit('me-mag-mu_inf', '1');
+    await commit('me-mag-pole-0-delta_mu', '0.5');
+    await commit('me-mag-pole-0-f0_GHz', '4');
+    await commit('me-mag-pole-0-gamma_GHz', '3');
+    // Refused in the parser's words, and the value in force comes back.
+    await commit('me-field-eps_inf', 'abc');
+    await expect.poll(() => msg.textContent()).toContain('materials.loaded-foam.eps_inf: must be a number ≥ 1 (got the string "abc")');
+    await expect.poll(() => field('me-field-eps_inf').inputValue()).toBe('1.8');
+    await commit('me-mag-pole-0-f0_GHz', '0');
+    await expect.poll(() => msg.textContent()).toContain('materials.loaded-foam.magnetic.poles[0].f0_GHz');
+    // The plot reads ε′ of the Debye model at 2 GHz: ε∞ + Δε / (1 + (ωτ)²) (Debye 1929, the relaxation's closed form).
+    const w = 2 * Math.PI * 2e9, tau = 30e-12;
+    const epsRe = 1.8 + 2.5 / (1 + (w * tau) ** 2);
+    await page.locator('[data-testid="material-plot"]').scrollIntoViewIfNeeded();
+    const pt = (await probe('chartPoint', 'material-plot', 2, 0))!;
+    await page.mouse.move(pt.x, pt.y);
+    const readout = page.locator('[data-testid="material-plot-readout"]');
+    await expect.poll(() => readout.textContent()).toContain('f = 2 GHz');
+    const row = await readout.locator('.readout-row').first().locator('.readout-value').textContent();
+    expect(Math.abs(Number(row) - epsRe)).toBeLessThanOrEqual(5e-5 + 1e-12);
+    await editor.screenshot({ path: join(ARTIFACTS, 'material-editor.png') });
+    await page.mouse.move(0, 0);
+    // The layer uses it; the solve is then that of a file holding the same material, typed by hand.
+    await page.locator('[data-testid="layer-0-material"] select').selectOption('loaded-foam');
+    await settled();
+    const fromEditor = await probe('solvedSpectrum');
+    const byHand = {
+      title: 'Single brick wall', band_GHz: [1, 6], points: 501, layers: [{ material: 'loaded-foam', thickness_mm: 100 }],
+      materials: { 'loaded-foam': { model: 'debye', eps_inf: 1.8, poles: [{ delta_eps: 2.5, tau_ps: 30 }], sigma_S_per_m: 0.01,
+        magnetic: { model: 'lorentz', mu_inf: 1, poles: [{ delta_mu: 0.5, f0_GHz: 4, gamma_GHz: 3 }] } } },
+    };
+    const path = join(ARTIFACTS, 'downloads', 'loaded-foam.stack.json');
+    writeFileSync(path, JSON.stringify(byHand));
+    // Deleting a material a layer uses is refused by the parser (the layer is named).
+    await field('me-delete').click();
+    await expect.poll(() => msg.textContent()).toContain('layers[0].material');
+    const v = (await stats()).version;
+    await page.setInputFiles('[data-testid="import"]', path);
+    await page.waitForFunction((n) => { const s = (window as unknown as { slabecho: { stats: Stats } }).slabecho.stats; return s.version > n && s.solvedVersion === s.version; }, v);
+    const fromFile = await probe('solvedSpectrum');
+    expect(fromFile).not.toBeNull();
+    expect(fromFile!.map((c) => c.name)).toEqual(fromEditor!.map((c) => c.name));
+    fromFile!.forEach((c, k) => expect(c.data, c.name).toEqual(fromEditor![k].data));
+    // And both are the exact solution of that file in node (the solver's own checks are in test/tmm).
+    const parsed = parseStackObject(byHand);
+    if (!parsed.ok) throw new Error(parsed.errors.join('; '));
+    const f = Float64Array.from(fromFile!.find((c) => c.name === 'f_GHz')!.data, (x) => x * 1e9);
+    const exact = solveTmm(parsed.stack, f);
+    const Rre = fromFile!.find((c) => c.name === 'R_tmm_re')!.data;
+    expect(Math.max(...Rre.map((x, i) => Math.abs(x - exact.R_re[i])))).toBeLessThan(1e-12);
+    await expect.poll(() => field('me-name').inputValue()).toBe('loaded-foam');
+  });
+
+  it('runs a sweep (a map) and a tolerance study (p05–p95 bands on the spectrum) in a worker, with the numbers `slabecho sweep` and `slabecho tolerance` write', async () => {
+    await choosePreset('default');
+    const panel = page.locator('[data-testid="study-panel"]');
+    const status = panel.locator('[data-testid="study-status"]');
+    await panel.locator('[data-testid="study-axis"]').fill('incidence.angle_deg=0:60:20');
+    await panel.locator('[data-testid="study-sweep"]').click();
+    await expect.poll(() => status.textContent(), { timeout: 30_000 }).toMatch(/sweep: done/);
+    const { dir, cleanup } = tempDir();
+    try {
+      const file = join(dir, 'wall.stack.json');
+      writeFileSync(file, JSON.stringify(DEFAULT_PRESET));
+      // The command line's sweep of the same stack: sweep.csv, one row per case and frequency.
+      const sw = await cli('sweep', file, '--angle', '0:60:20', '--out', join(dir, 'sweep'));
+      expect(sw.code, sw.stderr).toBe(0);
+      const csv = readCsv(readFileSync(join(dir, 'sweep', 'sweep.csv'), 'utf8'));
+      for (const q of ['IL_dB', 'R_power'] as const) {
+        await panel.locator('[data-testid="study-quantity"]').selectOption(q);
+        await expect.poll(async () => (await probe('studyMap'))?.quantity).toBe(q);
+        const map = (await probe('studyMap'))!;
+        expect(map.values).toEqual([0, 20, 40, 60]);
+        const col = csv.header.indexOf(q);
+        expect(map.data.length).toBe(csv.rows.length);
+        csv.rows.forEach((row, i) => expect(Math.abs(map.data[i] - row[col]), `${q} row ${i}`).toBeLessThanOrEqual(1e-11 * Math.max(1, Math.abs(row[col]))));
+      }
+      await page.locator('[data-testid="study-view"]').screenshot({ path: join(ARTIFACTS, 'study-view.png') });
+
+      // Tolerance: the same samples (seed 7) as the command line, the same percentiles.
+      await panel.locator('[data-testid="study-vary"]').fill('layers[0].thickness_mm:normal:2');
+      await panel.locator('[data-testid="study-samples"]').fill('60');
+      await panel.locator('[data-testid="study-seed"]').fill('7');
+      await panel.locator('[data-testid="study-tolerance"]').click();
+      await expect.poll(() => status.textContent(), { timeout: 30_000 }).toMatch(/tolerance study: done/);
+      const tol = await cli('tolerance', file, '--vary', 'layers[0].thickness_mm:normal:2', '--samples', '60', '--seed', '7', '--out', join(dir, 'tol'));
+      expect(tol.code, tol.stderr).toBe(0);
+      const want = readFileSync(join(dir, 'tol', 'tolerance.csv'), 'utf8');
+      const got = (await probe('tolerance'))!;
+      expect(got.samples).toBe(60);
+      expect(formatCsv(got.columns.map((c) => ({ name: c.name, data: Float64Array.from(c.data) })))).toBe(want);
+      // The band is on the spectrum: the readout at 5.2 GHz gives its edges, 10 log10 of R_power's p05 and p95.
+      const wantRows = readCsv(want), at = wantRows.rows.findIndex((r) => Math.abs(r[0] - 5.2) < 1e-9);
+      await page.locator('[data-testid="spectrum-view"]').scrollIntoViewIfNeeded();
+      const pt = (await probe('chartPoint', 'spectrum-view', 5.2, 0))!;
+      await page.mouse.move(pt.x, pt.y);
+      const readout = page.locator('[data-testid="spectrum-view-readout"]');
+      await expect.poll(() => readout.textContent()).toContain('p05–p95 of 60 samples p05');
+      const edge = async (name: string): Promise<number> => Number((await readout.locator('.readout-row', { hasText: `samples ${name}` }).first().locator('.readout-value').textContent())!.replace('−', '-').replace(/\s*dB$/, ''));
+      for (const [name, col] of [['p05', 'R_power_p05'], ['p95', 'R_power_p95']] as const) {
+        expect(Math.abs(await edge(name) - 10 * Math.log10(wantRows.rows[at][wantRows.header.indexOf(col)]))).toBeLessThanOrEqual(0.0005 + 1e-9);
+      }
+      await page.locator('[data-testid="spectrum-view"]').screenshot({ path: join(ARTIFACTS, 'spectrum-view-tolerance.png') });
+      await page.mouse.move(0, 0);
+      // The export carries tolerance.csv as the command line writes it, and the map's picture.
+      const [zip] = await downloadsOf(() => page.click('[data-testid="export"]'), 1);
+      const entries = unzipSync(new Uint8Array(await saved(zip)));
+      const byName = new Map(Object.entries(entries).map(([k, v]) => [k.slice(k.indexOf('/') + 1), Buffer.from(v)]));
+      expect(byName.get('tolerance.csv')?.toString('utf8')).toBe(want);
+      expect([...byName.get('study-view.png')!.subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
+    } finally {
+      cleanup();
+    }
+    // An edit drops the results (they belong to the stack they ran on) and says so.
+    await page.locator('[data-testid="layer-0-thickness"] input').fill('101');
+    await page.locator('[data-testid="layer-0-thickness"] input').press('Enter');
+    await expect.poll(() => page.locator('[data-testid="study-view"]').getAttribute('data-empty')).toMatch(/changed since the sweep/);
+    // A path the stack does not have is refused in the studies core's words.
+    await panel.locator('[data-testid="study-axis"]').fill('layers[7].thickness_mm=1:3:1');
+    await panel.locator('[data-testid="study-sweep"]').click();
+    await expect.poll(() => page.locator('[data-testid="msg-study"]').textContent()).toContain('layers[7]');
+    await choosePreset('default');
+  });
+
+  it('draws a measured CSV on the spectrum and matches a slab\'s thickness to it from the panel, then applies the tuned stack', async () => {
+    // A synthetic measurement: the exact solution of a 12.3 mm slab of ε_r = 4.4 (complex R and T, 41 rows).
+    const slab = (d: number) => ({ title: 'Sample under test', band_GHz: [2, 10], points: 201, layers: [{ material: 'sample', thickness_mm: d }], materials: { sample: { model: 'fixed', eps_r: 4.4 } } });
+    const truth = parseStackObject(slab(12.3));
+    if (!truth.ok) throw new Error(truth.errors.join('; '));
+    const f = Float64Array.from({ length: 41 }, (_, k) => (2 + 0.2 * k) * 1e9);
+    const x = solveTmm(truth.stack, f);
+    const lines = ['f_GHz,R_re,R_im,T_re,T_im', ...Array.from(f, (v, k) => [v / 1e9, x.R_re[k], x.R_im[k], x.T_re[k], x.T_im[k]].map((n) => String(Number(n.toPrecision(12)))).join(','))];
+    const dir = join(ARTIFACTS, 'downloads');
+    writeFileSync(join(dir, 'sample.csv'), `${lines.join('\n')}\n`);
+    writeFileSync(join(dir, 'sample.stack.json'), JSON.stringify(slab(10)));
+    await page.setInputFiles('[data-testid="import"]', join(dir, 'sample.stack.json'));
+    await page.waitForFunction(() => document.querySelector('[data-testid="stack-title"]')?.textContent === 'Sample under test');
+    const panel = page.locator('[data-testid="tune-panel"]');
+    await page.setInputFiles('[data-testid="measured-import"]', join(dir, 'sample.csv'));
+    await expect.poll(() => panel.locator('[data-testid="measured-status"]').textContent()).toBe('sample.csv: 41 rows, R_re, R_im, T_re, T_im');
+    // Drawn beside the methods: the readout names it, with |R| of the measured row at 6 GHz.
+    await expect.poll(() => probe('chartRange', 'spectrum-view')).toEqual([2, 10]);
+    await page.locator('[data-testid="spectrum-view"]').scrollIntoViewIfNeeded();
+    const pt = (await probe('chartPoint', 'spectrum-view', 6, 0))!;
+    await page.mouse.move(pt.x, pt.y);
+    const readout = page.locator('[data-testid="spectrum-view-readout"]');
+    await expect.poll(() => readout.textContent()).toContain('measured (sample.csv)');
+    const shown = Number((await readout.locator('.readout-row', { hasText: 'measured' }).first().locator('.readout-value').textContent())!.replace('−', '-').replace(/\s*dB.*$/, ''));
+    expect(Math.abs(shown - 20 * Math.log10(Math.hypot(x.R_re[20], x.R_im[20])))).toBeLessThanOrEqual(0.0005 + 1e-9);
+    await page.locator('[data-testid="spectrum-view"]').screenshot({ path: join(ARTIFACTS, 'spectrum-view-measured.png') });
+    await page.mouse.move(0, 0);
+    await panel.locator('[data-testid="tune-goal"]').selectOption('match');
+    await panel.locator('[data-testid="tune-free"]').fill('layers[0].thickness_mm=5:20');
+    await panel.locator('[data-testid="tune-budget"]').fill('60');
+    await panel.locator('[data-testid="tune-run"]').click();
+    const result = panel.locator('[data-testid="tune-result"]');
+    await expect.poll(() => result.textContent(), { timeout: 60_000 }).toMatch(/evaluations in/);
+    const best = Number(/layers\[0\]\.thickness_mm = ([\d.]+)/.exec((await result.textContent())!)![1]);
+    expect(Math.abs(best - 12.3)).toBeLessThan(1e-4);
+    await panel.screenshot({ path: join(ARTIFACTS, 'tune-panel.png') });
+    await panel.locator('[data-testid="tune-apply"]').click();
+    await expect.poll(async () => Number(await page.locator('[data-testid="layer-0-thickness"] input').inputValue())).toBeCloseTo(12.3, 4);
+    await panel.locator('[data-testid="measured-clear"]').click();
     await choosePreset('default');
   });
 

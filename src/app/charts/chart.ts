@@ -19,6 +19,20 @@ export interface ChartSeries {
   color: string;
   width?: number;
   dash?: number[];
+  /** Drawn as dots at its samples (measured points), not as a line. */
+  points?: boolean;
+}
+
+/** A shaded region between two curves sampled at the same x (a percentile band). */
+export interface ChartFill {
+  label: string;
+  x: ArrayLike<number>;
+  lo: ArrayLike<number>;
+  hi: ArrayLike<number>;
+  color: string;
+  /** Names of the two edges in the readout ("p05", "p95"). */
+  loName?: string;
+  hiName?: string;
 }
 
 export interface ChartMarker {
@@ -46,6 +60,8 @@ export interface ChartPanel {
   weight?: number;
   markers?: ChartMarker[];
   bands?: ChartBand[];
+  /** Shaded regions under the series. */
+  fills?: ChartFill[];
   /** The readout's unit for this panel's values ("dB", "°"), and its decimals (else 5 significant digits). */
   unit?: string;
   decimals?: number;
@@ -207,11 +223,14 @@ export class Chart {
     ctx.textBaseline = 'alphabetic';
     ctx.textAlign = 'left';
     ctx.fillText(spec.title, 12, 20);
+    let titleEnd = 12 + ctx.measureText(spec.title).width + 12;
     if (spec.subtitle !== undefined) {
       const tw = ctx.measureText(spec.title).width;
       ctx.font = `12px ${THEME.font}`;
       ctx.fillStyle = THEME.inkSoft;
-      ctx.fillText(fitText(ctx, spec.subtitle, w - 24 - tw - 10 - 90), 12 + tw + 10, 20);
+      const sub = fitText(ctx, spec.subtitle, w - 24 - tw - 10 - 90);
+      ctx.fillText(sub, 12 + tw + 10, 20);
+      if (sub !== '') titleEnd = 12 + tw + 10 + ctx.measureText(sub).width + 12;
     }
     const scale = spec.xScale ?? 'linear';
     const xr = this.zoomX ?? spec.xRange ?? autoX(spec.panels, scale);
@@ -232,7 +251,8 @@ export class Chart {
     spec.panels.forEach((panel, k) => {
       const height = (avail * (panel.weight ?? 1)) / totalWeight;
       const frame: PanelFrame = { axis, xTicks, top, height, yr: this.yRangeOf(panel, k, xr), xLabel: k === spec.panels.length - 1 ? spec.xLabel : null };
-      paintPanel(ctx, panel, frame, (x) => this.alongOf(x, scale));
+      // The first panel's legend shares the title's line: it keeps clear of the title.
+      paintPanel(ctx, panel, frame, (x) => this.alongOf(x, scale), k === 0 ? titleEnd : 0);
       frames.push(frame);
       top += height + PAD.gap;
     });
@@ -352,6 +372,13 @@ export class Chart {
         const value = `${readoutValue(v, p.decimals)}${p.unit && Number.isFinite(v) ? ` ${p.unit}` : ''}`;
         return { label: s.label, color: s.color, dash: s.dash, value: off ? `${value} (at ${readoutValue(s.x[i], d.spec.xDecimals)})` : value };
       });
+      for (const fl of p.fills ?? []) {
+        const i = nearestIndex(fl.x, at, fl.x.length);
+        if (i < 0) continue;
+        const text = (v: number) => `${readoutValue(v, p.decimals)}${p.unit && Number.isFinite(v) ? ` ${p.unit}` : ''}`;
+        rows.push({ label: `${fl.label} ${fl.loName ?? 'low'}`, color: fl.color, dash: undefined, value: text(fl.lo[i]) });
+        rows.push({ label: `${fl.label} ${fl.hiName ?? 'high'}`, color: fl.color, dash: undefined, value: text(fl.hi[i]) });
+      }
       if (rows.length > 0) groups.push({ title: p.yLabel, rows });
     });
     return { x: at, groups, dots };

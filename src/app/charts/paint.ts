@@ -5,7 +5,7 @@ import { THEME } from '../theme.ts';
 import { columnPolyline, reduceColumns, type ColumnPolyline } from './columns.ts';
 import { along, axisTickLabel, toPx, type Axis } from './axis.ts';
 import { niceTicks, tickLabel } from './ticks.ts';
-import type { ChartPanel, ChartSeries } from './chart.ts';
+import type { ChartFill, ChartPanel, ChartSeries } from './chart.ts';
 
 export interface PanelFrame {
   axis: Axis;
@@ -17,6 +17,7 @@ export interface PanelFrame {
   xLabel: string | null;
 }
 
+
 /** The series' x values along the axis (log10 x on a log axis), cached per array. */
 export type AlongOf = (x: ArrayLike<number>) => ArrayLike<number>;
 
@@ -24,7 +25,7 @@ const line: ColumnPolyline = columnPolyline(1024);
 
 export const yToPx = (f: PanelFrame, y: number): number => f.top + f.height - ((y - f.yr[0]) / (f.yr[1] - f.yr[0])) * f.height;
 
-export function paintPanel(ctx: CanvasRenderingContext2D, panel: ChartPanel, f: PanelFrame, alongOf: AlongOf): void {
+export function paintPanel(ctx: CanvasRenderingContext2D, panel: ChartPanel, f: PanelFrame, alongOf: AlongOf, legendFrom = 0): void {
   const { axis, top, height } = f;
   const left = axis.left, width = axis.width;
   const xToPx = (x: number): number => toPx(axis, x);
@@ -43,7 +44,8 @@ export function paintPanel(ctx: CanvasRenderingContext2D, panel: ChartPanel, f: 
   for (const t of yTicks) { const p = Math.round(yToPx(f, t)) + 0.5; ctx.moveTo(left, p); ctx.lineTo(left + width, p); }
   ctx.stroke();
   paintMarkers(ctx, panel, f, xToPx);
-  for (const s of panel.series) paintSeries(ctx, s, f, alongOf);
+  for (const fl of panel.fills ?? []) paintFill(ctx, fl, f, alongOf);
+  for (const s of panel.series) (s.points === true ? paintDots : paintSeries)(ctx, s, f, alongOf);
   ctx.restore();
   // Frame and axes.
   ctx.strokeStyle = THEME.axis;
@@ -69,7 +71,7 @@ export function paintPanel(ctx: CanvasRenderingContext2D, panel: ChartPanel, f: 
     ctx.fillText(f.xLabel, left + width / 2, top + height + 20);
   }
   ctx.textBaseline = 'alphabetic';
-  paintLegend(ctx, panel, left + width, top);
+  paintLegend(ctx, panel, left + width, top, Math.max(left, legendFrom));
 }
 
 function paintBands(ctx: CanvasRenderingContext2D, panel: ChartPanel, f: PanelFrame, xToPx: (x: number) => number): void {
@@ -138,39 +140,108 @@ function paintSeries(ctx: CanvasRenderingContext2D, s: ChartSeries, f: PanelFram
   ctx.setLineDash([]);
 }
 
-/** Legend, right-aligned above the panel. */
-function paintLegend(ctx: CanvasRenderingContext2D, panel: ChartPanel, right: number, top: number): void {
-  ctx.font = `11px ${THEME.font}`;
-  let x = right;
-  for (let i = panel.series.length - 1; i >= 0; i--) {
-    const s = panel.series[i];
-    const tw = ctx.measureText(s.label).width;
-    x -= tw;
-    ctx.fillStyle = THEME.ink;
-    ctx.textAlign = 'left';
-    ctx.fillText(s.label, x, top - 6);
-    x -= 22;
-    ctx.strokeStyle = s.color;
-    ctx.lineWidth = s.width ?? 1.5;
-    ctx.setLineDash(s.dash ?? []);
-    ctx.beginPath(); ctx.moveTo(x, top - 10); ctx.lineTo(x + 18, top - 10); ctx.stroke();
-    ctx.setLineDash([]);
-    x -= 14;
+/** Dots at the samples inside the shown range (measured points: a few hundred at most). */
+function paintDots(ctx: CanvasRenderingContext2D, s: ChartSeries, f: PanelFrame, alongOf: AlongOf): void {
+  const n = Math.min(s.x.length, s.y.length), u = alongOf(s.x), a = f.axis;
+  const u0 = along(a.scale, a.lo), u1 = along(a.scale, a.hi);
+  ctx.fillStyle = s.color;
+  for (let i = 0; i < n; i++) {
+    if (!(u[i] >= u0 && u[i] <= u1) || !Number.isFinite(s.y[i])) continue;
+    ctx.beginPath();
+    ctx.arc(a.left + ((u[i] - u0) / (u1 - u0)) * a.width, yToPx(f, s.y[i]), 2.2, 0, 2 * Math.PI);
+    ctx.fill();
   }
+}
+
+/** A band between two curves: the polygon along lo and back along hi, every sample inside the shown range. */
+function paintFill(ctx: CanvasRenderingContext2D, fl: ChartFill, f: PanelFrame, alongOf: AlongOf): void {
+  const n = Math.min(fl.x.length, fl.lo.length, fl.hi.length), u = alongOf(fl.x), a = f.axis;
+  const u0 = along(a.scale, a.lo), u1 = along(a.scale, a.hi);
+  const px = (i: number) => a.left + ((u[i] - u0) / (u1 - u0)) * a.width;
+  const idx: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const inside = u[i] >= u0 && u[i] <= u1, near = (i + 1 < n && u[i + 1] >= u0 && u[i] <= u0) || (i > 0 && u[i - 1] <= u1 && u[i] >= u1);
+    if ((inside || near) && Number.isFinite(fl.lo[i]) && Number.isFinite(fl.hi[i])) idx.push(i);
+  }
+  if (idx.length < 2) return;
+  ctx.fillStyle = fl.color;
+  ctx.beginPath();
+  idx.forEach((i, k) => (k === 0 ? ctx.moveTo(px(i), yToPx(f, fl.lo[i])) : ctx.lineTo(px(i), yToPx(f, fl.lo[i]))));
+  for (let k = idx.length - 1; k >= 0; k--) ctx.lineTo(px(idx[k]), yToPx(f, fl.hi[idx[k]]));
+  ctx.closePath();
+  ctx.fill();
+}
+
+/** One legend entry: a line, a row of dots or a filled swatch, then its label. */
+interface LegendEntry { label: string; draw(ctx: CanvasRenderingContext2D, x: number, y: number): void }
+
+function legendEntries(panel: ChartPanel): LegendEntry[] {
+  const series = panel.series.map((s): LegendEntry => ({
+    label: s.label,
+    draw: (ctx, x, y) => {
+      if (s.points === true) {
+        ctx.fillStyle = s.color;
+        for (const d of [3, 9, 15]) { ctx.beginPath(); ctx.arc(x + d, y, 2.2, 0, 2 * Math.PI); ctx.fill(); }
+        return;
+      }
+      ctx.strokeStyle = s.color;
+      ctx.lineWidth = s.width ?? 1.5;
+      ctx.setLineDash(s.dash ?? []);
+      ctx.beginPath(); ctx.moveTo(x, y); ctx.lineTo(x + 18, y); ctx.stroke();
+      ctx.setLineDash([]);
+    },
+  }));
+  const fills = (panel.fills ?? []).map((f): LegendEntry => ({ label: f.label, draw: (ctx, x, y) => { ctx.fillStyle = f.color; ctx.fillRect(x, y - 4, 18, 8); } }));
+  return [...series, ...fills];
+}
+
+/**
+ * Legend, right-aligned above the panel, within [minX, right]: in order, as many entries as fit (at 11 px, or
+ * 10 px when that fits them all), then "+N more" (every series is in the readout too).
+ */
+function paintLegend(ctx: CanvasRenderingContext2D, panel: ChartPanel, right: number, top: number, minX: number): void {
+  const entries = legendEntries(panel);
+  if (entries.length === 0) return;
+  const SWATCH = 22, GAP = 14;
+  const widthAt = (font: number, list: LegendEntry[], more: number): number => {
+    ctx.font = `${font}px ${THEME.font}`;
+    const w = list.reduce((sum, e) => sum + SWATCH + ctx.measureText(e.label).width + GAP, 0) - GAP;
+    return more > 0 ? w + GAP + ctx.measureText(`+${more} more`).width : w;
+  };
+  const room = right - minX;
+  let font = 11, shown = entries.length;
+  if (widthAt(11, entries, 0) > room) {
+    font = 10;
+    while (shown > 1 && widthAt(10, entries.slice(0, shown), entries.length - shown) > room) shown--;
+  }
+  const list = entries.slice(0, shown), more = entries.length - shown;
+  let x = right - widthAt(font, list, more);
+  ctx.font = `${font}px ${THEME.font}`;
+  ctx.textAlign = 'left';
+  for (const e of list) {
+    e.draw(ctx, x, top - 10);
+    x += SWATCH;
+    ctx.fillStyle = THEME.ink;
+    ctx.fillText(e.label, x, top - 6);
+    x += ctx.measureText(e.label).width + GAP;
+  }
+  if (more > 0) { ctx.fillStyle = THEME.inkSoft; ctx.fillText(`+${more} more`, x, top - 6); }
 }
 
 /** The y range of a panel's data over the visible x range, padded; [-1, 1] when there is none. */
 export function autoY(panel: ChartPanel, xr: [number, number]): [number, number] {
   let lo = Infinity, hi = -Infinity;
-  for (const s of panel.series) {
-    const n = Math.min(s.x.length, s.y.length);
+  const take = (xs: ArrayLike<number>, ys: ArrayLike<number>): void => {
+    const n = Math.min(xs.length, ys.length);
     for (let i = 0; i < n; i++) {
-      const x = s.x[i], y = s.y[i];
+      const x = xs[i], y = ys[i];
       if (x < xr[0] || x > xr[1] || !Number.isFinite(y)) continue;
       if (y < lo) lo = y;
       if (y > hi) hi = y;
     }
-  }
+  };
+  for (const s of panel.series) take(s.x, s.y);
+  for (const f of panel.fills ?? []) { take(f.x, f.lo); take(f.x, f.hi); }
   if (!(lo <= hi)) return [-1, 1];
   if (hi - lo < 1e-12 * Math.max(1, Math.abs(hi))) { const c = lo; return [c - 1, c + 1]; }
   const pad = 0.06 * (hi - lo);

@@ -104,3 +104,15 @@ export const sameSpan = (a: Span, b: Span): boolean => {
   const tol = 1e-9 * Math.max(spanWidth(a), spanWidth(b));
   return Math.abs(a.x0_m - b.x0_m) <= tol && Math.abs(a.x1_m - b.x1_m) <= tol;
 };
+
+/** Everything a pulse run's grid shows: its nodes, with room to draw a conductor behind them. */
+export function gridSpan(x_m: ArrayLike<number>, pec: boolean): Span {
+  const a = x_m[0], b = x_m[x_m.length - 1];
+  return { x0_m: a, x1_m: pec ? b + CONDUCTOR_SHARE * (b - a) : b };
+}
+
+/** The narrowest span a view of this grid zooms to: eight cells, or a 5000th of everything. */
+export function minSpanWidth(x_m: ArrayLike<number>, full: Span): number {
+  const dx = x_m.length > 1 ? x_m[1] - x_m[0] : 0;
+  return Math.max(8 * dx, spanWidth(full) / 5000);
+}

@@ -1,7 +1,8 @@
 // Spectrum view: |R| and |T| in dB (or phase, or group delay) over the band from every method
 // present, with the difference of each method from the exact solution underneath.
 
-import { Chart, type ChartPanel, type ChartSeries } from '../charts/chart.ts';
+import { Chart, type ChartFill, type ChartPanel, type ChartSeries } from '../charts/chart.ts';
+import { THEME } from '../theme.ts';
 import { groupDelay } from '../../spectra/groupDelay.ts';
 import type { WireColumn } from '../protocol.ts';
 import type { SpectrumMode } from '../settings.ts';
@@ -19,12 +20,38 @@ export interface SpectrumLook {
   magnitude: 'dB' | 'linear';
 }
 
+/** A measured response drawn beside the methods (its columns as the measured file gives them). */
+export interface MeasuredOverlay {
+  name: string;
+  f_GHz: Float64Array;
+  R: Cx | null;
+  T: Cx | null;
+  R_dB: Float64Array | null;
+  T_dB: Float64Array | null;
+}
+
+/** A tolerance study's percentiles of R_power and T_power over the band (tolerance.csv's columns). */
+export interface ToleranceOverlay {
+  samples: number;
+  f_GHz: Float64Array;
+  R: { p05: Float64Array; p50: Float64Array; p95: Float64Array };
+  T: { p05: Float64Array; p50: Float64Array; p95: Float64Array };
+  /** T_power is |T|² only when the two half-spaces are alike: otherwise no band on |T|. */
+  tIsMagnitude: boolean;
+}
+
+export interface SpectrumExtras { measured?: MeasuredOverlay | null; tolerance?: ToleranceOverlay | null }
+
+const powerDb = (p: Float64Array): Float64Array => p.map((v) => (v > 0 ? Math.max(-120, 10 * Math.log10(v)) : -120));
+const powerMag = (p: Float64Array): Float64Array => p.map((v) => Math.sqrt(Math.max(0, v)));
+const dbMag = (d: Float64Array): Float64Array => d.map((v) => 10 ** (v / 20));
+
 export class SpectrumView {
   readonly chart: Chart;
   constructor(host: HTMLElement) { this.chart = new Chart(host, 460); }
 
   /** `tables`: the exact/FEM table and, when current, the pulse run's table (its FDTD columns are added). */
-  show(tables: Array<readonly WireColumn[] | null>, look: SpectrumLook, note: string): void {
+  show(tables: Array<readonly WireColumn[] | null>, look: SpectrumLook, note: string, extras: SpectrumExtras = {}): void {
     const mode = look.mode, dB = look.magnitude === 'dB';
     const series = new Map<string, { f: Float64Array; R: Cx; T: Cx | null }>();
     for (const t of tables) {
@@ -59,8 +86,10 @@ export class SpectrumView {
       }
       return out;
     };
-    const panels: ChartPanel[] = [{ yLabel: yLabel('R'), series: curves('R'), yFloor: floor, unit, decimals }];
-    if (hasT) panels.push({ yLabel: yLabel('T'), series: curves('T'), yFloor: floor, unit, decimals });
+    const measured = (q: 'R' | 'T'): ChartSeries[] => measuredSeries(extras.measured ?? null, q, mode, dB);
+    const band = (q: 'R' | 'T'): ChartFill[] => toleranceFill(extras.tolerance ?? null, q, mode, dB);
+    const panels: ChartPanel[] = [{ yLabel: yLabel('R'), series: [...curves('R'), ...measured('R')], fills: band('R'), yFloor: floor, unit, decimals }];
+    if (hasT) panels.push({ yLabel: yLabel('T'), series: [...curves('T'), ...measured('T')], fills: band('T'), yFloor: floor, unit, decimals });
     const diffs: ChartSeries[] = [];
     if (exact !== undefined) {
       for (const [stem, s] of series) {
@@ -84,4 +113,22 @@ export class SpectrumView {
       empty: 'solving…',
     });
   }
+}
+
+/** The measured points of R or T in the view's terms: magnitudes from R_dB (or |R| of R_re, R_im), phases from the complex columns. */
+function measuredSeries(m: MeasuredOverlay | null, q: 'R' | 'T', mode: SpectrumMode, dB: boolean): ChartSeries[] {
+  if (m === null || mode === 'group delay') return [];
+  const z = q === 'R' ? m.R : m.T, d = q === 'R' ? m.R_dB : m.T_dB;
+  let y: Float64Array | null = null;
+  if (mode === 'phase') y = z !== null ? phaseDeg(z) : null;
+  else if (z !== null) y = dB ? magDb(z) : mag(z);
+  else if (d !== null) y = dB ? d : dbMag(d);
+  return y === null ? [] : [{ label: `measured (${m.name})`, x: m.f_GHz, y, color: THEME.measured, points: true }];
+}
+
+/** The p05–p95 band of R_power (or T_power) as |R| (|T|) in dB or as a ratio; magnitudes only. */
+function toleranceFill(t: ToleranceOverlay | null, q: 'R' | 'T', mode: SpectrumMode, dB: boolean): ChartFill[] {
+  if (t === null || mode !== 'magnitude' || (q === 'T' && !t.tIsMagnitude)) return [];
+  const p = q === 'R' ? t.R : t.T, as = dB ? powerDb : powerMag;
+  return [{ label: `p05–p95 of ${t.samples} samples`, x: t.f_GHz, lo: as(p.p05), hi: as(p.p95), color: 'rgba(36, 59, 143, 0.18)', loName: 'p05', hiName: 'p95' }];
 }
