@@ -9,14 +9,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { planGrid } from '../src/fdtd/plan.ts';
-import { createPulseRun, runToEndSync } from '../src/fdtd/run.ts';
-import { solveEffective } from '../src/fdtd/stepped-exact.ts';
-import { compareSpectra } from '../src/report/agreement.ts';
-import { spectrumFromRecords } from '../src/spectra/spectrum.ts';
-import { parseStackObject } from '../src/stack/parse.ts';
-import type { Stack } from '../src/stack/types.ts';
-import { solveTmm } from '../src/tmm/solve.ts';
-import { linspace } from '../src/units.ts';
+import { type Case, measureCases, stackFrom } from './measure-cases.ts';
 import { useWasmStep } from '../test/support/wasm.ts';
 
 // The runs step with the WebAssembly kernel, as the CLI's do (the TypeScript one gives the same figures, slower).
@@ -25,13 +18,6 @@ await useWasmStep();
 const { values } = parseArgs({ options: { only: { type: 'string' }, accuracy: { type: 'string' }, set: { type: 'string' }, json: { type: 'boolean' } } });
 const accuracy = values.accuracy ? Number(values.accuracy) : undefined;
 
-function stackFrom(obj: unknown): Stack {
-  const r = parseStackObject(obj);
-  if (!r.ok) throw new Error(r.errors.join('\n'));
-  return r.stack;
-}
-
-interface Case { name: string; stack: Stack }
 const cases: Case[] = [];
 for (const f of readdirSync('presets').filter((x) => x.endsWith('.stack.json')).sort()) {
   cases.push({ name: `preset ${f.replace('.stack.json', '')}`, stack: stackFrom(JSON.parse(readFileSync(`presets/${f}`, 'utf8'))) });
@@ -78,35 +64,4 @@ cases.push({ name: 'lossless Drude below its plasma frequency', stack: stackFrom
   }
 }
 
-const rows: Record<string, unknown>[] = [];
-for (const c of cases) {
-  if (values.only && !c.name.includes(values.only)) continue;
-  const opts = accuracy !== undefined ? { accuracy } : {};
-  const t0 = performance.now();
-  let plan;
-  try { plan = planGrid(c.stack, opts); } catch (e) { console.log(`${c.name}: refused: ${(e as Error).message}`); continue; }
-  const plan_ms = performance.now() - t0;
-  const t1 = performance.now();
-  let run;
-  try { run = runToEndSync(createPulseRun(c.stack, opts)); } catch (e) { console.log(`${c.name}: failed: ${(e as Error).message}`); continue; }
-  const run_ms = performance.now() - t1;
-  const f = linspace(c.stack.band_Hz[0], c.stack.band_Hz[1], 201);
-  const fdtd = spectrumFromRecords(run.records(), f);
-  const stepped = solveEffective(run.plan.effective, f);
-  const exact = solveTmm(c.stack, f);
-  const engine = compareSpectra(fdtd, stepped), model = compareSpectra(stepped, exact);
-  const row = {
-    case: c.name, target: run.plan.accuracyTarget,
-    engine_R: engine.R_max, engine_T: engine.T_max, worst_GHz: engine.R_max >= engine.T_max ? engine.R_worst_f_GHz : engine.T_worst_f_GHz,
-    predicted: plan.predictedError, model_R: model.R_max, model_T: model.T_max,
-    cells: run.plan.cells, steps: run.stepIndex, cell_updates: run.stepIndex * (run.plan.nodes.total + run.plan.nodes.auxTotal),
-    end: run.doneReason, plan_ms, run_ms,
-  };
-  rows.push(row);
-  if (!values.json) {
-    const e = (x: number) => x.toExponential(1);
-    console.log(`${c.name.padEnd(48)} engine ${e(engine.R_max)}/${e(engine.T_max)} @${row.worst_GHz.toFixed(2)} pred ${e(plan.predictedError)} model ${e(model.R_max)}/${e(model.T_max)} ` +
-      `${row.cells} cells × ${row.steps} steps = ${e(row.cell_updates)} ${row.end} plan ${plan_ms.toFixed(0)} ms run ${(run_ms / 1000).toFixed(2)} s`);
-  }
-}
-if (values.json) console.log(JSON.stringify(rows, null, 2));
+measureCases(cases, { only: values.only, accuracy, json: values.json });

@@ -68,7 +68,7 @@ function dump(plan: GridPlan, file: string): void {
   const dftHi = plan.effective.back === 'pec' ? nodes.back + 1 : nodes.pmlBackStart;
   out.push(nodes.tfsf, dftHi - nodes.tfsf, profileStride(plan.pulse, plan.profile_Hz, plan.dt_s));
   out.push(plan.dt_s, 2 * Math.PI * plan.profile_Hz * plan.dt_s);
-  arr(g.epsInf);
+  arr(g.weights.epsInf);
   const w = Array.from({ length: 24 }, (_, i) => 2 * Math.PI * (BENCH_BAND_Hz[0] + ((BENCH_BAND_Hz[1] - BENCH_BAND_Hz[0]) * i) / 23));
   arr(w);
   const every = new SpectraWatch(BENCH_BAND_Hz, plan.dt_s, SETTLED_FRACTION * plan.accuracyTarget).every;

@@ -5,8 +5,7 @@
 
 import { C0_m_per_s } from '../units.ts';
 import type { Stack } from '../stack/types.ts';
-import type { StepModel } from './media.ts';
-import { refractiveIndex, stepModelPermittivity } from './media.ts';
+import { type LineMedium, type StepModel, lineIndex, lineMedium } from './media.ts';
 import { courantLimit, DEFAULT_PML_CELLS, layoutNodes, planGrid } from './plan.ts';
 import { pulseForBand } from './pulse.ts';
 import { createRunOfPlan } from './run.ts';
@@ -33,10 +32,10 @@ export function benchMedium(debye: number, lorentz: number): StepModel {
   };
 }
 
-/** The plan of a uniform grid of `model` whose two grids together hold `cells` E nodes (20 cells per wavelength at the band top). */
-export function uniformBenchPlan(cells: number, model: StepModel, steps: number): GridPlan {
-  const band = BENCH_BAND_Hz, P = DEFAULT_PML_CELLS;
-  const n = Math.max(...[band[0], band[1]].map((f) => refractiveIndex(stepModelPermittivity(model, f))));
+/** The plan of a uniform grid of `shunt` whose two grids together hold `cells` E nodes (20 cells per wavelength at the band top). */
+export function uniformBenchPlan(cells: number, shunt: StepModel, steps: number): GridPlan {
+  const band = BENCH_BAND_Hz, P = DEFAULT_PML_CELLS, model: LineMedium = lineMedium(shunt);
+  const n = Math.max(...[band[0], band[1]].map((f) => lineIndex(model, f).re));
   const dx = C0_m_per_s / (band[1] * n) / CELLS_PER_WAVELENGTH;
   const courant = courantLimit([model]), dt = (courant * dx) / C0_m_per_s;
   const probe = layoutNodes({ P, gapFront: 10, stackCells: 0, gapBack: 10, pec: false, fullIncident: false });

@@ -1,15 +1,17 @@
-// The stack as the engine steps it: power laws fitted, good conductors turned into a wall (thick)
-// or a resistive sheet (thin film), warnings saying so. Fits are cached per stack (a fit is a small linear
-// program; a stack planned twice, as the command line does to refuse oversized runs early, fits once).
+// The stack as the engine steps it: every medium a line medium (its ε as the shunt model, its μ as the series
+// model, at normal incidence; oblique.ts folds the angle in), power laws and lossy fixed permeabilities fitted,
+// good conductors turned into a wall (thick) or a resistive sheet (thin film), warnings saying so. Fits are
+// cached per stack (a fit is a small linear program; a stack planned twice, as the command line does to refuse
+// oversized runs early, fits once).
 
-import { isNonMagneticMaterial } from '../materials/permeability.ts';
 import { effectiveConductivity, permittivity } from '../materials/permittivity.ts';
-import type { BulkModel } from '../materials/types.ts';
+import type { BulkModel, MagneticModel } from '../materials/types.ts';
 import type { BulkMaterial, Stack } from '../stack/types.ts';
-import { MU0_H_per_m } from '../units.ts';
+import { GHz, MU0_H_per_m, ps } from '../units.ts';
+import { tableInterpolant, tableValue } from '../materials/table.ts';
 import { PlanError } from './errors.ts';
-import { type PowerLawFit, fitPermittivity, powerLawTarget, tableTarget } from './fit-power-law.ts';
-import { type StepModel, stepModelOf } from './media.ts';
+import { type PowerLawFit, fitPermittivity, permeabilityTarget, powerLawTarget, tableTarget } from './fit-power-law.ts';
+import { type LineMedium, type StepModel, UNIT_MODEL, lineMedium, stepModelOf } from './media.ts';
 import { probeWeights } from './probe-weights.ts';
 import type { EffectiveStack, GridSegment, GridSheet } from './types.ts';
 
@@ -37,13 +39,15 @@ export function fitWarnings(fits: readonly PowerLawFit[]): string[] {
   const out: string[] = [];
   for (const f of fits) {
     const high = f.maxRelErr_re > FIT_WARN_RE || f.maxRelErr_im > FIT_WARN_IM;
-    const negative = f.minEpsRe_wide < 1;
+    const negative = f.quantity === 'permittivity' && f.minEpsRe_wide < 1;
     if (!high && !negative) continue;
-    const below = negative ? `; ε' falls to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top` : '';
-    const why = f.source === 'table' ? 'a measured table is not a model the engine steps' : 'a power law is not causal';
+    const mu = f.quantity === 'permeability', x = mu ? 'μ' : 'ε';
+    const below = negative ? `; ${x}' falls to ${f.minEpsRe_wide.toPrecision(3)} between half the band's bottom and twice its top` : '';
+    const why = f.source === 'table' ? `a measured ${mu ? 'μ' : 'ε'} table is not a model the engine steps`
+      : mu ? 'its permeability, a fixed μ with loss, is not causal' : 'a power law is not causal';
     out.push(
       `material "${f.material}": stepped by the pulse engine as a fitted causal model (${why}); ` +
-      `its worst error over the band is ${(100 * f.maxRelErr_re).toFixed(2)} % in ε' and ${(100 * f.maxRelErr_im).toFixed(2)} % in ε''${below} ` +
+      `its worst error over the band is ${(100 * f.maxRelErr_re).toFixed(2)} % in ${x}' and ${(100 * f.maxRelErr_im).toFixed(2)} % in ${x}''${below} ` +
       '(the fit favours the frequencies whose waves reach the probes). The agreement row "stepped media-tmm" shows what this does to R and T.',
     );
   }
@@ -69,35 +73,73 @@ export function resolveStack(stack: Stack): Resolved {
   return { effective: hit.effective, fits: [...hit.fits], warnings: [...hit.warnings] };
 }
 
+/** The series model of a permeability that needs no fitting (all but a fixed μ with loss). */
+function magneticStepModel(m: MagneticModel | undefined): StepModel | null {
+  if (m === undefined) return UNIT_MODEL;
+  switch (m.model) {
+    case 'fixed':
+      return m.mu_loss === 0 ? (m.mu_r === 1 ? UNIT_MODEL : { epsInf: m.mu_r, sigma: 0, debye: [], osc: [] }) : null;
+    case 'debye':
+      return { epsInf: m.mu_inf, sigma: 0, debye: m.poles.map((p) => ({ deps: p.delta_mu, tau_s: p.tau_ps * ps })), osc: [] };
+    case 'lorentz':
+      return {
+        epsInf: m.mu_inf, sigma: 0, debye: [],
+        osc: m.poles.map((p) => {
+          const w0 = 2 * Math.PI * p.f0_GHz * GHz;
+          return { c: p.delta_mu * w0 * w0, w0sq: w0 * w0, gamma: 2 * Math.PI * p.gamma_GHz * GHz };
+        }),
+      };
+  }
+}
+
 function resolveUncached(stack: Stack): Resolved {
   const fits: PowerLawFit[] = [];
   const warnings: string[] = [];
   const band = stack.band_Hz;
   const models = new Map<string, StepModel>();
-  const modelOf = (mat: BulkMaterial): StepModel => {
-    const spec = mat.spec;
-    if (spec.model !== 'power-law' && spec.model !== 'table') return stepModelOf(spec);
-    const key = `${mat.name}|${JSON.stringify(spec)}`;
+  const cached = (key: string, make: () => PowerLawFit): StepModel => {
     const hit = models.get(key);
     if (hit) return hit;
-    const target = spec.model === 'table' ? tableTarget(spec) : powerLawTarget(spec);
-    const fit = fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name) });
+    const fit = make();
     fits.push(fit);
     models.set(key, fit.model);
     return fit.model;
   };
-  const magnetic = [stack.front, ...stack.layers.map((l) => l.material), ...(stack.back === 'pec' ? [] : [stack.back])]
-    .find((m) => m.spec.model !== 'sheet' && !isNonMagneticMaterial(m.spec));
-  if (magnetic !== undefined) {
-    throw new PlanError(`materials: "${magnetic.name}" is magnetic (μ_r ≠ 1), which the pulse engine does not step yet; use the exact solver and the FEM`, 'unsupported');
-  }
+  const shuntOf = (mat: BulkMaterial): StepModel => {
+    const spec = mat.spec;
+    if (spec.model !== 'power-law' && spec.model !== 'table') return stepModelOf(spec);
+    const target = spec.model === 'table' ? tableTarget(spec) : powerLawTarget(spec);
+    return cached(`ε|${mat.name}|${JSON.stringify(spec)}`,
+      () => fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name) }));
+  };
+  const seriesOf = (mat: BulkMaterial): StepModel => {
+    const spec = mat.spec;
+    const fitMu = (target: ReturnType<typeof permeabilityTarget>) => cached(`μ|${mat.name}|${JSON.stringify(spec)}`,
+      () => fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name, 'permeability') }));
+    if (spec.model === 'table' && spec.mu_points !== undefined) {
+      // A measured μ table: fitted as a table of ε is (its range, no conduction term).
+      const pts = spec.mu_points, range = [...tableInterpolant(pts).range_Hz] as [number, number];
+      if (pts.every(([, re, loss]) => re === 1 && loss === 0)) return UNIT_MODEL;
+      return fitMu(permeabilityTarget('table', (f) => tableValue(pts, f), range, Math.min(...pts.map(([, re]) => re))));
+    }
+    const m = spec.magnetic, direct = magneticStepModel(m);
+    if (direct !== null || m === undefined || m.model !== 'fixed') return direct ?? UNIT_MODEL;
+    const mu = { re: m.mu_r, im: -m.mu_loss };
+    return fitMu(permeabilityTarget('fixed', () => mu, null, m.mu_r));
+  };
+  const media = new Map<BulkMaterial, LineMedium>();
+  const modelOf = (mat: BulkMaterial): LineMedium => {
+    let m = media.get(mat);
+    if (!m) { m = lineMedium(shuntOf(mat), seriesOf(mat)); media.set(mat, m); }
+    return m;
+  };
   if (isConductor(stack.front.spec, band)) {
     throw new PlanError(`front: the medium the wave comes from ("${stack.front.name}") is a conductor; nothing would reach the stack`, 'bad-input');
   }
   const front = modelOf(stack.front);
   const segments: GridSegment[] = [];
   const sheets: GridSheet[] = [];
-  let back: StepModel | 'pec' = 'pec';
+  let back: LineMedium | 'pec' = 'pec';
   let x = 0;
   let ended = false;
   let previous = front;

@@ -2,13 +2,17 @@
 // WebAssembly engine is tested against it, and it runs wherever WebAssembly SIMD is missing.
 
 import { batchTable, type EngineInput, type StepEngine } from './engine.ts';
+import type { EnergyWeights } from './build.ts';
 import { type DispersiveSpan, type KernelState, updateE, updateH } from './kernel.ts';
 
 /**
- * Energy held by the poles (normalized like the field energy): P̃²/Δε for a Debye pole, (P̃'² + ω0²P̃²)/c for a
- * second-order one (their stored energies, dropping ε0/2 as the field energy does). `e` is the E of the same
- * step, which completes the state (kernel.ts). Summed as the WebAssembly engine does, in two running sums (nodes
- * of even and odd place in each group, its two lanes) added at the end, so the two engines agree to the bit.
+ * Energy held by the poles of one field (normalized like the field energy): P̃²/Δε for a Debye pole,
+ * (P̃'² + ω0²P̃²)/c for a Lorentz or Drude one (their stored energies, dropping ε0/2 as the field energy does).
+ * The terms of a partial fraction (inverse.ts) may have negative strengths or an s-term; for them the same forms
+ * with the kernel's positive scales (|Δ|, |c| + ω0|d|) measure a state that falls to zero with it. `e` is the
+ * field of the same step, which completes the state (kernel.ts). Summed as the WebAssembly engine does, in two
+ * running sums (nodes of even and odd place in each group, its two lanes) added at the end, so the two engines
+ * agree to the bit.
  */
 export function poleEnergy(d: DispersiveSpan | null, e: Float64Array, dt: number): number {
   if (d === null) return 0;
@@ -32,13 +36,17 @@ export function poleEnergy(d: DispersiveSpan | null, e: Float64Array, dt: number
   return W[0] + W[1];
 }
 
-/** Σ w·E² over the E nodes plus Σ h² (w = ε∞ per node), in two running sums (even and odd nodes) added at the end. */
-export function fieldEnergy(e: Float64Array, h: Float64Array, w: Float64Array): number {
+/**
+ * Σ ε∞·E² over the E nodes plus Σ μ∞·h² over the H nodes, in two running sums (even and odd nodes) added at the
+ * end (the WebAssembly engine's two lanes).
+ */
+export function fieldEnergy(e: Float64Array, h: Float64Array, w: EnergyWeights): number {
+  const we = w.epsInf, wh = w.muInf;
   let even = 0, odd = 0, i = 0;
-  for (; i + 1 < e.length; i += 2) { even += w[i] * e[i] * e[i]; odd += w[i + 1] * e[i + 1] * e[i + 1]; }
-  if (i < e.length) even += w[i] * e[i] * e[i];
-  for (i = 0; i + 1 < h.length; i += 2) { even += h[i] * h[i]; odd += h[i + 1] * h[i + 1]; }
-  if (i < h.length) even += h[i] * h[i];
+  for (; i + 1 < e.length; i += 2) { even += we[i] * e[i] * e[i]; odd += we[i + 1] * e[i + 1] * e[i + 1]; }
+  if (i < e.length) even += we[i] * e[i] * e[i];
+  for (i = 0; i + 1 < h.length; i += 2) { even += wh[i] * h[i] * h[i]; odd += wh[i + 1] * h[i + 1] * h[i + 1]; }
+  if (i < h.length) even += wh[i] * h[i] * h[i];
   return even + odd;
 }
 
@@ -54,7 +62,7 @@ export class JsEngine implements StepEngine {
   readonly spectra = null;
   private readonly main: KernelState;
   private readonly aux: KernelState;
-  private readonly epsInf: Float64Array;
+  private readonly weights: EnergyWeights;
   private incRe = 0;
   private incIm = 0;
 
@@ -62,7 +70,7 @@ export class JsEngine implements StepEngine {
     const { grids, setup } = input;
     this.main = grids.main;
     this.aux = grids.aux;
-    this.epsInf = grids.epsInf;
+    this.weights = grids.weights;
     this.mainE = grids.main.e;
     this.auxE = grids.aux.e;
     this.mainH = grids.main.h;
@@ -106,7 +114,7 @@ export class JsEngine implements StepEngine {
   incidentDft(): [number, number] { return [this.incRe, this.incIm]; }
 
   energy(): number {
-    const e = this.main.e;
-    return fieldEnergy(e, this.main.h, this.epsInf) + poleEnergy(this.main.disp, e, this.input.setup.dt_s);
+    const { e, h } = this.main, dt = this.input.setup.dt_s;
+    return fieldEnergy(e, h, this.weights) + poleEnergy(this.main.disp, e, dt) + poleEnergy(this.main.mdisp, h, dt);
   }
 }

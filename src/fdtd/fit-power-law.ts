@@ -16,6 +16,8 @@
 // depth matter), floored so neither part is ignored. Kramers–Kronig forbids a flat ε' with a falling ε'',
 // so for a power law a residue remains; a measured table is fitted as closely as its own causality allows.
 // Either way the residue is reported beside the results (worst errors over the band).
+// The same program fits a permeability the engine cannot step as it is — a fixed μ' − jμ'' with loss (constant
+// over the band, not causal either) or a measured μ table — with μ∞ and μ' ≥ min(1, μ') and no conduction term.
 
 import type { Complex } from '../complex.ts';
 import type { PowerLawModel, TableModel } from '../materials/types.ts';
@@ -27,26 +29,39 @@ import { stepModelPermittivity } from './media.ts';
 import { pulseForBand, pulseSpectrumRelative, type PulseShape } from './pulse.ts';
 import { minimizeLp } from './simplex.ts';
 
-/** What a fit approximates: ε_r(f) where it has values. */
+/** What a fit approximates: ε_r(f) (or μ_r(f)) where it has values. */
 export interface FitTarget {
   /** The model the numbers come from. */
-  source: 'power-law' | 'table';
-  /** ε_r = ε' − jε'' at f_Hz as {re: ε', im: −ε''} (f inside `range_Hz`). */
+  source: 'power-law' | 'table' | 'fixed';
+  /** The permittivity (default) or the permeability. */
+  quantity?: 'permittivity' | 'permeability';
+  /** ε_r = ε' − jε'' at f_Hz as {re: ε', im: −ε''} (f inside `range_Hz`); μ_r for a permeability. */
   eps: (f_Hz: number) => Complex;
   /** Frequencies with values (a table's rows), or null for any. */
   range_Hz: [number, number] | null;
+  /** ε∞ and ε' over the wide range stay at or above this (default 1). */
+  floor?: number;
+  /** False: no conduction term (a permeability). */
+  conduction?: boolean;
+  /** A resonant target (a magnetic material's μ): the finer dictionary of terms. */
+  resonant?: boolean;
 }
 
 export const powerLawTarget = (pl: PowerLawModel): FitTarget => ({ source: 'power-law', eps: (f) => permittivity(pl, f), range_Hz: null });
 export const tableTarget = (t: TableModel): FitTarget =>
   ({ source: 'table', eps: (f) => permittivity(t, f), range_Hz: [...tableInterpolant(t.points).range_Hz] as [number, number] });
+/** A permeability to fit: a fixed μ with loss, or a measured μ table (`mu_points`). */
+export function permeabilityTarget(source: 'fixed' | 'table', mu: (f_Hz: number) => Complex, range_Hz: [number, number] | null, lowest_mu_re: number): FitTarget {
+  return { source, quantity: 'permeability', eps: mu, range_Hz, floor: Math.min(1, lowest_mu_re), conduction: false, resonant: true };
+}
 
 /** A fitted causal model (the name says where fits began; tables are fitted the same way). */
 export interface PowerLawFit {
   /** Material name (as the stack names it). */
   material: string;
-  /** The model fitted. */
+  /** The model fitted, and which quantity (permittivity or permeability). */
   source: FitTarget['source'];
+  quantity: 'permittivity' | 'permeability';
   band_Hz: [number, number];
   model: StepModel;
   /** max |ε'_fit − ε'| / ε' over the band. */
@@ -55,7 +70,7 @@ export interface PowerLawFit {
   maxRelErr_im: number;
   /** max |ε_fit − ε| / |ε| over the band. */
   maxRelErr_abs: number;
-  /** Smallest ε'_fit from half the band's bottom to twice its top (≥ 1 by construction). */
+  /** Smallest ε'_fit (μ') from half the band's bottom to twice its top (≥ the floor by construction). */
   minEpsRe_wide: number;
   /** Frequencies the fit covered (the band and the pulse's support around it). */
   fitRange_Hz: [number, number];
@@ -77,6 +92,10 @@ const TERMS_BELOW_DECADES = 2;
 const TERMS_ABOVE_DECADES = 2;
 /** Quality factors ω_k/γ_k of the terms (0.02: a Debye relaxation in all but name). */
 const TERM_Q = [0.02, 0.1, 0.3, 1, 3, 10];
+/** For a resonant target (a permeability: a magnetic material's natural resonance has a Q near 1), denser:
+ *  a Lorentz μ of Q = 0.5 is fitted to 5e-4 with these, to 10 % with the power law's. */
+const RESONANT_TERMS_PER_DECADE = 4;
+const RESONANT_TERM_Q = [0.02, 0.1, 0.2, 0.3, 0.5, 0.7, 1, 2, 3, 5, 10];
 /** No term relaxes slower than this many periods of the bottom of the fitted range (the run waits for it). */
 const SLOWEST_RELAXATION_PERIODS = 10 / (2 * Math.PI);
 /** Samples per decade in the band (at least BAND_MIN_SAMPLES) and outside it. */
@@ -145,13 +164,13 @@ function samples(target: FitTarget, band: [number, number], pulse: PulseShape): 
 
 interface Term { w0sq: number; gamma: number }
 
-function dictionary(range: [number, number]): Term[] {
+function dictionary(range: [number, number], resonant = false): Term[] {
   const a = range[0] / 10 ** TERMS_BELOW_DECADES, b = range[1] * 10 ** TERMS_ABOVE_DECADES;
-  const n = Math.ceil(TERMS_PER_DECADE * Math.log10(b / a)) + 1;
+  const n = Math.ceil((resonant ? RESONANT_TERMS_PER_DECADE : TERMS_PER_DECADE) * Math.log10(b / a)) + 1;
   const out: Term[] = [];
   for (const f of logspace(a, b, n)) {
     const w0 = 2 * Math.PI * f;
-    for (const q of TERM_Q) {
+    for (const q of resonant ? RESONANT_TERM_Q : TERM_Q) {
       // Slowest time constant of the term: 2Q/ω0 when it rings, 1/(Qω0) when overdamped.
       const tau = Math.max(2 * q, 1 / q) / w0;
       if (tau <= SLOWEST_RELAXATION_PERIODS / range[0]) out.push({ w0sq: w0 * w0, gamma: w0 / q });
@@ -160,7 +179,7 @@ function dictionary(range: [number, number]): Term[] {
   return out;
 }
 
-/** ε' and ε'' of each unknown at angular frequency w: [ε∞ − 1, σ, c_1 … c_K] (unit coefficients). */
+/** ε' and ε'' of each unknown at angular frequency w: [ε∞ − floor, σ, c_1 … c_K] (unit coefficients). */
 function columns(terms: Term[], w: number, outRe: Float64Array, outIm: Float64Array): void {
   outRe[0] = 1; outIm[0] = 0;
   outRe[1] = 0; outIm[1] = 1 / (w * EPS0_F_per_m);
@@ -178,20 +197,24 @@ export const fitPowerLaw = (pl: PowerLawModel, band_Hz: [number, number], materi
 export function fitPermittivity(target: FitTarget, band_Hz: [number, number], material: string, options: FitOptions = {}): PowerLawFit {
   const [f1, f2] = band_Hz;
   const { list, range } = samples(target, band_Hz, options.pulse ?? pulseForBand(band_Hz));
-  const terms = dictionary(range);
+  const terms = dictionary(range, target.resonant);
   const weights = errorWeights(list, options.probeWeight);
   // σ ≤ the target's effective conductivity ωε0ε'' at the bottom of the fitted range (no invented DC conduction).
-  const sigmaMax = Math.max(0, -target.eps(range[0]).im * 2 * Math.PI * range[0] * EPS0_F_per_m);
-  // ε' ≥ 1: imposed at fixed points, then (cutting planes) wherever the fit still dips below 1.
+  const sigmaMax = target.conduction === false ? 0 : Math.max(0, -target.eps(range[0]).im * 2 * Math.PI * range[0] * EPS0_F_per_m);
+  const floor = target.floor ?? 1;
+  // ε' ≥ floor: imposed at fixed points, then (cutting planes) wherever the fit still dips below it.
   const checks = logspace(f1 / 2, 2 * f2, EPS_RE_CHECKS);
-  let model = solveFit(list, weights, terms, checks, sigmaMax);
+  let model = solveFit(list, weights, terms, checks, sigmaMax, floor);
   for (let round = 0; round < EPS_RE_ROUNDS; round++) {
-    const dips = epsReDips(model, [f1 / 2, 2 * f2]);
+    const dips = epsReDips(model, [f1 / 2, 2 * f2], floor);
     if (dips.length === 0) break;
     checks.push(...dips);
-    model = solveFit(list, weights, terms, checks, sigmaMax);
+    model = solveFit(list, weights, terms, checks, sigmaMax, floor);
   }
-  return { material, source: target.source, band_Hz: [f1, f2], model, ...fitErrors(target, model, band_Hz), fitRange_Hz: range };
+  return {
+    material, source: target.source, quantity: target.quantity ?? 'permittivity', band_Hz: [f1, f2], model,
+    ...fitErrors(target, model, band_Hz), fitRange_Hz: range,
+  };
 }
 
 /** Weights on the relative errors of ε' and ε'': the probes' sensitivity, floored, times the sample's base weight. */
@@ -206,7 +229,7 @@ function errorWeights(list: Sample[], probeWeight?: ProbeWeight): { re: number[]
 }
 
 /** Frequencies where ε'_fit dips below 1: local minima of a fine grid, refined by golden-section search. */
-function epsReDips(model: StepModel, [a, b]: [number, number]): number[] {
+function epsReDips(model: StepModel, [a, b]: [number, number], floor: number): number[] {
   const fs = logspace(a, b, WIDE_CHECK_POINTS), re = (f: number) => stepModelPermittivity(model, f).re;
   const v = fs.map(re);
   const out: number[] = [];
@@ -220,13 +243,13 @@ function epsReDips(model: StepModel, [a, b]: [number, number]): number[] {
       if (re(Math.exp(x1)) < re(Math.exp(x2))) hi = x2; else lo = x1;
     }
     const f = Math.exp((lo + hi) / 2);
-    if (re(f) < 1) out.push(f);
+    if (re(f) < floor) out.push(f);
   }
   return out;
 }
 
 /** The linear program of the header comment, solved; its unknowns as a step model. */
-function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms: Term[], checks: number[], sigmaMax: number): StepModel {
+function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms: Term[], checks: number[], sigmaMax: number, floor: number): StepModel {
   const lossless = list.every((s) => s.im === 0);
   const nx = 2 + terms.length, n = nx + 1; // unknowns, then t
   const m = 4 * list.length + checks.length + 1;
@@ -249,13 +272,13 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
   list.forEach((s, i) => {
     columns(terms, 2 * Math.PI * s.f, cr, ci);
     const ar = weights.re[i] / s.re;
-    put(ar, 0, ar * (s.re - 1), 1); //  w'(ε'_fit − ε')/ε' ≥ −t
-    put(-ar, 0, -ar * (s.re - 1), 1); // w'(ε'_fit − ε')/ε' ≤ t
+    put(ar, 0, ar * (s.re - floor), 1); //  w'(ε'_fit − ε')/ε' ≥ −t
+    put(-ar, 0, -ar * (s.re - floor), 1); // w'(ε'_fit − ε')/ε' ≤ t
     const ai = weights.im[i] / (lossless ? s.re : s.im); // a lossless table: ε'' relative to ε'
     put(0, ai, ai * s.im, 1);
     put(0, -ai, -ai * s.im, 1);
   });
-  for (const f of checks) { columns(terms, 2 * Math.PI * f, cr, ci); put(1, 0, 0, 0); } // ε'_fit − 1 ≥ 0
+  for (const f of checks) { columns(terms, 2 * Math.PI * f, cr, ci); put(1, 0, 0, 0); } // ε'_fit − floor ≥ 0
   cr.fill(0); ci.fill(0); cr[1] = -1;
   put(1, 0, -sigmaMax, 0); // −σ ≥ −σ_max
   const c = new Float64Array(n);
@@ -264,14 +287,14 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
   const sol = minimizeLp(c, G, h, m, n);
   const x = Array.from({ length: nx }, (_, j) => sol.x[j] * scale[j]);
   return {
-    epsInf: 1 + x[0], sigma: x[1], debye: [],
+    epsInf: floor + x[0], sigma: x[1], debye: [],
     osc: terms.map((t, k) => ({ c: x[2 + k], w0sq: t.w0sq, gamma: t.gamma })).filter((o) => o.c > 0),
   };
 }
 
 /** Worst relative errors over the band and the smallest ε' from half its bottom to twice its top. */
 export function fitErrors(target: FitTarget, model: StepModel, band: [number, number]):
-  Omit<PowerLawFit, 'material' | 'source' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
+  Omit<PowerLawFit, 'material' | 'source' | 'quantity' | 'band_Hz' | 'model' | 'fitRange_Hz'> {
   const [f1, f2] = band;
   let eRe = 0, eIm = 0, eAbs = 0;
   for (let i = 0; i < CHECK_POINTS; i++) {
@@ -285,6 +308,6 @@ export function fitErrors(target: FitTarget, model: StepModel, band: [number, nu
   }
   let minRe = Infinity;
   for (const f of logspace(f1 / 2, 2 * f2, WIDE_CHECK_POINTS)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
-  for (const f of epsReDips(model, [f1 / 2, 2 * f2])) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
+  for (const f of epsReDips(model, [f1 / 2, 2 * f2], target.floor ?? 1)) minRe = Math.min(minRe, stepModelPermittivity(model, f).re);
   return { maxRelErr_re: eRe, maxRelErr_im: eIm, maxRelErr_abs: eAbs, minEpsRe_wide: minRe };
 }

@@ -4,7 +4,7 @@
 // R and T the leapfrog grid gives, computed per frequency from each medium's discrete wavenumber and
 // admittance, against the exact R and T of the stepped media. It sees what the probes see: a wall that
 // swallows the wave does not pay for the phase error of its depth, a conductor behind doubles the path, a
-// resonant layer multiplies its error. Δx = λ_min/N, with λ_min the shortest wavelength (|√ε|, so
+// resonant layer multiplies its error. Δx = λ_min/N, with λ_min the shortest wavelength (|√(εμ)|, so
 // evanescent media count) over the band in any medium the grid resolves; N ≥ MIN_CELLS_PER_WAVELENGTH and
 // grows (Yee is second order: the error falls as N⁻²) until the prediction fits. Δx is then trimmed so the
 // stack is a whole number of cells (front and back faces on E nodes); with sheets inside the stack, a grid
@@ -15,8 +15,7 @@
 // behind moved to x = 0 by 2 k d, lumping the stack by about (k d)² inside it.
 
 import { C0_m_per_s } from '../units.ts';
-import { decayingRoot } from './discrete.ts';
-import { type StepModel, stepModelPermittivity } from './media.ts';
+import { type LineMedium, lineIndex } from './media.ts';
 import { SHEET_ALIGN_TOL } from './grid-response.ts';
 import { gridError } from './stepped-exact.ts';
 import type { EffectiveStack } from './types.ts';
@@ -56,11 +55,11 @@ export interface CellInputs {
   maxCells: number;
 }
 
-/** Largest |k| = k0 |√ε| over the frequencies, rad/m. */
-function maxWavenumber(m: StepModel, freqs: number[]): number {
+/** Largest |k| = k0 |√(εμ)| over the frequencies, rad/m. */
+function maxWavenumber(m: LineMedium, freqs: number[]): number {
   let k = 0;
   for (const f of freqs) {
-    const r = decayingRoot(stepModelPermittivity(m, f));
+    const r = lineIndex(m, f);
     k = Math.max(k, (2 * Math.PI * f * Math.hypot(r.re, r.im)) / C0_m_per_s);
   }
   return k;

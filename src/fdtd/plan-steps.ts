@@ -8,8 +8,9 @@
 // capacity) and its step limit (three times the expectation).
 
 import { ETA0_ohm, C0_m_per_s } from '../units.ts';
-import { type StepModel, extinctionIndex, refractiveIndex, stepModelPermittivity } from './media.ts';
-import type { PulseShape } from './pulse.ts';
+import { type Complex } from '../complex.ts';
+import { type LineMedium, type StepModel, lineAdmittance, lineIndex } from './media.ts';
+import { type PulseShape, pulseSpectrumRelative } from './pulse.ts';
 import type { EffectiveStack } from './types.ts';
 
 /** A path is seen by the probes while its amplitude is above this fraction of the accuracy target. */
@@ -32,8 +33,11 @@ export interface StepEstimate {
   limit_s: number;
 }
 
-/** Slowest amplitude time constant of a medium's poles: Debye τ; a second-order pole's slowest mode. */
-export function slowestRelaxation(m: StepModel): number {
+/** Slowest amplitude time constant of a line medium's poles, both sides. */
+export const slowestRelaxation = (m: LineMedium): number => Math.max(slowestOf(m.shunt), slowestOf(m.series));
+
+/** Slowest amplitude time constant of a model's poles: Debye τ; a second-order pole's slowest mode. */
+function slowestOf(m: StepModel): number {
   let t = 0;
   for (const p of m.debye) t = Math.max(t, p.tau_s);
   for (const o of m.osc) {
@@ -45,14 +49,15 @@ export function slowestRelaxation(m: StepModel): number {
   return t;
 }
 
-interface Index { n: number; k: number }
-const indexOf = (m: StepModel, f: number): Index => {
-  const e = stepModelPermittivity(m, f);
-  return { n: refractiveIndex(e), k: extinctionIndex(e) };
+/** Index n − jk of a line medium (√(εμ)) and its admittance (√(ε/μ)). */
+interface Index { n: number; k: number; y: Complex }
+const indexOf = (m: LineMedium, f: number): Index => {
+  const r = lineIndex(m, f);
+  return { n: r.re, k: -r.im, y: lineAdmittance(m, f) };
 };
-/** |r| looking from a medium of index a into normalized admittance y (complex). */
-function reflection(a: Index, yRe: number, yIm: number): number {
-  return Math.hypot(a.n - yRe, -a.k - yIm) / Math.hypot(a.n + yRe, -a.k + yIm);
+/** |r| looking from a medium of admittance a into normalized admittance y (complex). */
+function reflection(a: Complex, yRe: number, yIm: number): number {
+  return Math.hypot(a.re - yRe, a.im - yIm) / Math.hypot(a.re + yRe, a.im + yIm);
 }
 
 export interface StepInputs {
@@ -74,8 +79,8 @@ export function estimateSteps(s: StepInputs): StepEstimate {
   const segs = eff.segments;
   const visible = VISIBLE_FRACTION * s.accuracy;
   // Attenuation (Np/m) at the band frequency that loses least (bottom, middle or top).
-  const alpha = (m: StepModel): number => Math.min(...[f1, fMid, f2].map((f) => (2 * Math.PI * f * indexOf(m, f).k) / C0_m_per_s));
-  const passing = (m: StepModel, d: number): number => Math.exp(-alpha(m) * d);
+  const alpha = (m: LineMedium): number => Math.min(...[f1, fMid, f2].map((f) => (2 * Math.PI * f * indexOf(m, f).k) / C0_m_per_s));
+  const passing = (m: LineMedium, d: number): number => Math.exp(-alpha(m) * d);
   let amplitude = 1, seenTrip = 0, ring = 0, worstRho = 0, fullTrip = 0;
   for (let i = 0; i < segs.length; i++) {
     const g = segs[i], d = g.x1_m - g.x0_m, me = indexOf(g.model, fMid);
@@ -99,27 +104,40 @@ export function estimateSteps(s: StepInputs): StepEstimate {
   const minimum = s.pulse.end_s + 2 * transit;
   const media = [eff.front, ...segs.map((g) => g.model), ...(eff.back === 'pec' ? [] : [eff.back])];
   const slowest = Math.max(0, ...media.map(slowestRelaxation));
-  const relaxation = Number.isFinite(slowest) ? (slowest * s.decay_dB * Math.LN10) / 20 : 0;
+  // A pole slower than the pulse's lowest content is barely excited (the pulse has no DC): its relaxation is
+  // counted at most up to that content's period (the TM line of a faintly conducting layer has τ = ε0ε′/σ).
+  const relaxation = Number.isFinite(slowest) ? (Math.min(slowest, slowestExcited(s.pulse)) * s.decay_dB * Math.LN10) / 20 : 0;
   const expected = minimum + ring + relaxation;
   const limit = 3 * expected + (Number.isFinite(slowest) ? 0 : LOSSLESS_LIMIT_FACTOR * expected);
   return { expected_s: expected, minimum_s: minimum, slowestRelaxation_s: slowest, limit_s: limit };
+}
+
+/** Content of the pulse below this fraction of its peak excites nothing that matters. */
+const EXCITED_LEVEL = 1e-6;
+
+/** The slowest time constant the pulse excites: 1/(2π f) at the lowest f where its spectrum is above EXCITED_LEVEL. */
+export function slowestExcited(pulse: PulseShape): number {
+  const peak = pulseSpectrumRelative(pulse, pulse.f0_Hz);
+  let f = pulse.f0_Hz;
+  while (f > pulse.f0_Hz * 1e-3 && pulseSpectrumRelative(pulse, f / 1.05) > EXCITED_LEVEL * peak) f /= 1.05;
+  return 1 / (2 * Math.PI * f);
 }
 
 /** |r| seen from inside segment i at its face x (dir −1: front face, +1: back face), sheets at the face included. */
 function faceReflection(s: StepInputs, i: number, x: number, dir: -1 | 1, me: Index): number {
   const eff = s.effective, fMid = (s.band_Hz[0] + s.band_Hz[1]) / 2;
   const j = i + dir;
-  let y: { re: number; im: number };
-  if (j < 0) { const a = indexOf(eff.front, fMid); y = { re: a.n, im: -a.k }; }
+  let y: Complex;
+  if (j < 0) y = indexOf(eff.front, fMid).y;
   else if (j >= eff.segments.length) {
     if (eff.back === 'pec') return 1;
-    const a = indexOf(eff.back, fMid); y = { re: a.n, im: -a.k };
-  } else { const a = indexOf(eff.segments[j].model, fMid); y = { re: a.n, im: -a.k }; }
+    y = indexOf(eff.back, fMid).y;
+  } else y = indexOf(eff.segments[j].model, fMid).y;
   // A conductor film's sheet sits at the film's centre, microns behind the face, and still closes the layer.
   let g = 0;
   for (const sh of eff.sheets) {
     const beyond = dir * (sh.x_m - x);
     if (beyond >= -1e-12 && beyond <= SHEET_NEAR_FACE * s.lambdaMin_m) g += sh.conductance_S * ETA0_ohm;
   }
-  return reflection(me, y.re + g, y.im);
+  return reflection(me.y, y.re + g, y.im);
 }

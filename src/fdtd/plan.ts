@@ -14,8 +14,8 @@ import type { Stack } from '../stack/types.ts';
 import { PlanError } from './errors.ts';
 import { resolveStack } from './effective.ts';
 import { atIncidence } from './oblique.ts';
-import { decayingRoot, discreteWave } from './discrete.ts';
-import { type StepModel, refractiveIndex, stepModelPermittivity } from './media.ts';
+import { discreteWave } from './discrete.ts';
+import { type LineMedium, lineIndex } from './media.ts';
 import { chooseCells } from './plan-cells.ts';
 import { SHEET_ALIGN_TOL } from './grid-response.ts';
 import { estimateSteps } from './plan-steps.ts';
@@ -71,20 +71,25 @@ function checkedOptions(o: PulseOptions): CheckedOptions {
   };
 }
 
-const mediaOf = (e: EffectiveStack): StepModel[] =>
+const mediaOf = (e: EffectiveStack): LineMedium[] =>
   [e.front, ...e.segments.map((s) => s.model), ...(e.back === 'pec' ? [] : [e.back])];
 
-/** The largest stable Courant number for these media: √(min ε∞), at most 1 (kernel.ts, stability). */
-export function courantLimit(media: StepModel[]): number {
-  return Math.min(1, Math.sqrt(Math.min(...media.map((m) => m.epsInf))));
+/**
+ * The largest stable Courant number for these media: √(min ε∞ · min μ∞) over the stepped shunt and series
+ * models, at most 1 (kernel.ts, stability). Every E node's ε∞ and H node's μ∞ is a subcell average, so at least
+ * those minima, and the scaled curl-curl operator's rows then sum to at most 4/S² (Gershgorin's bound).
+ */
+export function courantLimit(media: LineMedium[]): number {
+  return Math.min(1, Math.sqrt(minInf(media, 'shunt') * minInf(media, 'series')));
 }
+const minInf = (media: LineMedium[], side: keyof LineMedium): number => Math.min(...media.map((m) => m[side].epsInf));
 
-function chooseCourant(media: StepModel[], asked?: number): number {
+function chooseCourant(media: LineMedium[], asked?: number): number {
   const limit = courantLimit(media);
   if (asked === undefined) return limit;
   if (asked > 1 + 1e-12 || asked > limit + 1e-12) {
-    const minEps = Math.min(...media.map((m) => m.epsInf));
-    const why = limit < 1 ? `the smallest high-frequency permittivity of these media is ε∞ = ${minEps.toPrecision(4)}, and stability needs S ≤ √ε∞` : 'the 1D leapfrog scheme needs S ≤ 1';
+    const minEps = minInf(media, 'shunt'), minMu = minInf(media, 'series');
+    const why = limit < 1 ? `the smallest high-frequency permittivity and permeability of the stepped media are ε∞ = ${minEps.toPrecision(4)} and μ∞ = ${minMu.toPrecision(4)}, and stability needs S ≤ √(ε∞μ∞)` : 'the 1D leapfrog scheme needs S ≤ 1';
     throw new PlanError(`courant: ${asked} is above the stability limit ${limit.toPrecision(4)} (${why}); use at most ${limit.toPrecision(4)}, or leave it unset`, 'bad-input', { courant: asked, max: limit });
   }
   return asked;
@@ -94,7 +99,7 @@ function chooseCourant(media: StepModel[], asked?: number): number {
 function budgetFrequencies(band: [number, number], eff: EffectiveStack): number[] {
   let trip = 0;
   for (const s of eff.segments) {
-    const r = decayingRoot(stepModelPermittivity(s.model, band[1]));
+    const r = lineIndex(s.model, band[1]);
     trip += (2 * (s.x1_m - s.x0_m) * Math.hypot(r.re, r.im)) / C0_m_per_s;
   }
   const n = Math.min(MAX_BUDGET_FREQUENCIES, Math.max(MIN_BUDGET_FREQUENCIES, Math.ceil(SAMPLES_PER_RESONANCE * (band[1] - band[0]) * trip) + 1));
@@ -108,7 +113,7 @@ function remedy(stack: Stack, courant: number): string {
   const base = 'narrow the band or lower its top frequency, ask for a coarser accuracy, or make the stack thinner';
   if (stack.incidence.angle_rad === 0 || courant >= 0.5) return base;
   const deg = (stack.incidence.angle_rad * 180) / Math.PI;
-  return `${base}; at ${deg.toFixed(1)}° the time step is ${courant.toPrecision(2)} of normal incidence's (each medium's ε∞ is lowered by ε_front sin²θ), so a smaller angle shortens the run`;
+  return `${base}; at ${deg.toFixed(1)}° the time step is ${courant.toPrecision(2)} of normal incidence's (each medium's ε∞μ∞ is lowered by ε_front μ_front sin²θ), so a smaller angle shortens the run`;
 }
 const times = (a: number, b: number): string => `${(a / b).toPrecision(2)}×`;
 
@@ -118,7 +123,7 @@ export function planGrid(stack: Stack, options: PulseOptions = {}): GridPlan {
   const o = checkedOptions(options);
   const resolved = resolveStack(stack);
   const warnings = [...resolved.warnings];
-  const effective = atIncidence(resolved.effective, stack.incidence);
+  const effective = atIncidence(resolved.effective, stack.incidence, band);
   const media = mediaOf(effective);
   const courant = chooseCourant(media, o.courant);
   const freqs = budgetFrequencies(band, effective);
@@ -195,7 +200,7 @@ const innerSheetWarning = (eff: EffectiveStack, mis: number): boolean =>
 
 /** [wall | CPML | SF cells (probe) | TF/SF plane | front gap | stack | back gap | CPML | wall]. */
 function layout(stack: Stack, eff: EffectiveStack, dx: number, stackCells: number, P: number, forView: boolean): GridNodes {
-  const lambdaAt = (m: StepModel, f: number): number => C0_m_per_s / (f * Math.max(refractiveIndex(stepModelPermittivity(m, f)), 1e-6));
+  const lambdaAt = (m: LineMedium, f: number): number => C0_m_per_s / (f * Math.max(lineIndex(m, f).re, 1e-6));
   // In front, for the field view: 1.5 wavelengths at the profile frequency, or the stack's thickness (the view
   // shows the reflected pulse beside the stack) up to FRONT_GAP_WAVELENGTHS of them. The answers need none of
   // it (the probe sits on the front face; in front of it the medium is uniform), so a run for them has
@@ -236,13 +241,13 @@ export function layoutNodes(c: LayoutCells): GridNodes {
 function layerFigures(eff: EffectiveStack, band: [number, number], dx: number, dt: number, courant: number): LayerGridFigures[] {
   const fTop = band[1];
   return eff.segments.map((s) => {
-    const r = decayingRoot(stepModelPermittivity(s.model, fTop));
+    const r = lineIndex(s.model, fTop);
     const nTop = Math.hypot(r.re, r.im);
     const d = s.x1_m - s.x0_m;
     let worst = 0;
     for (const f of [band[0], (band[0] + band[1]) / 2, fTop]) {
       const k = discreteWave(s.model, f, dx, dt, courant).k;
-      const root = decayingRoot(stepModelPermittivity(s.model, f)), k0 = (2 * Math.PI * f) / C0_m_per_s;
+      const root = lineIndex(s.model, f), k0 = (2 * Math.PI * f) / C0_m_per_s;
       worst = Math.max(worst, 2 * d * Math.hypot(k.re - k0 * root.re, k.im - k0 * root.im));
     }
     return { index: s.layer, name: s.name, n_top: nTop, cellsPerWavelength: C0_m_per_s / (fTop * nTop) / dx, cells: d / dx, phaseError_rad: worst };
@@ -250,9 +255,9 @@ function layerFigures(eff: EffectiveStack, band: [number, number], dx: number, d
 }
 
 function memoryBytes(eff: EffectiveStack, nodes: GridNodes, dx: number): number {
-  const arrays = (m: StepModel | 'pec'): number => (m === 'pec' ? 0 : m.debye.length * 2 + m.osc.length * 3);
+  const arrays = (m: LineMedium | 'pec'): number => (m === 'pec' ? 0 : 2 * (m.shunt.debye.length + m.series.debye.length) + 3 * (m.shunt.osc.length + m.series.osc.length));
   let poleCells = 0;
   for (const s of eff.segments) poleCells += arrays(s.model) * ((s.x1_m - s.x0_m) / dx + 2);
   poleCells += arrays(eff.front) * (nodes.front + nodes.auxTotal) + arrays(eff.back) * (nodes.total - nodes.back);
-  return 8 * (6 * nodes.total + 5 * nodes.auxTotal + 2 * (nodes.total - nodes.tfsf) + poleCells + 3 * nodes.total);
+  return 8 * (7 * nodes.total + 6 * nodes.auxTotal + 2 * (nodes.total - nodes.tfsf) + poleCells + 3 * nodes.total);
 }

@@ -4,7 +4,7 @@
 // depth invisible to R, and a face that reflects little makes a small error in ε' cheap; the power-law
 // fit uses these figures as weights, so its error lands where the probes cannot see it.
 
-import { scale, type Complex } from '../complex.ts';
+import { mul, scale, type Complex } from '../complex.ts';
 import type { Stack } from '../stack/types.ts';
 import { regionOf, stackAtFrequency, type Region, type StackAtFrequency } from '../tmm/media.ts';
 import { solveAt } from '../tmm/recursion.ts';
@@ -13,20 +13,24 @@ import type { ProbeWeight } from './fit-power-law.ts';
 /** Relative step of the finite difference (the response is smooth in ε; this keeps rounding far below it). */
 const STEP = 1e-6;
 
-/** |ΔR| + |ΔT| per unit relative change of ε' (re) and of ε'' (im) of the material named `material`. */
-export function probeWeights(stack: Stack, material: string): ProbeWeight {
+/**
+ * |ΔR| + |ΔT| per unit relative change of ε' (re) and of ε'' (im) of the material named `material`, or of its
+ * μ' and μ'' with quantity 'permeability'.
+ */
+export function probeWeights(stack: Stack, material: string, quantity: 'permittivity' | 'permeability' = 'permittivity'): ProbeWeight {
+  const onMu = quantity === 'permeability';
   const s2 = Math.sin(stack.incidence.angle_rad) ** 2;
   const pol = stack.incidence.polarization;
   const bulkNames: string[] = [];
   for (const l of stack.layers) if (l.kind === 'bulk') bulkNames.push(l.material.name);
   return (f_Hz: number) => {
     const base = stackAtFrequency(stack, f_Hz);
-    const kt2 = scale(base.front.eps, s2);
+    const kt2 = scale(mul(base.front.eps, base.front.mu), s2);
     const perturbed = (delta: (e: Complex) => Complex): StackAtFrequency => {
       const swap = (r: Region, isMaterial: boolean): Region => {
         if (!isMaterial) return r;
-        const d = delta(r.eps);
-        return regionOf({ re: r.eps.re + d.re, im: r.eps.im + d.im }, r.thickness_m, f_Hz, kt2, pol);
+        const x = onMu ? r.mu : r.eps, d = delta(x), moved = { re: x.re + d.re, im: x.im + d.im };
+        return onMu ? regionOf(r.eps, r.thickness_m, f_Hz, kt2, pol, moved) : regionOf(moved, r.thickness_m, f_Hz, kt2, pol, r.mu);
       };
       return {
         ...base,

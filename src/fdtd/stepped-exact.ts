@@ -11,16 +11,21 @@ import { type Spectrum, emptySpectrum } from '../results.ts';
 import { type Region, type StackAtFrequency, regionOf } from '../tmm/media.ts';
 import { solveAt } from '../tmm/recursion.ts';
 import { type GridSpacing, gridGeometry, gridResponse } from './grid-response.ts';
-import { type StepModel, stepModelPermittivity } from './media.ts';
+import { type LineMedium, linePermittivity } from './media.ts';
 import type { EffectiveStack } from './types.ts';
 
 const NORMAL = { re: 0, im: 0 };
-/** A stepped medium as a region of the exact solver (normal incidence: oblique TE is already folded into ε). */
-const region = (m: StepModel, thickness_m: number, f_Hz: number): Region =>
-  regionOf(stepModelPermittivity(m, f_Hz), thickness_m, f_Hz, NORMAL, 'TE');
+/**
+ * A stepped line medium as a region of the exact solver: normal incidence on the shunt ε and series μ (the
+ * angle and polarization are already folded into them, oblique.ts), so Y = √(ε/μ)/η0 and k = k0 √(εμ).
+ */
+const region = (m: LineMedium, thickness_m: number, f_Hz: number): Region => {
+  const { eps, mu } = linePermittivity(m, f_Hz);
+  return regionOf(eps, thickness_m, f_Hz, NORMAL, 'TE', mu);
+};
 
 /** Bulk pieces of the effective stack split at the sheets inside them, and each sheet's interface. */
-interface Pieces { pieces: { x0: number; x1: number; model: StepModel }[]; faces: Float64Array; sheetG: Float64Array }
+interface Pieces { pieces: { x0: number; x1: number; model: LineMedium }[]; faces: Float64Array; sheetG: Float64Array }
 
 function piecesOf(eff: EffectiveStack): Pieces {
   const cuts = new Set<number>();
@@ -42,7 +47,7 @@ function piecesOf(eff: EffectiveStack): Pieces {
   return { pieces, faces, sheetG };
 }
 
-type RegionMaker = (m: StepModel, thickness_m: number, f_Hz: number) => Region;
+type RegionMaker = (m: LineMedium, thickness_m: number, f_Hz: number) => Region;
 
 function solveWith(eff: EffectiveStack, p: Pieces, f: number, make: RegionMaker): { R: Complex; T: Complex } {
   const s: StackAtFrequency = {
@@ -57,7 +62,7 @@ function solveWith(eff: EffectiveStack, p: Pieces, f: number, make: RegionMaker)
   return { R: sol.R, T: sol.T };
 }
 
-/** Normal-incidence R and T of the effective stack at each frequency. */
+/** R and T of the effective stack at each frequency (its line media at normal incidence: what is stepped). */
 export function solveEffective(eff: EffectiveStack, f_Hz: Float64Array): Spectrum {
   const p = piecesOf(eff);
   const out = emptySpectrum(f_Hz);

@@ -1,13 +1,13 @@
 // The stack the pulse engine steps, written back as an ordinary Stack: every medium as the model it is
 // stepped with (a fitted power law as the Lorentz sum it was fitted with, conductors as a perfect conductor
-// or a sheet, a film's filler as its neighbour's medium). The exact solver and the FEM can then solve the
+// or a sheet, a film's filler as its neighbour's medium, a fixed permeability with loss as its fitted Lorentz sum). The exact solver and the FEM can then solve the
 // very media the engine steps (`--media stepped`), so the three methods agree at the engine's precision and
 // the pulse's waveform is that of a physical (causal) medium.
 
-import type { BulkModel } from '../materials/types.ts';
+import type { BulkModel, MagneticModel } from '../materials/types.ts';
 import type { BulkMaterial, Layer, Stack } from '../stack/types.ts';
 import { resolveStack } from './effective.ts';
-import type { StepModel } from './media.ts';
+import type { LineMedium, StepModel } from './media.ts';
 
 const GHz = (w_rad_per_s: number): number => w_rad_per_s / (2 * Math.PI * 1e9);
 
@@ -30,13 +30,32 @@ export function bulkModelOf(m: StepModel): BulkModel {
   throw new Error('bulkModelOf: a step model mixing Debye and second-order terms has no stack-file form');
 }
 
+/** A series (μ) step model as a stack file's magnetic block; none for μ = 1 (every series model resolveStack makes). */
+export function magneticModelOf(m: StepModel): MagneticModel | undefined {
+  if (m.sigma !== 0 || m.osc.some((o) => !(o.w0sq > 0) || (o.d ?? 0) !== 0) || (m.debye.length > 0 && m.osc.length > 0)) {
+    throw new Error('magneticModelOf: this series model has no stack-file form');
+  }
+  if (m.debye.length === 0 && m.osc.length === 0) return m.epsInf === 1 ? undefined : { model: 'fixed', mu_r: m.epsInf, mu_loss: 0 };
+  if (m.osc.length === 0) return { model: 'debye', mu_inf: m.epsInf, poles: m.debye.map((p) => ({ delta_mu: p.deps, tau_ps: p.tau_s * 1e12 })) };
+  return {
+    model: 'lorentz', mu_inf: m.epsInf,
+    poles: m.osc.map((o) => ({ delta_mu: o.c / o.w0sq, f0_GHz: GHz(Math.sqrt(o.w0sq)), gamma_GHz: GHz(o.gamma) })),
+  };
+}
+
+/** A line medium at normal incidence (its ε and μ) in a stack file's terms. */
+function specOf(m: LineMedium): BulkModel {
+  const spec = bulkModelOf(m.shunt), magnetic = magneticModelOf(m.series);
+  return magnetic === undefined ? spec : { ...spec, magnetic };
+}
+
 /** The stack with each medium replaced by what the pulse engine steps (same band, incidence and profile). */
 export function steppedStack(stack: Stack): Stack {
   const { effective: eff, fits } = resolveStack(stack);
   const fitted = new Set(fits.map((f) => f.material));
-  const material = (name: string, m: StepModel, like?: BulkMaterial): BulkMaterial => ({
+  const material = (name: string, m: LineMedium, like?: BulkMaterial): BulkMaterial => ({
     name,
-    spec: bulkModelOf(m),
+    spec: specOf(m),
     source: fitted.has(like?.name ?? name) ? `${like?.source ?? 'stack'}; stepped as a fitted causal model` : (like?.source ?? 'pulse engine substitute'),
     valid_GHz: like?.valid_GHz ?? null,
   });

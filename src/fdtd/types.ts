@@ -8,7 +8,7 @@
 
 import type { Profile } from '../results.ts';
 import type { PulseShape } from './pulse.ts';
-import type { StepModel } from './media.ts';
+import type { LineMedium } from './media.ts';
 import type { PowerLawFit } from './fit-power-law.ts';
 import type { EngineKind } from './engine.ts';
 
@@ -53,7 +53,7 @@ export interface LayerGridFigures {
   /** Index into stack.layers. */
   index: number;
   name: string;
-  /** |√ε_r| at the band top (the model the engine steps; sets the wavenumber the grid must resolve, evanescent media included). */
+  /** |√(εμ)| of the stepped line at the band top (sets the wavenumber the grid must resolve, evanescent media included). */
   n_top: number;
   /** Cells per wavelength inside the layer at the band top. */
   cellsPerWavelength: number;
@@ -87,7 +87,7 @@ export interface GridNodes {
 
 /** A bulk region of the effective stack, in metres from the front face. */
 export interface GridSegment {
-  x0_m: number; x1_m: number; model: StepModel;
+  x0_m: number; x1_m: number; model: LineMedium;
   /** Index into stack.layers, and the name the grid figures give it. */
   layer: number; name: string;
   /** `layers[i] name`, for messages. */
@@ -96,12 +96,16 @@ export interface GridSegment {
 /** A zero-thickness resistive sheet. */
 export interface GridSheet { x_m: number; conductance_S: number; label: string }
 
-/** The stack as the engine steps it (conductor layers turned into a wall or sheet, power laws fitted). */
+/**
+ * The stack as the engine steps it (conductor layers turned into a wall or sheet, power laws and lossy fixed
+ * permeabilities fitted), every medium a line medium: at normal incidence its ε and μ, at an angle the
+ * phase-matched line's shunt and series models (oblique.ts).
+ */
 export interface EffectiveStack {
-  front: StepModel;
+  front: LineMedium;
   segments: GridSegment[];
   sheets: GridSheet[];
-  back: StepModel | 'pec';
+  back: LineMedium | 'pec';
   /** Back face of the gridded stack (the conductor's face when a metal layer ends it). */
   thickness_m: number;
   /** Media the engine steps in place of what the stack names (fitted power laws, conductors as walls or sheets). */
@@ -164,7 +168,7 @@ export interface PulseRunRecords {
 }
 
 export interface EnergyReading {
-  /** Stored energy now (normalized units: Σ ε∞ E² + (η0 H)² over the main grid, plus the pole states' energy). */
+  /** Stored energy now (normalized units: Σ ε∞ E² + μ∞ (η0 H)² over the main grid, plus the pole states' energy). */
   current: number;
   peak: number;
   /** 10 log10(current / peak), −Infinity at zero. */

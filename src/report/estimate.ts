@@ -7,6 +7,7 @@
 import { PlanError } from '../fdtd/errors.ts';
 import { planGrid } from '../fdtd/plan.ts';
 import type { GridPlan, PulseOptions } from '../fdtd/types.ts';
+import type { LineMedium } from '../fdtd/media.ts';
 import { profileMeshElements } from '../fem/profile.ts';
 import { meshTooLarge, sizeMesh } from '../fem/mesh.ts';
 import type { FemOptions } from '../fem/types.ts';
@@ -117,9 +118,10 @@ function profileStage(stack: Stack, fem: FemOptions | null, rows: number): Stage
   };
 }
 
-/** Pole terms stepped per time step, summed over the grid's nodes (Debye 2 arrays, second-order 3). */
+/** Pole terms stepped per time step, summed over the grid's nodes and both sides (Debye 2 arrays, second-order 3). */
 export function poleTermUpdates(p: GridPlan): number {
-  const terms = (m: { debye: unknown[]; osc: unknown[] } | 'pec') => (m === 'pec' ? 0 : 2 * m.debye.length + 3 * m.osc.length);
+  const side = (m: { debye: unknown[]; osc: unknown[] }) => 2 * m.debye.length + 3 * m.osc.length;
+  const terms = (m: LineMedium | 'pec') => (m === 'pec' ? 0 : side(m.shunt) + side(m.series));
   let n = 0;
   for (const s of p.effective.segments) n += terms(s.model) * ((s.x1_m - s.x0_m) / p.dx_m + 2);
   n += terms(p.effective.front) * (p.nodes.front + p.nodes.auxTotal) + terms(p.effective.back) * (p.nodes.total - p.nodes.back);

@@ -2,7 +2,7 @@
 // file's own terms (the debye, lorentz and drude models of the README), so summary.json shows a reader
 // what was stepped in units they know, rather than the engine's internal coefficients.
 
-import type { DebyePole, LorentzPole } from '../materials/types.ts';
+import type { DebyePole, LorentzMagneticPole, LorentzPole } from '../materials/types.ts';
 import type { StepModel } from '../fdtd/media.ts';
 
 export interface FittedModel {
@@ -30,4 +30,16 @@ export function fittedModel(m: StepModel): FittedModel {
     else out.drude.push({ plasma_GHz: GHzOf(Math.sqrt(p.c)), collision_GHz: GHzOf(p.gamma) });
   }
   return out;
+}
+
+/** A fitted permeability (a fixed μ with loss) as the magnetic block's lorentz model: μ∞ + Σ Δμ ω0²/(ω0² − ω² + jωγ). */
+export interface FittedMagneticModel { model: 'lorentz'; mu_inf: number; poles: LorentzMagneticPole[] }
+
+/** The fitted series model in the magnetic block's terms (the fit has only Lorentz terms); zero strengths left out. */
+export function fittedMagneticModel(m: StepModel): FittedMagneticModel {
+  const poles: LorentzMagneticPole[] = [];
+  for (const p of m.osc) {
+    if (p.c > 0 && p.w0sq > 0) poles.push({ delta_mu: r6(p.c / p.w0sq), f0_GHz: GHzOf(Math.sqrt(p.w0sq)), gamma_GHz: GHzOf(p.gamma) });
+  }
+  return { model: 'lorentz', mu_inf: r6(m.epsInf), poles };
 }

@@ -17,7 +17,7 @@ import { roundedRow } from './format-agreement.ts';
 import { fdtdAgreementRows } from './fdtd-agreement.ts';
 import { QUANTITY_NAMES } from '../studies/quantities.ts';
 import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns } from './echo-table.ts';
-import { fittedModel } from './fitted-model.ts';
+import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
 import { estimateRun, WorkRefused } from './estimate.ts';
@@ -61,7 +61,7 @@ export interface RunReport extends Report {
   trace: Column[];
   /** True when shouldStop ended the run early: every table is complete but the run is cut short. */
   stopped: boolean;
-  /** Set when the pulse engine declined this stack (e.g. oblique incidence): solve's results only. */
+  /** Set when the pulse engine declined this stack (e.g. a lossy front medium at an angle): solve's results only. */
   skipped?: string;
   /** The echo rows' bounce paths as rays in x and t, for drawing (not written to any file); null when skipped. */
   rays: EchoRays | null;
@@ -74,7 +74,8 @@ const r6 = (x: number): number => Number(x.toPrecision(6));
 /**
  * Run the exact solution (and whatever else solveReport runs) and the FDTD pulse, and assemble the report.
  * Throws PlanError when the grid is refused as too large, FdtdInstabilityError when the run blows up.
- * A stack the engine does not model (PlanError 'unsupported', e.g. oblique incidence) gives solve's
+ * A stack the engine does not model (PlanError 'unsupported': a lossy front medium at an angle, a medium
+ * evanescent up to any frequency) gives solve's
  * report with empty pulse tables, `skipped` set and a warning.
  */
 export async function runReport(stack: Stack, options: RunOptions = {}): Promise<RunReport> {
@@ -167,7 +168,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const allAgreement = [...base.agreement, ...agreement];
   summary.agreement = allAgreement.map(roundedRow);
 
-  methods.push({ name: 'fdtd', description: stack.incidence.angle_rad === 0 ? 'leapfrog FDTD pulse run (normal incidence)' : `leapfrog FDTD pulse run (${stack.incidence.polarization} at ${r6(degFromRad(stack.incidence.angle_rad))}°, as normal incidence on ε_r − ε_front sin²θ)`, time_ms: Math.round(run_ms * 1e3) / 1e3 });
+  methods.push({ name: 'fdtd', description: fdtdDescription(stack), time_ms: Math.round(run_ms * 1e3) / 1e3 });
   summary.methods = methods;
   summary.grid = gridSummary(run.plan);
   const energy = run.energy();
@@ -184,7 +185,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
     trace_every_nth_step: stride,
   };
-  summary.power_law_fits = run.plan.fits.map((f) => ({
+  summary.power_law_fits = run.plan.fits.filter((f) => f.quantity === 'permittivity').map((f) => ({
     material: f.material,
     source_model: f.source,
     band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
@@ -194,6 +195,17 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     min_eps_re_half_to_twice_band: r3(f.minEpsRe_wide),
     fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
     model: fittedModel(f.model),
+  }));
+  // A fixed permeability with loss (not causal) or a μ table: stepped as a fitted Lorentz sum, written as a magnetic block.
+  summary.permeability_fits = run.plan.fits.filter((f) => f.quantity === 'permeability').map((f) => ({
+    material: f.material,
+    source_model: f.source,
+    band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
+    max_rel_error_mu_re: r3(f.maxRelErr_re),
+    max_rel_error_mu_im: r3(f.maxRelErr_im),
+    max_rel_error_mu: r3(f.maxRelErr_abs),
+    fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
+    magnetic: fittedMagneticModel(f.model),
   }));
   summary.pulse = {
     f0_GHz: r6(run.plan.pulse.f0_Hz / 1e9),
@@ -279,6 +291,14 @@ function spectrumFromColumns(cols: readonly Column[], tag: string, f_Hz: Float64
   const R_re = g(`R_${tag}_re`), R_im = g(`R_${tag}_im`), T_re = g(`T_${tag}_re`), T_im = g(`T_${tag}_im`);
   if (!R_re || !R_im || !T_re || !T_im) return null;
   return { f_Hz, R_re, R_im, T_re, T_im };
+}
+
+/** What the pulse engine stepped, in words (the phase-matched line at an angle, fdtd/oblique.ts). */
+function fdtdDescription(stack: Stack): string {
+  const { angle_rad, polarization } = stack.incidence;
+  if (angle_rad === 0) return 'leapfrog FDTD pulse run (normal incidence)';
+  const line = polarization === 'TE' ? 'series μ, shunt ε − s²/μ' : 'series μ − s²/ε, shunt ε';
+  return `leapfrog FDTD pulse run (${polarization} at ${r6(degFromRad(angle_rad))}°, as the phase-matched line: ${line}, s² = ε_front μ_front sin²θ)`;
 }
 
 /** Which rule ended the run, in words. */

@@ -1,6 +1,6 @@
 // One case of a study: the exact solution with its engineering quantities, and the cross-checks the study asks
 // for (the FEM at the same frequencies, a pulse run), reduced to their agreement rows. A method that declines the
-// case (the FEM refusing its mesh, the pulse engine declining TM at an angle or a magnetic medium) leaves the
+// case (the FEM refusing its mesh, the pulse engine declining a medium it cannot step at that angle) leaves the
 // other methods' results and says why.
 
 import { FdtdInstabilityError, PlanError } from '../fdtd/errors.ts';

@@ -36,6 +36,8 @@ describe('run on every preset', () => {
         expect(Object.keys(fit.model)).toEqual(['eps_inf', 'sigma_S_per_m', 'debye', 'lorentz', 'drude']);
         expect(fit.model.eps_inf).toBeGreaterThanOrEqual(1);
       }
+      // A fixed permeability with loss is stepped as a fitted Lorentz sum, written as a magnetic block.
+      for (const fit of summary.permeability_fits) expect(Object.keys(fit.magnetic)).toEqual(['model', 'mu_inf', 'poles']);
       const echoes = readFileSync(join(out, 'echoes.csv'), 'utf8').trimEnd().split('\n');
       expect(echoes.length).toBeGreaterThan(1);
       expect(echoes[1]).toMatch(/front face/);

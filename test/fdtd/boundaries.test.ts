@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { uniformGrid } from '../../src/fdtd/build.ts';
 import { updateE, updateH } from '../../src/fdtd/kernel.ts';
-import { type StepModel, refractiveIndex, stepModelFixed, stepModelPermittivity } from '../../src/fdtd/media.ts';
+import { type StepModel, lineMedium, refractiveIndex, stepModelFixed, stepModelPermittivity } from '../../src/fdtd/media.ts';
 import { pulseForBand, pulseValue } from '../../src/fdtd/pulse.ts';
 import { DEFAULT_PML_CELLS } from '../../src/fdtd/plan.ts';
 import { createPulseRun, runToEndSync } from '../../src/fdtd/run.ts';
@@ -24,8 +24,8 @@ function cpmlReflection_dB(model: StepModel, courant: number, cells = DEFAULT_PM
   const pulse = pulseForBand(band, dt);
   const steps = Math.ceil((3 * pulse.end_s) / dt) + 3000;
   const src = cells + 10, probe = src + 10, end = probe + 10;
-  const short = uniformGrid(end + cells + 1, model, { courant, dt_s: dt, band_Hz: band, pmlFront: cells, pmlBack: cells });
-  const long = uniformGrid(end + steps + 10, model, { courant, dt_s: dt, band_Hz: band, pmlFront: cells, pmlBack: 0 });
+  const short = uniformGrid(end + cells + 1, lineMedium(model), { courant, dt_s: dt, band_Hz: band, pmlFront: cells, pmlBack: cells });
+  const long = uniformGrid(end + steps + 10, lineMedium(model), { courant, dt_s: dt, band_Hz: band, pmlFront: cells, pmlBack: 0 });
   const diff = new Float64Array(steps), ref = new Float64Array(steps);
   for (let k = 0; k < steps; k++) {
     for (const g of [short, long]) { updateH(g); updateE(g); g.e[src] += pulseValue(pulse, (k + 1) * dt); }

@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { uniformGrid } from '../../src/fdtd/build.ts';
 import { discreteWave } from '../../src/fdtd/discrete.ts';
 import { updateE, updateH } from '../../src/fdtd/kernel.ts';
-import { stepModelFixed } from '../../src/fdtd/media.ts';
+import { lineMedium, stepModelFixed } from '../../src/fdtd/media.ts';
 import { pulseForBand, pulseValue } from '../../src/fdtd/pulse.ts';
 import { C0_m_per_s } from '../../src/units.ts';
 import { dft } from './measure.ts';
@@ -22,7 +22,7 @@ function probePair(eps: number, courant: number, cellsPerWavelengthAtTop: number
   const p1 = 10, p2 = p1 + D;
   const steps = Math.ceil((2.2 * pulse.end_s) / dt + (D * n) / courant + 50);
   // Long enough that nothing comes back from the far wall within the record.
-  const g = uniformGrid(p2 + steps + 2, stepModelFixed(eps), { courant, dt_s: dt, band_Hz: band, pmlFront: 0, pmlBack: 0 });
+  const g = uniformGrid(p2 + steps + 2, lineMedium(stepModelFixed(eps)), { courant, dt_s: dt, band_Hz: band, pmlFront: 0, pmlBack: 0 });
   const a = new Float64Array(steps), b = new Float64Array(steps);
   for (let k = 0; k < steps; k++) {
     updateH(g); updateE(g);
@@ -53,7 +53,7 @@ describe('FDTD numerical dispersion (Taflove & Hagness 1D Yee relation)', () => 
         const twoPi = 2 * Math.PI;
         lag += twoPi * Math.round((kExact * D * dx - lag) / twoPi);
         const kMeasured = lag / (D * dx);
-        const kTheory = discreteWave(stepModelFixed(eps), f, dx, dt, S).k.re; // the planner's k̃
+        const kTheory = discreteWave(lineMedium(stepModelFixed(eps)), f, dx, dt, S).k.re; // the planner's k̃
         // The scheme's own k̃, not the exact k (they differ by far more than the tolerance at 8–10 cells/λ).
         expect(Math.abs(kMeasured - kTheory) / kTheory).toBeLessThan(2e-6);
         if (!(eps === 1 && S === 1)) expect(Math.abs(kTheory - kExact) / kExact).toBeGreaterThan(1e-4);

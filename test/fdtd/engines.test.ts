@@ -28,11 +28,18 @@ const water = material('water-like', { model: 'debye', eps_inf: 4.9, sigma_S_per
 const resonant = material('resonant', { model: 'lorentz', eps_inf: 2.2, sigma_S_per_m: 0, poles: [{ delta_eps: 1.5, f0_GHz: 7, gamma_GHz: 0.8 }, { delta_eps: 0.4, f0_GHz: 30, gamma_GHz: 5 }] });
 const plasma = material('plasma', { model: 'drude', eps_inf: 1, plasma_GHz: 4, collision_GHz: 2, sigma_S_per_m: 0 });
 
+const ferrite = material('ferrite-like', { model: 'fixed', eps_r: 6, sigma_S_per_m: 0.02, magnetic: { model: 'lorentz', mu_inf: 1.5, poles: [{ delta_mu: 3, f0_GHz: 4, gamma_GHz: 2 }] } });
+const lossyMu = material('lossy-mu', { model: 'debye', eps_inf: 3, sigma_S_per_m: 0, poles: [{ delta_eps: 2, tau_ps: 30 }], magnetic: { model: 'debye', mu_inf: 1.2, poles: [{ delta_mu: 1.5, tau_ps: 40 }] } });
+const tm = (st: Stack, deg: number): Stack => ({ ...st, incidence: { angle_rad: (deg * Math.PI) / 180, polarization: 'TM' } });
+
 const corners: Array<[string, Stack]> = [
   ['dispersive front and back media', stackOf([bulk(fixed(3), 7.3)], { front: water, back: resonant, band_GHz: [2, 8] })],
   ['groups sharing nodes, a layer thinner than a cell, a sheet', stackOf([bulk(water, 3.31), bulk(resonant, 0.07), sheet(377), bulk(plasma, 4.9), bulk(fixed(4, 0.02), 2.2)], { band_GHz: [1, 12] })],
   ['dispersive wall on a conductor', stackOf([bulk(resonant, 11.1), bulk(water, 2.05)], { back: 'pec', band_GHz: [3, 9] })],
   ['oblique TE through a Drude layer', { ...stackOf([bulk(plasma, 6), bulk(fixed(2.5), 3.3)], { band_GHz: [2, 10] }), incidence: { angle_rad: 0.6, polarization: 'TE' } }],
+  ['magnetic poles on the H nodes, a magnetic front and back medium', stackOf([bulk(ferrite, 4.1), bulk(fixed(3), 2.2)], { front: lossyMu, back: ferrite, band_GHz: [1, 8] })],
+  ['TM at 50° through lossy and dispersive layers (the reciprocal\'s terms, with s-numerators)', tm(stackOf([bulk(fixed(4, 0.05), 5.3), bulk(water, 1.9), bulk(resonant, 3.1)], { band_GHz: [2, 9] }), 50)],
+  ['TM at 30° with a magnetic layer on a conductor', tm(stackOf([bulk(lossyMu, 6.7)], { back: 'pec', band_GHz: [1, 6] }), 30)],
 ];
 
 /** Largest |a − b| over equal-length arrays (0 when they are bit-for-bit equal but for the sign of zero). */
@@ -68,6 +75,19 @@ describe('WebAssembly engine against the TypeScript kernel', () => {
 
   it.each(corners)('%s: bit-for-bit the same run', (_name, stack) => {
     compare(runToEndSync(createPulseRun(stack, { engine: 'js' })), runToEndSync(createPulseRun(stack, { engine: 'wasm-simd' })));
+  });
+
+  it('the corner stacks reach what they are named for: poles on the H nodes, terms with s-numerators, fused pairs', async () => {
+    const { buildGrids } = await import('../../src/fdtd/build.ts');
+    const { planGrid } = await import('../../src/fdtd/plan.ts');
+    const grids = (st: Stack) => buildGrids(planGrid(st), st.band_Hz);
+    const magnetic = grids(corners[4][1]);
+    expect(magnetic.main.mdisp?.groups.length).toBeGreaterThan(0);
+    expect(magnetic.aux.mdisp).not.toBeNull();
+    const oblique = grids(corners[5][1]);
+    const all = [...(oblique.main.disp?.groups ?? []), ...(oblique.main.mdisp?.groups ?? [])];
+    expect(all.some((g) => !g.plain)).toBe(true);
+    expect(grids(corners[1][1]).main.disp!.groups.length).toBe(3);
   });
 
   it('the same when stepped in uneven pieces (batches cut anywhere)', () => {
@@ -133,32 +153,5 @@ describe('production step details', () => {
       diff = Math.max(diff, Math.hypot(a.E_re[i] - b.E_re[i], a.E_im[i] - b.E_im[i]));
     }
     expect(diff / peak).toBeLessThan(1e-7);
-  });
-});
-
-describe('what the WebAssembly step does not carry', () => {
-  beforeAll(async () => { await useWasmStep(); });
-
-  it('grids with H-side terms or second-order s-numerators step with the TypeScript kernel, and say so', async () => {
-    const { chooseEngine } = await import('../../src/fdtd/engine-choice.ts');
-    const { buildGrids } = await import('../../src/fdtd/build.ts');
-    const { planGrid } = await import('../../src/fdtd/plan.ts');
-    const stack = corners[0][1], plan = planGrid(stack);
-    const setup = {
-      tfsf: plan.nodes.tfsf, auxOffset: plan.nodes.auxOffset, front: plan.nodes.front, back: plan.nodes.back, sfProbe: plan.nodes.sfProbe,
-      source: new Float64Array(4), dftLo: plan.nodes.tfsf, dftLength: 4, stride: 1, dt_s: plan.dt_s, spectraFrequencies: 24,
-    };
-    expect(chooseEngine({ grids: buildGrids(plan, stack.band_Hz), setup }).engine.kind).toBe('wasm-simd');
-    const magnetic = buildGrids(plan, stack.band_Hz);
-    Object.assign(magnetic.main, { mdisp: { ...magnetic.main.disp! } });
-    const a = chooseEngine({ grids: magnetic, setup });
-    expect(a.engine.kind).toBe('js');
-    expect(a.fallback).toMatch(/magnetic \(H-side\)/);
-    const numerator = buildGrids(plan, stack.band_Hz);
-    const g = numerator.main.disp!.groups.find((x) => x.no > 0)!;
-    Object.assign(g, { o1: g.oz.map((z) => 2 * z), o2: g.oz.map((z) => 1.5 * z) });
-    const b = chooseEngine({ grids: numerator, setup });
-    expect(b.engine.kind).toBe('js');
-    expect(b.fallback).toMatch(/s-numerator/);
   });
 });

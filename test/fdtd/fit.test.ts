@@ -112,7 +112,7 @@ describe('power-law fit (linear program over passive second-order terms and σ)'
 
   it('warns on ε′ and on ε′′ separately', () => {
     const fit = (re: number, im: number): PowerLawFit => ({
-      material: 'glass', source: 'power-law', band_Hz: [1e9, 4e10], model: { epsInf: 6, sigma: 0, debye: [], osc: [] },
+      material: 'glass', source: 'power-law', quantity: 'permittivity', band_Hz: [1e9, 4e10], model: { epsInf: 6, sigma: 0, debye: [], osc: [] },
       maxRelErr_re: re, maxRelErr_im: im, maxRelErr_abs: Math.max(re, im), minEpsRe_wide: 6, fitRange_Hz: [5e8, 1.2e11],
     });
     expect(fitWarnings([fit(0.002, 0.005)])).toEqual([]);

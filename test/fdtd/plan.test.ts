@@ -4,6 +4,7 @@
 // refusals in plain words. Attenuation of ITU-R P.2040-3 concrete (Table 3 row) from its ε'' (α = k0 Im√ε).
 import { describe, expect, it } from 'vitest';
 import { PlanError } from '../../src/fdtd/errors.ts';
+import { lineMedium } from '../../src/fdtd/media.ts';
 import { courantLimit, GRID_SHARE, planGrid } from '../../src/fdtd/plan.ts';
 import type { Stack } from '../../src/stack/types.ts';
 import { bulk, fixed, material, stackOf } from './stacks.ts';
@@ -63,7 +64,7 @@ describe('time step and step limit', () => {
     const e = refusal(stack, { courant: 0.6 });
     plain(e.message);
     expect(e.message).toMatch(/use at most 0\.5000/);
-    for (const eps of [1e-6, 0.01, 0.3, 1, 7]) expect(courantLimit([{ epsInf: eps, sigma: 0, debye: [], osc: [] }])).toBeGreaterThan(0);
+    for (const eps of [1e-6, 0.01, 0.3, 1, 7]) expect(courantLimit([lineMedium({ epsInf: eps, sigma: 0, debye: [], osc: [] })])).toBeGreaterThan(0);
   });
 
   it('grows with the slowest relaxation of the stepped media', () => {

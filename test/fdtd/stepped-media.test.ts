@@ -35,7 +35,7 @@ describe('the stepped stack', () => {
     ];
     for (const stack of stacks) {
       const f = linspace(stack.band_Hz[0], stack.band_Hz[1], 31);
-      const eff = atIncidence(resolveStack(stack).effective, stack.incidence);
+      const eff = atIncidence(resolveStack(stack).effective, stack.incidence, stack.band_Hz);
       const a = compareSpectra(solveTmm(steppedStack(stack), f), solveEffective(eff, f));
       expect(a.R_max).toBeLessThan(1e-12);
       expect(a.T_max).toBeLessThan(1e-12);

@@ -1,6 +1,6 @@
 // A stack with a magnetic material through the report pipelines: μ_r at the band centre in the summary,
-// the FEM row within its target, the tangential H in TM, and the pulse engine declining it for now with a
-// plain message (the exact and FEM results still written).
+// the FEM row within its target, the tangential H in TM, and the pulse engine stepping it (the exact and FEM
+// results still written beside it).
 
 import { describe, expect, it } from 'vitest';
 import { materialRow, parameterText } from '../../src/cli/commands/materials.ts';
@@ -52,13 +52,34 @@ describe('magnetic materials in the reports', () => {
     expect(Math.abs(findColumn(rep.profile, 'H_tmm_re')!.data[last]) + Math.abs(findColumn(rep.profile, 'H_tmm_im')!.data[last])).toBeGreaterThan(0.1);
   });
 
-  it('the pulse engine declines a magnetic stack with a plain message; solve\'s results are kept', async () => {
+  it('the pulse engine steps a magnetic stack, its agreement row within the target; solve\'s results are kept', async () => {
     const r = await runReport(absorber('TE'));
-    expect(r.skipped).toMatch(/"loaded-rubber" is magnetic \(μ_r ≠ 1\).*does not step/);
-    expect(r.warnings.some((w) => w.startsWith('FDTD skipped: '))).toBe(true);
-    expect(r.trace.every((c) => c.data.length === 0)).toBe(true);
+    expect(r.skipped).toBeUndefined();
+    expect(r.trace.every((c) => c.data.length > 100)).toBe(true);
+    const row = r.agreement.find((a) => a.pair === 'fdtd-tmm')!;
+    expect(Math.max(row.R_max, row.T_max)).toBeLessThan(0.01);
     expect(findColumn(r.spectrum, 'R_fem_re')).toBeDefined();
     expect(findColumn(r.profile, 'E_tmm_re')).toBeDefined();
+  });
+
+  it('a fixed μ with loss: stepped as a fitted causal model, in summary.permeability_fits as a magnetic block, its share in its own row', async () => {
+    const r = parseStackObject({
+      title: 'Test ferrite tile', band_GHz: [2, 6], points: 9, back: 'pec',
+      materials: { tile: { model: 'fixed', eps_r: 8, magnetic: { model: 'fixed', mu_r: 2, mu_loss: 0.6 } } },
+      layers: [{ material: 'tile', thickness_mm: 3 }],
+    });
+    if (!r.ok) throw new Error(r.errors.join('\n'));
+    const rep = await runReport(r.stack);
+    const fits = rep.summary.permeability_fits as { material: string; magnetic: { model: string; mu_inf: number; poles: unknown[] } }[];
+    expect(fits).toHaveLength(1);
+    expect(fits[0].material).toBe('tile');
+    expect(fits[0].magnetic.model).toBe('lorentz');
+    expect(fits[0].magnetic.poles.length).toBeGreaterThan(0);
+    expect(rep.summary.power_law_fits).toEqual([]);
+    const pairs = rep.agreement.map((a) => a.pair);
+    expect(pairs).toEqual(expect.arrayContaining(['fdtd-tmm as stepped', 'stepped media-tmm']));
+    const own = rep.agreement.find((a) => a.pair === 'fdtd-tmm as stepped')!;
+    expect(Math.max(own.R_max, own.T_max)).toBeLessThan(0.01);
   });
 
   it('the materials listing shows the permeability parameters and, at a frequency, μ\' and μ\'\'', () => {

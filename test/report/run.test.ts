@@ -97,10 +97,23 @@ describe('runReport', () => {
     expectNoNaN(r);
   });
 
-  it('oblique TM incidence: the pulse engine is skipped with a warning, solve results kept', async () => {
+  it('oblique TM incidence runs like TE: FDTD columns, traces, echoes and its agreement row within the target', async () => {
     const stack = makeStack({ band_GHz: [1, 6], points: 11, angle_deg: 30, polarization: 'TM', layers: [layer(dielectric(4), 0.05)] });
     const r = await runReport(stack);
-    expect(r.skipped).toMatch(/TE only/);
+    expect(r.skipped).toBeUndefined();
+    expect(findColumn(r.spectrum, 'R_fdtd_re')).toBeDefined();
+    expect(r.trace[0].data.length).toBeGreaterThan(100);
+    expect(r.echoes.path[0]).toMatch(/front face/);
+    const row = r.agreement.find((a) => a.pair === 'fdtd-tmm')!;
+    expect(Math.max(row.R_max, row.T_max)).toBeLessThan(0.01);
+    expectNoNaN(r);
+  });
+
+  it('a medium evanescent up to any frequency is skipped with a warning, solve results kept', async () => {
+    // From ε = 4 into air beyond the critical angle asin(1/2) = 30° (Snell's law, Born & Wolf §1.5).
+    const stack = makeStack({ band_GHz: [1, 6], points: 11, angle_deg: 40, polarization: 'TM', front: dielectric(4), back: dielectric(4), layers: [layer(dielectric(1), 0.01)] });
+    const r = await runReport(stack);
+    expect(r.skipped).toMatch(/no stable stepping; use an angle below 30\.0°/);
     expect(r.warnings.join('\n')).toMatch(/FDTD skipped/);
     expect(findColumn(r.spectrum, 'R_tmm_re')).toBeDefined();
     expect(findColumn(r.spectrum, 'R_fdtd_re')).toBeUndefined();

@@ -30,7 +30,7 @@ For FDTD the table separates the engine's own error (against the exact solution 
 from the total against the stack as written, whose floor is the model share of fitted or substituted media.
 
 Options:
-  --method M      fem (default) or fdtd (normal incidence or TE at an angle)
+  --method M      fem (default) or fdtd (at any angle, TE or TM)
   --fem-order P   study one FEM order (1, 2 or 3) instead of all three
   --media M       tables (default) or stepped: the FEM study solves the media as the pulse engine steps
                   them (power laws as their fitted causal models); the FDTD study always shows both

@@ -70,11 +70,13 @@ same frequencies. Writes into DIR (created if needed), all files at once:
                  pulse, path in plain words ("unexplained" with its nearest path), resolved yes or no
   echoes_T.csv   the same for the transmitted record, t_ns after the incident pulse passes x = 0
   trace.csv      t_ns,E_incident,E_reflected,E_transmitted: the time records at x = 0 and the back face
-  summary.json   as for solve, plus grid, run, pulse, echoes, transmitted, power-law fits, agreement and timings
-The engine is one-dimensional. At an angle in TE it steps the equivalent normal-incidence problem (each
-medium's ε_r lowered by ε_front sin²θ; needs a lossless, non-dispersive front medium such as air). TM at an
-angle, and a magnetic material (μ_r ≠ 1), are not stepped yet: a warning, solve's results, and the echo
-files and trace.csv with only their headers.
+  summary.json   as for solve, plus grid, run, pulse, echoes, transmitted, power-law and permeability fits,
+                 agreement and timings
+The engine is one-dimensional. At an angle, TE or TM, it steps the phase-matched line of each medium
+(TE: series μ, shunt ε − s²/μ; TM: series μ − s²/ε, shunt ε; s² = ε_front μ_front sin²θ), which needs a
+lossless, non-dispersive front medium such as air. A medium evanescent up to any frequency at that angle
+(ε∞μ∞ below s²) has no stable stepping: a warning, solve's results, and the echo files and trace.csv with
+only their headers.
 
 Options:
   --out DIR                   output directory (required)

@@ -1,11 +1,11 @@
-// The stored energy of the main grid as engine-js.ts sums it (fieldEnergy, poleEnergy): Σ ε∞E² + Σ h², then the
-// pole states' energy (P̃²/Δε per Debye pole, (P̃'² + ω0²P̃²)/c per second-order pole), each in the two lanes of
+// The stored energy of the main grid as engine-js.ts sums it (fieldEnergy, poleEnergy): Σ ε∞E² + Σ μ∞h², then the
+// pole states' energy on both fields (P̃²/Δε per Debye pole, (P̃'² + ω0²P̃²)/c per second-order pole), each in the two lanes of
 // one vector (even and odd places) added at the end, so the sums round as the TypeScript ones do.
 
 import { at, get, word } from './mem.ts';
 import { groupAt } from './poles.ts';
 import {
-  D_GROUP_COUNT, G_DISP, G_E, G_H, G_N,
+  D_GROUP_COUNT, G_DISP, G_E, G_H, G_HDISP, G_N,
   Q_D_COEF, Q_D_EPS, Q_D_STATE, Q_FILL, Q_LEN, Q_LO, Q_ND, Q_NO, Q_O_C, Q_O_COEF, Q_O_STATE, Q_O_W0SQ,
 } from '../wasm/slots.ts';
 
@@ -19,7 +19,7 @@ import {
   return f64x2.extract_lane(acc, 0) + f64x2.extract_lane(acc, 1);
 }
 
-export function storedEnergy(g: usize, epsInf: usize, dt: f64): f64 {
+export function storedEnergy(g: usize, epsInf: usize, muInf: usize, dt: f64): f64 {
   const n = <i32>word(g, G_N), e = word(g, G_E), h = word(g, G_H);
   let acc = f64x2.splat(0), i = 0;
   for (; i + 2 <= n; i += 2) {
@@ -27,10 +27,13 @@ export function storedEnergy(g: usize, epsInf: usize, dt: f64): f64 {
     acc = f64x2.add(acc, f64x2.mul(f64x2.mul(v128.load(at(epsInf, i)), v), v));
   }
   if (i < n) { const v = get(e, i); acc = addLane0(acc, get(epsInf, i) * v * v); }
-  for (i = 0; i + 2 <= n - 1; i += 2) { const v = v128.load(at(h, i)); acc = f64x2.add(acc, f64x2.mul(v, v)); }
-  if (i < n - 1) { const v = get(h, i); acc = addLane0(acc, v * v); }
-  const d = word(g, G_DISP);
-  return lanesSum(acc) + (d == 0 ? 0 : poleEnergy(d, e, dt));
+  for (i = 0; i + 2 <= n - 1; i += 2) {
+    const v = v128.load(at(h, i));
+    acc = f64x2.add(acc, f64x2.mul(f64x2.mul(v128.load(at(muInf, i)), v), v));
+  }
+  if (i < n - 1) { const v = get(h, i); acc = addLane0(acc, get(muInf, i) * v * v); }
+  const d = word(g, G_DISP), hd = word(g, G_HDISP);
+  return lanesSum(acc) + (d == 0 ? 0 : poleEnergy(d, e, dt)) + (hd == 0 ? 0 : poleEnergy(hd, h, dt));
 }
 
 function poleEnergy(d: usize, e: usize, dt: f64): f64 {

@@ -3,11 +3,11 @@
 // has nothing else to do, poles.ts).
 
 import { at, get, put, real, word } from './mem.ts';
-import { eBulk, eBulkSaving, hPerNode, hUniform } from './yee.ts';
+import { eBulk, eBulkSaving, hDamped, hPerNode, hUniform } from './yee.ts';
 import { pmlE, pmlH } from './pml.ts';
 import { fusedPairs, groupAt, polesPost, polesPre } from './poles.ts';
 import {
-  D_E_OLD, D_GROUP_COUNT, D_HI, D_LO, G_CA, G_CB, G_DB, G_DISP, G_E, G_H, G_N, G_PML, G_PML_COUNT, G_S, PML_WORDS,
+  D_E_OLD, D_GROUP_COUNT, D_HI, D_LO, G_CA, G_CB, G_DA, G_DB, G_DISP, G_E, G_H, G_HDISP, G_N, G_PML, G_PML_COUNT, G_S, PML_WORDS,
   Q_FUSED_HI, Q_FUSED_LO, Q_LO,
 } from '../wasm/slots.ts';
 
@@ -16,14 +16,25 @@ import {
   return word(g, G_PML) + (<usize>(r * PML_WORDS) << 2);
 }
 
-/** hⁿ⁺¹ᐟ² from hⁿ⁻¹ᐟ² and eⁿ; node `inj` (≥ 0) also gets db·injValue. */
+/**
+ * hⁿ⁺¹ᐟ² from hⁿ⁻¹ᐟ² and eⁿ; node `inj` (≥ 0) also gets db·injValue. With series terms (G_HDISP) the H nodes'
+ * poles are advanced first (their Hⁿ⁻¹ᐟ² saved), h = da·h + db·curl, and their terms added last, as on the E side.
+ */
 export function gridH(g: usize, inj: i32, injValue: f64): void {
   const n = <i32>word(g, G_N), e = word(g, G_E), h = word(g, G_H), db = word(g, G_DB), S = real(g, G_S);
-  if (db == 0) hUniform(e, h, 0, n - 1, S);
+  const hd = word(g, G_HDISP), da = word(g, G_DA);
+  if (hd != 0) {
+    polesPre(hd, h);
+    const lo = <i32>word(hd, D_LO), hi = <i32>word(hd, D_HI);
+    memory.copy(word(hd, D_E_OLD), at(h, lo), <usize>(hi - lo) << 3);
+  }
+  if (da != 0) hDamped(e, h, da, db, 0, n - 1);
+  else if (db == 0) hUniform(e, h, 0, n - 1, S);
   else hPerNode(e, h, db, 0, n - 1);
   const regions = <i32>word(g, G_PML_COUNT);
   for (let r = 0; r < regions; r++) pmlH(pmlAt(g, r), e, h, db, S);
   if (inj >= 0) put(h, inj, get(h, inj) + (db == 0 ? S : get(db, inj)) * injValue);
+  if (hd != 0) polesPost(hd, h, <i32>word(hd, D_LO), <i32>word(hd, D_HI));
 }
 
 /** eⁿ⁺¹ from eⁿ and hⁿ⁺¹ᐟ²; node `inj` (≥ 0) also gets cb·injValue. */

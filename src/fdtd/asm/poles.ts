@@ -1,5 +1,7 @@
-// The pole passes of one dispersive span (trapezoidal ADEs, kernel.ts), two nodes per vector: nodes 2p and
-// 2p + 1 of a group share one f64x2 per pole, so every lane does exactly the scalar kernel's arithmetic.
+// The pole passes of one dispersive span (trapezoidal ADEs, kernel.ts), on the E nodes or the H nodes alike (F is
+// the field), two nodes per vector: nodes 2p and 2p + 1 of a group share one f64x2 per pole, so every lane does
+// exactly the scalar kernel's arithmetic. A plain group's second-order terms take ζ0·f(2Fⁿ + Fⁿ⁻¹), the others
+// ζ1·fFⁿ + ζ2·fFⁿ⁻¹ (slots.ts Q_O_FULL).
 // Nodes of a group's fused pairs (slots.ts) are advanced, E-updated and given their polarization terms in one
 // pass (fusedPairs). Every other node's poles are advanced before the E update with their terms added to acc
 // (groupPre), and e += cp·acc after it (polesPost, which also clears acc).
@@ -7,7 +9,7 @@
 import { at, get, put, word } from './mem.ts';
 import {
   D_ACC, D_CP, D_E_OLD, D_GROUP_COUNT, D_GROUPS, D_LO, GROUP_WORDS,
-  Q_D_COEF, Q_D_STATE, Q_FILL, Q_FUSED_HI, Q_FUSED_LO, Q_LEN, Q_LO, Q_ND, Q_O_COEF, Q_O_STATE, Q_NO,
+  Q_D_COEF, Q_D_STATE, Q_FILL, Q_FUSED_HI, Q_FUSED_LO, Q_LEN, Q_LO, Q_ND, Q_O_COEF, Q_O_FULL, Q_O_STATE, Q_NO,
 } from '../wasm/slots.ts';
 
 // @ts-ignore: decorator
@@ -15,9 +17,12 @@ import {
   return word(d, D_GROUPS) + (<usize>(g * GROUP_WORDS) << 2);
 }
 
-/** Poles of pair p advanced; returns the pair's polarization terms. fE = f·Eⁿ, fE2 = f·(2Eⁿ + Eⁿ⁻¹). */
+/**
+ * Poles of pair p advanced; returns the pair's polarization terms. fE = f·Fⁿ; `second` = f·(2Fⁿ + Fⁿ⁻¹) for a
+ * plain group, f·Fⁿ⁻¹ for one with s-numerators.
+ */
 // @ts-ignore: decorator
-@inline function pairPoles(G: usize, p: i32, fE: v128, fE2: v128): v128 {
+@inline function pairPoles(G: usize, p: i32, fE: v128, second: v128): v128 {
   const nd = <i32>word(G, Q_ND), dc = word(G, Q_D_COEF), no = <i32>word(G, Q_NO), oc = word(G, Q_O_COEF);
   let sum = f64x2.splat(0);
   let sp = word(G, Q_D_STATE) + (<usize>(p * nd) << 4);
@@ -28,19 +33,26 @@ import {
     sum = f64x2.add(sum, f64x2.mul(v128.load64_splat(c + 8), P));
     v128.store(sp, f64x2.add(f64x2.mul(v128.load64_splat(c), P), bE));
   }
-  let so = word(G, Q_O_STATE) + (<usize>(p * no) << 5), c = oc;
+  let so = word(G, Q_O_STATE) + (<usize>(p * no) << 5), c = oc, full = word(G, Q_O_FULL);
   const end = c + (<usize>(3 * no) << 3);
-  for (; c < end; c += 24, so += 32) {
+  for (; c < end; c += 24, so += 32, full += full != 0 ? 16 : 0) {
     const z = v128.load64_splat(c + 16);
     const P = f64x2.add(v128.load(so), f64x2.mul(z, fE));
-    const partial = f64x2.add(
-      f64x2.add(f64x2.mul(v128.load64_splat(c), P), f64x2.mul(v128.load64_splat(c + 8), v128.load(so + 16))),
-      f64x2.mul(z, fE2));
+    const past = f64x2.add(f64x2.mul(v128.load64_splat(c), P), f64x2.mul(v128.load64_splat(c + 8), v128.load(so + 16)));
+    const drive = full == 0 ? f64x2.mul(z, second)
+      : f64x2.add(f64x2.mul(v128.load64_splat(full), fE), f64x2.mul(v128.load64_splat(full + 8), second));
+    const partial = f64x2.add(past, drive);
     sum = f64x2.sub(sum, f64x2.sub(partial, P));
     v128.store(so, partial);
     v128.store(so + 16, P);
   }
   return sum;
+}
+
+/** The `second` argument of pairPoles for fills f, Fⁿ and Fⁿ⁻¹ (see there). */
+// @ts-ignore: decorator
+@inline function secondOf(G: usize, f: v128, E: v128, Eold: v128): v128 {
+  return word(G, Q_O_FULL) == 0 ? f64x2.mul(f, f64x2.add(f64x2.mul(f64x2.splat(2), E), Eold)) : f64x2.mul(f, Eold);
 }
 
 /** The second pair's terms from quadPoles. */
@@ -85,12 +97,11 @@ let quadSecond: v128 = f64x2.splat(0);
 
 /** Pairs [from, to) of group G: poles advanced, their terms added to acc. */
 function pairsPre(G: usize, e: usize, off: i32, eOld: usize, acc: usize, from: i32, to: i32): void {
-  const lo = <i32>word(G, Q_LO), fill = word(G, Q_FILL), two = f64x2.splat(2);
+  const lo = <i32>word(G, Q_LO), fill = word(G, Q_FILL);
   for (let p = from; p < to; p++) {
     const k = p << 1;
     const E = v128.load(at(e, lo + k)), f = v128.load(at(fill, k));
-    const fE2 = f64x2.mul(f, f64x2.add(f64x2.mul(two, E), v128.load(at(eOld, off + k))));
-    const sum = pairPoles(G, p, f64x2.mul(f, E), fE2);
+    const sum = pairPoles(G, p, f64x2.mul(f, E), secondOf(G, f, E, v128.load(at(eOld, off + k))));
     const a = at(acc, off + k);
     v128.store(a, f64x2.add(v128.load(a), sum));
   }
@@ -102,8 +113,8 @@ function lastPre(G: usize, e: usize, off: i32, eOld: usize, acc: usize, p: i32):
   const nd = <i32>word(G, Q_ND), dc = word(G, Q_D_COEF), ds = word(G, Q_D_STATE);
   const no = <i32>word(G, Q_NO), oc = word(G, Q_O_COEF), os = word(G, Q_O_STATE);
   const k = p << 1;
-  const E = get(e, lo + k), f = get(fill, k);
-  const fE = f * E, fE2 = f * (2 * E + get(eOld, off + k));
+  const E = get(e, lo + k), f = get(fill, k), full = word(G, Q_O_FULL);
+  const fE = f * E, second = full == 0 ? f * (2 * E + get(eOld, off + k)) : f * get(eOld, off + k);
   let sum: f64 = 0;
   let sp = ds + (<usize>(p * nd) << 4);
   for (let q = 0; q < nd; q++, sp += 16) {
@@ -118,7 +129,9 @@ function lastPre(G: usize, e: usize, off: i32, eOld: usize, acc: usize, p: i32):
     const c = oc + (<usize>(3 * q) << 3);
     const z = load<f64>(c + 16);
     const P = load<f64>(so) + z * fE;
-    const partial = load<f64>(c) * P + load<f64>(c + 8) * load<f64>(so + 16) + z * fE2;
+    const past = load<f64>(c) * P + load<f64>(c + 8) * load<f64>(so + 16);
+    const o = full + (<usize>(2 * q) << 3);
+    const partial = past + (full == 0 ? z * second : load<f64>(o) * fE + load<f64>(o + 8) * second);
     sum -= partial - P;
     store<f64>(so, partial);
     store<f64>(so + 16, P);

@@ -8,7 +8,7 @@ import { gridE, gridH } from './grid.ts';
 import { storedEnergy } from './energy.ts';
 import { feedSpectra } from './spectra.ts';
 import {
-  G_E, G_H, R_AUX, R_AUX_OFFSET, R_BACK, R_DFT_IM, R_DFT_LEN, R_DFT_LO, R_DFT_RE, R_DFT_STRIDE, R_DT, R_EPS_INF,
+  G_E, G_H, R_AUX, R_AUX_OFFSET, R_BACK, R_DFT_IM, R_DFT_LEN, R_DFT_LO, R_DFT_RE, R_DFT_STRIDE, R_DT, R_EPS_INF, R_MU_INF,
   R_FRONT, R_INC_IM, R_INC_RE, R_MAIN, R_PHASORS, R_PROBES, R_SF_PROBE, R_SRC, R_SRC_LEN, R_TFSF,
 } from '../wasm/slots.ts';
 
@@ -75,5 +75,5 @@ function dftTerm(v: usize, re: usize, im: usize, len: i32, c: f64, s: f64): void
 
 /** Stored energy of the main grid now (fields and pole states). */
 export function energy(r: usize): f64 {
-  return storedEnergy(word(r, R_MAIN), word(r, R_EPS_INF), real(r, R_DT));
+  return storedEnergy(word(r, R_MAIN), word(r, R_EPS_INF), word(r, R_MU_INF), real(r, R_DT));
 }

@@ -49,3 +49,13 @@ export function eBulkSaving(e: usize, h: usize, ca: usize, cb: usize, lo: i32, h
     put(e, i, get(ca, i) * E + get(cb, i) * (get(h, i) - get(h, i - 1)));
   }
 }
+
+/** h[i] = da[i]·h[i] + db[i]·(e[i+1] − e[i]) for i in [lo, hi) (H nodes with series terms). */
+export function hDamped(e: usize, h: usize, da: usize, db: usize, lo: i32, hi: i32): void {
+  let i = lo;
+  for (; i + 2 <= hi; i += 2) {
+    const l = v128.load(at(e, i)), r = v128.load(at(e, i + 1));
+    v128.store(at(h, i), f64x2.add(f64x2.mul(v128.load(at(da, i)), v128.load(at(h, i))), f64x2.mul(v128.load(at(db, i)), f64x2.sub(r, l))));
+  }
+  for (; i < hi; i++) put(h, i, get(da, i) * get(h, i) + get(db, i) * (get(e, i + 1) - get(e, i)));
+}

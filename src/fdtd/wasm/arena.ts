@@ -77,7 +77,8 @@ function fusedPairs(g: PoleGroup, alone: (node: number) => boolean): [number, nu
 
 function groupDesc(a: ArenaPlan, d: number, g: PoleGroup, alone: (node: number) => boolean): void {
   const len = g.hi - g.lo;
-  const [fa, fb] = fusedPairs(g, alone);
+  // Only a plain group's pairs are fused (the fused pass takes ζ0·f(2Fⁿ + Fⁿ⁻¹)).
+  const [fa, fb] = g.plain ? fusedPairs(g, alone) : [0, 0];
   a.word(d, S.Q_FUSED_LO, fa);
   a.word(d, S.Q_FUSED_HI, fb);
   const fill = new Float64Array(len + (len & 1));
@@ -98,9 +99,12 @@ function groupDesc(a: ArenaPlan, d: number, g: PoleGroup, alone: (node: number) 
   a.word(d, S.Q_O_STATE, a.array(interleave(g.oState, len, g.no, 2)));
   a.word(d, S.Q_O_C, a.array(g.oc));
   a.word(d, S.Q_O_W0SQ, a.array(g.ow0sq));
+  const full = new Float64Array(2 * g.no);
+  for (let q = 0; q < g.no; q++) { full[2 * q] = g.o1[q]; full[2 * q + 1] = g.o2[q]; }
+  a.word(d, S.Q_O_FULL, g.plain ? 0 : a.array(full));
 }
 
-/** Whether a node of grid s has only its bulk E update and one group's poles to do (see fusedPairs). */
+/** Whether an E node of grid s has only its bulk update and one group's poles to do (see fusedPairs). */
 function aloneTest(s: KernelState, span: DispersiveSpan, inj: number): (node: number) => boolean {
   const groups = new Int32Array(s.n), special = new Uint8Array(s.n);
   for (const g of span.groups) for (let i = g.lo; i < g.hi; i++) groups[i]++;
@@ -111,7 +115,8 @@ function aloneTest(s: KernelState, span: DispersiveSpan, inj: number): (node: nu
   return (i) => groups[i] === 1 && special[i] === 0;
 }
 
-function dispDesc(a: ArenaPlan, s: KernelState, span: DispersiveSpan, inj: number): number {
+/** A span's descriptor; `alone` says which nodes may be fused (none on the H side). */
+function dispDesc(a: ArenaPlan, span: DispersiveSpan, alone: (node: number) => boolean): number {
   const d = a.desc(S.DISP_WORDS);
   a.word(d, S.D_LO, span.lo);
   a.word(d, S.D_HI, span.hi);
@@ -121,7 +126,6 @@ function dispDesc(a: ArenaPlan, s: KernelState, span: DispersiveSpan, inj: numbe
   a.word(d, S.D_GROUP_COUNT, span.groups.length);
   const groups = a.desc(S.GROUP_WORDS * span.groups.length);
   a.word(d, S.D_GROUPS, groups);
-  const alone = aloneTest(s, span, inj);
   span.groups.forEach((g, i) => groupDesc(a, groups + 4 * S.GROUP_WORDS * i, g, alone));
   return d;
 }
@@ -144,38 +148,18 @@ function gridDesc(a: ArenaPlan, s: KernelState, inj: number): { desc: number; e:
   a.word(d, S.G_H, h);
   a.word(d, S.G_CA, a.array(s.ca, 8));
   a.word(d, S.G_CB, a.array(s.cb, 8));
-  const flat = s.db.length > 0 && uniform(s.db);
+  // db is one number without series terms (S/μ∞ everywhere); with them, and da, it is per node.
+  const flat = s.mdisp === null && s.db.length > 0 && uniform(s.db);
   a.word(d, S.G_DB, flat ? 0 : a.array(s.db));
   a.real(d, S.G_S, flat ? s.db[0] : 0);
+  a.word(d, S.G_DA, s.mdisp === null ? 0 : a.array(s.da));
+  a.word(d, S.G_HDISP, s.mdisp === null ? 0 : dispDesc(a, s.mdisp, () => false));
   a.word(d, S.G_PML_COUNT, s.pml.length);
   const pml = a.desc(S.PML_WORDS * Math.max(1, s.pml.length));
   a.word(d, S.G_PML, pml);
   s.pml.forEach((p, i) => pmlDesc(a, pml + 4 * S.PML_WORDS * i, p));
-  a.word(d, S.G_DISP, s.disp === null ? 0 : dispDesc(a, s, s.disp, inj));
+  a.word(d, S.G_DISP, s.disp === null ? 0 : dispDesc(a, s.disp, aloneTest(s, s.disp, inj)));
   return { desc: d, e, h };
-}
-
-/**
- * What the WebAssembly step does not carry yet, or null when it steps these grids exactly: poles or a σ on the
- * H nodes (a state's `mdisp`, an H coefficient `da` other than 1) and second-order terms whose Fⁿ and Fⁿ⁻¹
- * coefficients (`o1`, `o2`) are not 2ζ and ζ (an s-numerator). Such a run steps with the TypeScript kernel.
- */
-export function notCarried(grids: EngineInput['grids']): string | null {
-  for (const s of [grids.main, grids.aux]) {
-    const loose = s as KernelState & { mdisp?: DispersiveSpan | null; da?: Float64Array };
-    if ((loose.mdisp ?? null) !== null || (loose.da !== undefined && loose.da.some((v) => v !== 1))) {
-      return 'the WebAssembly step does not carry magnetic (H-side) terms yet';
-    }
-    for (const g of s.disp?.groups ?? []) {
-      const o = g as PoleGroup & { o1?: Float64Array; o2?: Float64Array };
-      for (let q = 0; q < g.no; q++) {
-        if ((o.o1 !== undefined && o.o1[q] !== 2 * g.oz[q]) || (o.o2 !== undefined && o.o2[q] !== g.oz[q])) {
-          return 'the WebAssembly step does not carry second-order terms with an s-numerator yet';
-        }
-      }
-    }
-  }
-  return null;
 }
 
 /** Addresses the engine reads back. */
@@ -203,7 +187,8 @@ export function layoutArena(input: EngineInput): ArenaLayout {
   w(S.R_FRONT, setup.front); w(S.R_BACK, setup.back); w(S.R_SF_PROBE, setup.sfProbe);
   w(S.R_DFT_LO, setup.dftLo); w(S.R_DFT_LEN, setup.dftLength); w(S.R_DFT_RE, dftRe); w(S.R_DFT_IM, dftIm);
   w(S.R_DFT_STRIDE, setup.stride); w(S.R_PHASORS, phasors); w(S.R_PROBES, probes);
-  w(S.R_EPS_INF, a.array(grids.epsInf));
+  w(S.R_EPS_INF, a.array(grids.weights.epsInf));
+  w(S.R_MU_INF, a.array(grids.weights.muInf));
   a.real(r, S.R_INC_RE, 0); a.real(r, S.R_INC_IM, 0); a.real(r, S.R_DT, setup.dt_s);
   const nf = setup.spectraFrequencies;
   const spectra = { acc: a.array(6 * nf), phasor: a.array(2 * nf), rotation: a.array(2 * nf), seeds: a.array(2 * nf) };

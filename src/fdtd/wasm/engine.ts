@@ -2,7 +2,7 @@
 // module's `step`; the run reads its fields, DFT and probe table through views. Nothing is allocated per step.
 
 import { BATCH_STEPS, type EngineInput, type StepEngine } from '../engine.ts';
-import { ARENA_BASE, layoutArena, notCarried } from './arena.ts';
+import { ARENA_BASE, layoutArena } from './arena.ts';
 import { R_INC_IM, R_INC_RE } from './slots.ts';
 
 interface StepExports {
@@ -25,10 +25,8 @@ export class WasmEngine implements StepEngine {
   private readonly run: number;
   private readonly f64: Float64Array;
 
-  /** Throws when the grids hold what the step does not carry, or the memory cannot be had (the caller falls back to the TypeScript engine). */
+  /** Throws when the memory cannot be had (the caller falls back to the TypeScript engine). */
   constructor(module: WebAssembly.Module, input: EngineInput) {
-    const missing = notCarried(input.grids);
-    if (missing !== null) throw new Error(missing);
     const layout = layoutArena(input);
     const memory = new WebAssembly.Memory({ initial: layout.pages, maximum: layout.pages });
     this.x = new WebAssembly.Instance(module, { env: { memory } }).exports as unknown as StepExports;

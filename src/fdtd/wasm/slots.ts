@@ -26,9 +26,9 @@ export const R_DFT_STRIDE = 13;
 export const R_PHASORS = 14;
 /** Per step j of a batch: incident, reflected, transmitted, scattered-probe samples. */
 export const R_PROBES = 15;
-/** ε∞ per main node (energy weights). */
+/** ε∞ per main E node and μ∞ per main H node (energy weights). */
 export const R_EPS_INF = 16;
-export const R_SPARE = 17;
+export const R_MU_INF = 17;
 /** f64: the DFT of the incident record (re, im), and Δt (energy of second-order poles). */
 export const R_INC_RE = 18;
 export const R_INC_IM = 20;
@@ -62,7 +62,10 @@ export const G_PML_COUNT = 8;
 export const G_PML = 9;
 /** Dispersive span descriptor (E nodes), or 0. */
 export const G_DISP = 10;
-export const GRID_WORDS = 12;
+/** H nodes with series terms: per-node da (h = da·h + db·curl), or 0 (da ≡ 1); their pole span, or 0. */
+export const G_DA = 11;
+export const G_HDISP = 12;
+export const GRID_WORDS = 16;
 
 /** PML region: E nodes [eLo, eHi) and H nodes [hLo, hHi), each with its b, c and ψ. */
 export const P_E_LO = 0;
@@ -115,6 +118,11 @@ export const Q_O_W0SQ = 11;
  */
 export const Q_FUSED_LO = 12;
 export const Q_FUSED_HI = 13;
+/**
+ * 0 when no second-order term has an s-numerator (ζ1 = 2ζ0, ζ2 = ζ0: the update takes ζ0·f(2Fⁿ + Fⁿ⁻¹)); else
+ * ζ1, ζ2 per pole (2 f64), and the update takes ζ1·fFⁿ + ζ2·fFⁿ⁻¹ (such a group has no fused pairs).
+ */
+export const Q_O_FULL = 14;
 export const GROUP_WORDS = 16;
 
 /** Steps per call of the WebAssembly step at most (the phasor and probe tables hold this many). */
