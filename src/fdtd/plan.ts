@@ -222,8 +222,9 @@ export interface LayoutCells {
 /**
  * Node indices of a layout. The auxiliary grid carries the incident wave from its source to the TF/SF plane
  * and the front probe; unless the whole incident field is asked for, it ends AUX_TAIL cells behind the front
- * face in its CPML, so it costs a few dozen cells whatever the stack (its CPML's echo is as weak as that of
- * a longer one: it only arrives earlier).
+ * face in its CPML, so it costs a few dozen cells whatever the stack. Its CPML's echo (about 1e-6 of the pulse)
+ * then reaches the incident record; a full-length incident grid ends where the main grid's CPML begins, so that
+ * with nothing to scatter the two echoes cancel (TF/SF exact to rounding).
  */
 export function layoutNodes(c: LayoutCells): GridNodes {
   const { P, gapFront, stackCells, gapBack, pec } = c;

@@ -152,10 +152,15 @@ describe('the line the engine steps is the stack at its angle', () => {
 
   it('TF/SF stays exact: with nothing to scatter, the reflected record is rounding (magnetic dispersive medium; TM at 60°)', () => {
     for (const s of [stackOf([], { front: relaxing, back: relaxing, band_GHz: [1, 5] }), at(stackOf([bulk(fixed(1, 0, 'air'), 5)], { band_GHz: [1, 5] }), 60, 'TM')]) {
-      const run = runToEndSync(createPulseRun(s));
-      const r = run.records();
-      const peak = Math.max(...r.incident.map(Math.abs)), leak = Math.max(...r.reflected.map(Math.abs));
-      expect(leak / peak).toBeLessThan(1e-12);
+      // On the view's layout the incident grid spans the main grid and ends in the same CPML: total − incident is
+      // the scattered field to rounding. The lean layout's incident grid ends ten cells behind the front face, so
+      // its CPML's echo (about 1e-6 of the pulse, as any CPML's) is what the reflected record holds there.
+      const leak = (forView: boolean) => {
+        const r = runToEndSync(createPulseRun(s, { forView })).records();
+        return Math.max(...r.reflected.map(Math.abs)) / Math.max(...r.incident.map(Math.abs));
+      };
+      expect(leak(true)).toBeLessThan(1e-12);
+      expect(leak(false)).toBeLessThan(3e-6);
     }
   });
 });
