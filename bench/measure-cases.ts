@@ -12,6 +12,10 @@ import { parseStackObject } from '../src/stack/parse.ts';
 import type { Stack } from '../src/stack/types.ts';
 import { solveTmm } from '../src/tmm/solve.ts';
 import { linspace } from '../src/units.ts';
+import { useWasmStep } from '../test/support/wasm.ts';
+
+// The runs step with the WebAssembly kernel, as the CLI's do (the TypeScript one gives the same figures, slower).
+await useWasmStep();
 
 export interface Case { name: string; stack: Stack }
 

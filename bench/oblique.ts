@@ -4,8 +4,8 @@
 // H nodes beside a plain grid. A benchmark, not a test: run it under nice on a quiet machine.
 //   nice npx tsx bench/oblique.ts [--only TEXT] [--accuracy X] [--json]
 import { parseArgs } from 'node:util';
-import { uniformGrid } from '../src/fdtd/build.ts';
-import { type KernelState, updateE, updateH } from '../src/fdtd/kernel.ts';
+import { cellsPerStep, lineBenchRun } from '../src/fdtd/bench.ts';
+import type { EngineKind } from '../src/fdtd/engine.ts';
 import { type LineMedium, lineMedium, stepModelFixed } from '../src/fdtd/media.ts';
 import { planGrid } from '../src/fdtd/plan.ts';
 import type { Stack } from '../src/stack/types.ts';
@@ -58,18 +58,20 @@ if (!values.json) {
 }
 measureCases(cases, { only: values.only, accuracy, json: values.json });
 
-/** Mcell/s of the kernel on a uniform grid of this medium (CPML at both ends). */
-function kernelSpeed(m: LineMedium, cells = 200_000, steps = 1500): number {
-  const s: KernelState = uniformGrid(cells, m, { courant: 0.5, dt_s: 1e-12, band_Hz: [1e9, 10e9], pmlFront: 24, pmlBack: 24 });
-  for (let k = 0; k < 50; k++) { updateH(s); updateE(s); s.e[cells >> 1] += Math.sin(k); }
+/** Mcell/s of the production step (bench's uniform grid, both grids counted) of this medium on an engine. */
+function stepSpeed(m: LineMedium, engine: EngineKind, cells = 200_000, steps = 1500): number {
+  const run = lineBenchRun(cells, m, steps + 50, engine);
+  run.step(50);
   const t0 = performance.now();
-  for (let k = 0; k < steps; k++) { updateH(s); updateE(s); }
-  return (cells * steps) / ((performance.now() - t0) / 1000) / 1e6;
+  run.step(steps);
+  return (cellsPerStep(run) * steps) / ((performance.now() - t0) / 1000) / 1e6;
 }
 if (!values.json) {
   const w = 2 * Math.PI * 3e9;
   const lorentz = { epsInf: 1, sigma: 0, debye: [], osc: [{ c: 3 * w * w, w0sq: w * w, gamma: 2 * w }] };
-  console.log(`kernel: plain ${kernelSpeed(lineMedium(stepModelFixed(4, 0.01))).toFixed(0)} Mcell/s, ` +
-    `one Lorentz pole on E ${kernelSpeed(lineMedium(lorentz)).toFixed(0)}, on H ${kernelSpeed(lineMedium(stepModelFixed(4, 0.01), lorentz)).toFixed(0)}, ` +
-    `on both ${kernelSpeed(lineMedium(lorentz, lorentz)).toFixed(0)}`);
+  for (const engine of ['wasm-simd', 'js'] as const) {
+    const f = (m: LineMedium) => stepSpeed(m, engine).toFixed(0);
+    console.log(`production step (${engine}): plain ${f(lineMedium(stepModelFixed(4, 0.01)))} Mcell/s, ` +
+      `one Lorentz pole on E ${f(lineMedium(lorentz))}, on H ${f(lineMedium(stepModelFixed(4, 0.01), lorentz))}, on both ${f(lineMedium(lorentz, lorentz))}`);
+  }
 }

@@ -10,10 +10,6 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { planGrid } from '../src/fdtd/plan.ts';
 import { type Case, measureCases, stackFrom } from './measure-cases.ts';
-import { useWasmStep } from '../test/support/wasm.ts';
-
-// The runs step with the WebAssembly kernel, as the CLI's do (the TypeScript one gives the same figures, slower).
-await useWasmStep();
 
 const { values } = parseArgs({ options: { only: { type: 'string' }, accuracy: { type: 'string' }, set: { type: 'string' }, json: { type: 'boolean' } } });
 const accuracy = values.accuracy ? Number(values.accuracy) : undefined;

@@ -32,9 +32,13 @@ export function benchMedium(debye: number, lorentz: number): StepModel {
   };
 }
 
-/** The plan of a uniform grid of `shunt` whose two grids together hold `cells` E nodes (20 cells per wavelength at the band top). */
-export function uniformBenchPlan(cells: number, shunt: StepModel, steps: number): GridPlan {
-  const band = BENCH_BAND_Hz, P = DEFAULT_PML_CELLS, model: LineMedium = lineMedium(shunt);
+/**
+ * The plan of a uniform grid of `medium` (a shunt model alone, or both sides of a line) whose two grids together
+ * hold `cells` E nodes (20 cells per wavelength at the band top).
+ */
+export function uniformBenchPlan(cells: number, medium: StepModel | LineMedium, steps: number): GridPlan {
+  const band = BENCH_BAND_Hz, P = DEFAULT_PML_CELLS;
+  const model: LineMedium = 'shunt' in medium ? medium : lineMedium(medium);
   const n = Math.max(...[band[0], band[1]].map((f) => lineIndex(model, f).re));
   const dx = C0_m_per_s / (band[1] * n) / CELLS_PER_WAVELENGTH;
   const courant = courantLimit([model]), dt = (courant * dx) / C0_m_per_s;
@@ -52,6 +56,11 @@ export function uniformBenchPlan(cells: number, shunt: StepModel, steps: number)
       segments: [{ x0_m: 0, x1_m: thickness_m, model, layer: 0, name: 'bench medium', label: 'layers[0] bench medium' }],
     },
   };
+}
+
+/** A never-ending run of a uniform grid of a line medium (poles on either side). */
+export function lineBenchRun(cells: number, medium: LineMedium, steps: number, engine?: EngineKind): PulseRun {
+  return createRunOfPlan(BENCH_BAND_Hz, uniformBenchPlan(cells, medium, steps), { engine, endless: true });
 }
 
 /** A never-ending run of the uniform bench grid. */
