@@ -15,7 +15,7 @@
 // A path is named in at most one row.
 
 import { leakBeyond } from './band-pulse.ts';
-import { envelopeAt } from './envelope.ts';
+import { envelopeAt, type UniformSpectrum } from './envelope.ts';
 import type { DetectedEcho } from './detect.ts';
 import { type PredictedPaths, groupPeak, groupSpectrum, nearestPeak, pathAt } from './paths.ts';
 
@@ -41,6 +41,8 @@ export interface AttributeOptions {
   bandWidth_Hz: number;
   /** The measured envelope at a delay, relative to the incident band pulse's peak. */
   envelope: (t_s: number) => number;
+  /** Earliest delay the detection searched (s): predictions are held to the same window. */
+  earliest_s: number;
 }
 
 /** Paths farther than this many pulse widths from a time contribute nothing there. */
@@ -149,6 +151,18 @@ function contributions(P: PredictedPaths, t: number, width_s: number): { order: 
   return { order, c, total: Math.hypot(re, im) };
 }
 
+/**
+ * Where the lattice's summed response peaks near `own`, searched like the detection: from the earliest delay
+ * on. Paths that cancel (an absorber's front face and conductor) can leave a hump before delay zero; the
+ * detection then reports the window's start, so the prediction does too, and the two stay comparable.
+ */
+function predictedPeak(S: UniformSpectrum, own: number, o: AttributeOptions): number {
+  const t = nearestPeak(S, own, o.width_s / 2, o.width_s)?.t ?? own;
+  if (t >= o.earliest_s) return t;
+  const later = nearestPeak(S, o.earliest_s + o.width_s / 2, o.width_s / 2, o.width_s);
+  return later && later.t >= o.earliest_s && later.value > envelopeAt(S, o.earliest_s) ? later.t : o.earliest_s;
+}
+
 function nearestPath(P: PredictedPaths, t: number): number {
   let best = -1;
   for (let p = 0; p < P.t_s.length; p++) if (best < 0 || Math.abs(P.t_s[p] - t) < Math.abs(P.t_s[best] - t)) best = p;
@@ -188,7 +202,7 @@ export function attributeEchoes(echoes: readonly DetectedEcho[], P: PredictedPat
     if (row.paths.length === 0) { row.predicted_t_s = row.nearest >= 0 ? P.t_s[row.nearest] : row.echo.t_s; continue; }
     // where the lattice puts the envelope peak: these paths' own peak, then all paths' summed response there
     const own = row.paths.length === 1 ? P.t_s[row.paths[0]] : groupPeak(P, row.paths, row.echo.t_s, o.width_s, o.width_s).t;
-    row.predicted_t_s = nearestPeak(lattice(P, own, o.width_s), own, o.width_s / 2, o.width_s)?.t ?? own;
+    row.predicted_t_s = predictedPeak(lattice(P, own, o.width_s), own, o);
   }
   return { rows: kept, unseen };
 }

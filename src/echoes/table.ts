@@ -126,11 +126,12 @@ interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer 
 
 function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, latest_s: number): EchoTable {
   const band = pulse.band_Hz, B = band[1] - band[0];
-  const echoes = detectEchoes(side.S, side.a, band, { floor, earliest_s: -EARLIEST_WIDTHS * pulse.width_s, latest_s });
+  const earliest_s = -EARLIEST_WIDTHS * pulse.width_s;
+  const echoes = detectEchoes(side.S, side.a, band, { floor, earliest_s, latest_s });
   const P = predictPaths(side.set, band, pulse.width_s, floor);
   const a = side.a, peak = side.S.peak;
   const envelope = (t: number) => a.mag[sampleIndex(a, t)] / peak;
-  const { rows, unseen } = attributeEchoes(echoes, P, { floor, width_s: pulse.width_s, bandWidth_Hz: B, envelope });
+  const { rows, unseen } = attributeEchoes(echoes, P, { floor, width_s: pulse.width_s, bandWidth_Hz: B, envelope, earliest_s });
   return tableOf(rows, unseen, P, stack, side.name);
 }
 

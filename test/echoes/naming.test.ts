@@ -3,7 +3,9 @@
 // together as unresolved, sheets named by their material, no row before the front face, path text of
 // at most 80 characters, no path in two rows. Layer materials: ITU-R P.2040-3 Table 3 power laws and
 // the catalog's Debye water; the scenarios are invented.
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { parseStackText } from '../../src/stack/parse.ts';
 import { catalogMaterial } from '../../src/materials/catalog.ts';
 import { analyseEchoes, type EchoAnalysis, type EchoTable } from '../../src/echoes/table.ts';
 import { bandPulse } from '../../src/echoes/band-pulse.ts';
@@ -25,6 +27,8 @@ function expectWellFormed(stack: Stack, a: EchoAnalysis): void {
     expect(new Set(all).size).toBe(all.length); // no path in two rows
     for (let i = 1; i < t.t_s.length; i++) expect(t.t_s[i] - t.t_s[i - 1]).toBeGreaterThanOrEqual(W); // one row per group
     t.path.forEach((p, i) => expect(p.endsWith('(unresolved)')).toBe(!t.resolved[i]));
+    // predictions are searched in the same window as the detection (nothing before −width/10)
+    for (const p of t.predicted_t_s) expect(p).toBeGreaterThanOrEqual(-EARLIEST_WIDTHS * W - 1e-15);
   }
   for (let i = 0; i < a.reflected.t_s.length; i++) {
     if (a.reflected.t_s[i] < 0) {
@@ -109,5 +113,22 @@ describe('rows and names on real stacks', () => {
     const stack = makeStack({ band_GHz: [4, 16], layers: [named('outer', 900), layer(foam, 0.007), named('inner', 300), layer(foam, 0.007)], back: 'pec' });
     const a = analyse(stack);
     expect(a.reflected.path[0]).toMatch(/outer \(sheet, front face\) \+ inner \(sheet\) \+ conductor/);
+  });
+});
+
+describe('paths that cancel (a matched absorber: front face and conductor out of phase)', () => {
+  it('one unresolved row whose prediction agrees with the exact record, not a hump before delay zero', () => {
+    // The magnetic-absorber preset (invented values): its reflected envelope has humps on both sides of the
+    // front-face delay, where the front-face and conductor echoes cancel in the band.
+    const parsed = parseStackText(readFileSync('presets/magnetic-absorber.stack.json', 'utf8'));
+    if (!parsed.ok) throw new Error(parsed.errors.join('\n'));
+    const stack = parsed.stack;
+    const a = analyse(stack);
+    const W = bandPulse(stack.band_Hz).width_s;
+    expect(a.reflected.t_s.length).toBeGreaterThanOrEqual(1);
+    const i = rowWith(a.reflected, 'conductor');
+    expect(i).toBe(0);
+    expect(a.reflected.path[0]).toMatch(/front face \+ conductor/);
+    expect(Math.abs(a.reflected.predicted_t_s[0] - a.reflected.t_s[0])).toBeLessThan(0.1 * W);
   });
 });
