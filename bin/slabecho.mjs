@@ -33,6 +33,6 @@ else {
   register();
   cli = await import('../src/cli/main.ts');
 }
-// Studies and the task pool (src/cli/pool.ts, from the sources) start worker threads from this same file.
+// The worker pool (src/cli/pool.ts, from the sources) starts its threads from this same file: there the loaded
+// module serves the pool by itself.
 if (isMainThread) process.exitCode = await cli.main(process.argv.slice(2));
-else cli.workerMain();

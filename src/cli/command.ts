@@ -98,6 +98,18 @@ export function numberOption(values: ParsedArgs['values'], name: string, rule: s
   return x;
 }
 
+/** The required --out DIR of `command`; UsageError pointing to its help when it is missing or empty. */
+export function outDirFromArgs(values: ParsedArgs['values'], command: string): string {
+  const out = values.out;
+  if (typeof out !== 'string' || out === '') throw new UsageError(`--out DIR is required (see slabecho ${command} --help)`);
+  return out;
+}
+
+/** --seed: a whole number from 0 to 2³² − 1 (default 1). */
+export function seedFromArgs(values: ParsedArgs['values']): number {
+  return numberOption(values, 'seed', 'must be a whole number from 0 to 4294967295', (x) => Number.isInteger(x) && x >= 0 && x <= 0xffffffff) ?? 1;
+}
+
 /** node's parseArgs messages are long; keep the part a user needs. */
 function describeArgError(e: unknown): string {
   const msg = e instanceof Error ? e.message : String(e);

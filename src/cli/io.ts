@@ -178,7 +178,8 @@ export class OutputLimitError extends InputError {
   override name = 'OutputLimitError';
 }
 
-const tempName = (path: string): string =>
+/** The temporary file beside `path` that a write goes to before its rename: ".NAME.<pid>.<random>.tmp". */
+export const tempName = (path: string): string =>
   join(dirname(path), `.${basename(path)}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
 
 /** Chunks are gathered to about this many characters before each write. */

@@ -15,16 +15,7 @@ import { tolerance } from './commands/tolerance.ts';
 import { merge } from './commands/merge.ts';
 import { tune } from './commands/tune.ts';
 import { provideCliStepModule } from './step-module.ts';
-
-import { studyWorkerMain } from './studies/worker.ts';
-import { isPoolWorker } from './pool.ts';
-
-export { studyWorkerMain };
-
-/** Entry of a worker thread started through bin/slabecho.mjs: a study's, or the task pool's (already serving). */
-export function workerMain(): void {
-  if (!isPoolWorker()) studyWorkerMain();
-}
+import './pool.ts'; // a worker thread of the pool (started through bin/slabecho.mjs) serves from there
 
 export const COMMANDS: readonly Command[] = [
   check,

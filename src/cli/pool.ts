@@ -1,8 +1,15 @@
-// A small pool of worker threads for the command line's independent work (tasks.ts). Every worker loads this
-// same module: the compiled CLI (build/cli.mjs) as a whole, so a worker costs one module load. From the sources
-// (tsx) workers would have to compile everything again, so there the tasks run in the calling thread unless
-// SLABECHO_WORKERS is set: 0 keeps everything in one thread anywhere, 1 allows workers (one per idle core), N > 1
-// asks for N workers whatever the load. Results are the same either way.
+// The command line's one pool of worker threads, for independent work (tasks.ts): a command's parts (`run`) and a
+// study's cases or samples (`sweep`, `tolerance`, through studies/execute.ts). Every worker loads the compiled CLI
+// (build/cli.mjs) as a whole, so a worker costs one module load; from the sources (tsx) it starts through
+// bin/slabecho.mjs, which loads the compiled CLI when it is current and the sources otherwise.
+//
+// Two ways to size it:
+//   new TaskPool(wanted)               up to `wanted` workers, one per idle core. From the sources (where a worker
+//                                      would compile everything again) the tasks run in the calling thread unless
+//                                      SLABECHO_WORKERS is set: 0 keeps them in one thread anywhere, 1 allows
+//                                      workers, N > 1 asks for N workers whatever the load.
+//   TaskPool.ofSize(n, { context })    exactly n workers (a study: its --threads), each given `context` once.
+// Results are the same either way.
 //
 //   const pool = new TaskPool();          // workers start at once (their module load overlaps the caller's work)
 //   const r = await pool.run('solve', { stack, options });
@@ -11,14 +18,15 @@
 import { availableParallelism, loadavg } from 'node:os';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import { provideCliStepModule } from './step-module.ts';
-import { runTask, type TaskInput, type TaskName, type TaskOutput } from './tasks.ts';
+import { POSTING, runTask, type TaskInput, type TaskName, type TaskOutput } from './tasks.ts';
 
 interface Job { id: number; name: TaskName; input: unknown }
 type Reply = { id: number; ok: true; output: unknown } | { id: number; ok: false; message: string };
+interface PoolData { slabechoPool: true; context?: unknown }
 
 const FROM_SOURCES = import.meta.url.endsWith('.ts');
 
-/** Whether tasks go to worker threads here (see the head of this file). */
+/** Whether `new TaskPool()` sends tasks to worker threads here (see the head of this file). */
 export function workersEnabled(): boolean {
   const v = process.env.SLABECHO_WORKERS;
   if (v === undefined || v === '') return !FROM_SOURCES;
@@ -35,20 +43,41 @@ export function defaultPoolSize(wanted: number): number {
   return Math.max(0, Math.min(wanted, Math.floor(idle + 0.25)));
 }
 
-interface Slot { worker: Worker; busy: boolean }
+export interface PoolSettings {
+  /** Data every worker receives once, at its start, and hands to each task (a study's job). */
+  context?: unknown;
+  /** Tasks a worker is given at a time (more than one hides the trip between threads behind the work). */
+  depth?: number;
+}
+
+interface Slot { worker: Worker; inFlight: number }
+interface Waiter { resolve: (v: unknown) => void; reject: (e: Error) => void }
 
 export class TaskPool {
   private readonly slots: Slot[] = [];
-  private readonly queue: Array<{ job: Job; resolve: (v: unknown) => void; reject: (e: Error) => void }> = [];
-  private readonly waiting = new Map<number, { resolve: (v: unknown) => void; reject: (e: Error) => void; slot: Slot }>();
+  private readonly queue: Array<{ job: Job } & Waiter> = [];
+  private readonly waiting = new Map<number, Waiter & { slot: Slot }>();
+  private readonly context: unknown;
+  private readonly depth: number;
   private nextId = 1;
+  private closing = false;
 
   /** Up to `wanted` workers (none when workers are not enabled or no core is idle: then run() works in this thread). */
-  constructor(wanted = 1) {
-    if (!workersEnabled()) return;
-    const asked = Number(process.env.SLABECHO_WORKERS);
-    const size = Number.isInteger(asked) && asked > 1 ? asked : defaultPoolSize(wanted);
+  constructor(wanted = 1, settings: PoolSettings & { size?: number } = {}) {
+    this.context = settings.context;
+    this.depth = Math.max(1, settings.depth ?? 1);
+    let size = settings.size;
+    if (size === undefined) {
+      if (!workersEnabled()) return;
+      const asked = Number(process.env.SLABECHO_WORKERS);
+      size = Number.isInteger(asked) && asked > 1 ? asked : defaultPoolSize(wanted);
+    }
     for (let i = 0; i < size; i++) this.slots.push(this.spawn());
+  }
+
+  /** Exactly `size` workers, wherever it runs. */
+  static ofSize(size: number, settings: PoolSettings = {}): TaskPool {
+    return new TaskPool(size, { ...settings, size });
   }
 
   get size(): number { return this.slots.length; }
@@ -56,10 +85,14 @@ export class TaskPool {
   private spawn(): Slot {
     // The compiled CLI starts itself; the sources start through bin/slabecho.mjs, which registers tsx first.
     const entry = FROM_SOURCES ? new URL('../../bin/slabecho.mjs', import.meta.url) : new URL(import.meta.url);
-    const worker = new Worker(entry, { workerData: { slabechoPool: true } });
-    const slot: Slot = { worker, busy: false };
+    const data: PoolData = { slabechoPool: true, context: this.context };
+    const worker = new Worker(entry, { workerData: data });
+    const slot: Slot = { worker, inFlight: 0 };
     worker.on('message', (r: Reply) => this.settle(slot, r));
     worker.on('error', (e) => this.failAll(slot, e));
+    worker.on('exit', (code) => {
+      if (!this.closing && code !== 0) this.failAll(slot, new Error(`a worker thread stopped (exit code ${code})`));
+    });
     worker.unref();
     return slot;
   }
@@ -67,7 +100,7 @@ export class TaskPool {
   /** Run a task on a free worker (queued while all are busy), or in this thread when the pool has none. */
   run<K extends TaskName>(name: K, input: TaskInput<K>): Promise<TaskOutput<K>> {
     if (this.slots.length === 0) {
-      return new Promise((resolve) => resolve(runTask(name, input)));
+      return new Promise((resolve) => resolve(runTask(name, input, this.context) as TaskOutput<K>));
     }
     return new Promise((resolve, reject) => {
       this.queue.push({ job: { id: this.nextId++, name, input }, resolve: resolve as (v: unknown) => void, reject });
@@ -77,12 +110,12 @@ export class TaskPool {
 
   private dispatch(): void {
     for (const slot of this.slots) {
-      if (slot.busy || this.queue.length === 0) continue;
-      const { job, resolve, reject } = this.queue.shift()!;
-      slot.busy = true;
-      slot.worker.ref();
-      this.waiting.set(job.id, { resolve, reject, slot });
-      slot.worker.postMessage(job);
+      while (slot.inFlight < this.depth && this.queue.length > 0) {
+        const { job, resolve, reject } = this.queue.shift()!;
+        if (slot.inFlight++ === 0) slot.worker.ref();
+        this.waiting.set(job.id, { resolve, reject, slot });
+        slot.worker.postMessage(job);
+      }
     }
   }
 
@@ -90,8 +123,7 @@ export class TaskPool {
     const w = this.waiting.get(r.id);
     if (!w) return;
     this.waiting.delete(r.id);
-    slot.busy = false;
-    slot.worker.unref();
+    if (--slot.inFlight === 0) slot.worker.unref();
     if (r.ok) w.resolve(r.output);
     else w.reject(new Error(r.message));
     this.dispatch();
@@ -103,6 +135,7 @@ export class TaskPool {
 
   /** Stop every worker (waiting tasks fail). */
   async close(): Promise<void> {
+    this.closing = true;
     const slots = this.slots.splice(0);
     for (const { job, reject } of this.queue.splice(0)) reject(new Error(`task ${job.name}: the pool was closed`));
     await Promise.all(slots.map((s) => s.worker.terminate()));
@@ -110,23 +143,34 @@ export class TaskPool {
 }
 
 /** Whether this thread is a pool worker. */
-export const isPoolWorker = (): boolean => !isMainThread && (workerData as { slabechoPool?: boolean } | null)?.slabechoPool === true;
+export const isPoolWorker = (): boolean => !isMainThread && (workerData as Partial<PoolData> | null)?.slabechoPool === true;
 
 let serving = false;
 
-/** The worker side: answer every job with its task's result (once per thread, whoever asks first). */
+/** The reply to one job, with the buffers it hands over. */
+async function answer(job: Job, context: unknown): Promise<{ reply: Reply; transfer: ArrayBuffer[] }> {
+  try {
+    const output = await runTask(job.name, job.input as never, context);
+    const post = POSTING[job.name] as ((o: unknown) => { message: unknown; transfer: ArrayBuffer[] }) | undefined;
+    const { message, transfer } = post ? post(output) : { message: output, transfer: [] };
+    return { reply: { id: job.id, ok: true, output: message }, transfer };
+  } catch (e) {
+    return { reply: { id: job.id, ok: false, message: e instanceof Error ? e.message : String(e) }, transfer: [] };
+  }
+}
+
+/** The worker side: answer every job with its task's result, one job after another (once per thread). */
 function serve(): void {
   if (serving) return;
   serving = true;
-  provideCliStepModule();
+  provideCliStepModule(); // the pulse runs of this thread step with the WebAssembly kernel too
+  const context = (workerData as PoolData).context;
+  let previous: Promise<void> = Promise.resolve();
   parentPort!.on('message', (job: Job) => {
-    let reply: Reply;
-    try {
-      reply = { id: job.id, ok: true, output: runTask(job.name, job.input as never) };
-    } catch (e) {
-      reply = { id: job.id, ok: false, message: e instanceof Error ? e.message : String(e) };
-    }
-    parentPort!.postMessage(reply);
+    previous = previous.then(async () => {
+      const { reply, transfer } = await answer(job, context);
+      parentPort!.postMessage(reply, transfer);
+    });
   });
 }
 

@@ -16,8 +16,7 @@ import { drawSamples, SampleTable } from '../../studies/tolerance.ts';
 import { toleranceDocument } from '../../studies/tolerance-doc.ts';
 import { readSampleRows, SAMPLES_FILE, ShardFormatError, tolerancePlanOf } from '../../studies/tolerance-shard.ts';
 import { WarningTally } from '../../studies/warning-tally.ts';
-import { InputError, readArgs, UsageError, type Command, type Io } from '../command.ts';
-import { withSigintHeld } from '../signals.ts';
+import { InputError, outDirFromArgs, readArgs, type Command, type Io } from '../command.ts';
 import { OutputSet, type StreamedFile } from '../studies/output.ts';
 
 const USAGE = `Usage: slabecho merge DIR... --out DIR
@@ -124,8 +123,7 @@ export const merge: Command = {
   async run(args, io: Io) {
     const a = readArgs(merge, args, io, { out: { type: 'string' } }, [1, 100_000]);
     if (a === null) return 0;
-    const out = a.values.out;
-    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho merge --help)');
+    const out = outDirFromArgs(a.values, 'merge');
     let parts: ShardPart[];
     try { parts = orderShards(a.positionals.map(readPart)); } catch (e) { if (e instanceof MergeError) throw new InputError(e.message); throw e; }
     const output = new OutputSet(out);
@@ -133,7 +131,7 @@ export const merge: Command = {
       if (parts[0].kind === 'sweep') mergeSweep(parts, output); else mergeTolerance(parts, output);
     } catch (e) { output.abort(); throw e; }
     const stale = parts[0].kind === 'sweep' && parts[0].head.touchstone ? [{ folder: 'touchstone', prefix: 'case-' }] : [];
-    const written = withSigintHeld(() => output.commit(stale));
+    const written = output.commit(stale);
     io.out(`merged ${parts.length} shard${parts.length === 1 ? '' : 's'} of a ${parts[0].kind} into ${out} (${written.length} files)`);
     return 0;
   },

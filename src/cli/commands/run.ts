@@ -11,13 +11,13 @@ import { formatAgreement } from '../../report/format-agreement.ts';
 import { runReport, type RunReport } from '../../report/run.ts';
 import { csvChunks } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
-import { CliError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
+import { CliError, numberOption, outDirFromArgs, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { loadOrExplain, MEDIA_ARG_OPTIONS, MEDIA_ARG_USAGE, mediaFromArgs, writeReport } from './solve.ts';
 import { estimateRun, WorkRefused } from '../../report/estimate.ts';
 import { BUDGET_ARG_OPTIONS, BUDGET_ARG_USAGE, budgetFromArgs } from '../budget-args.ts';
 import type { WriteOptions } from '../io.ts';
-import { EXIT_INTERRUPTED } from '../signals.ts';
+import { EXIT_INTERRUPTED, reportStopped } from '../signals.ts';
 import { TaskPool } from '../pool.ts';
 import type { RunParallel } from '../../report/run.ts';
 
@@ -105,8 +105,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       ...BUDGET_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
-    const out = a.values.out;
-    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho run --help)');
+    const out = outDirFromArgs(a.values, 'run');
     const pulse = pulseOptionsFromArgs(a.values);
     const fem = femOptionsFromArgs(a.values);
     const media = mediaFromArgs(a.values);
@@ -141,10 +140,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
       process.removeListener('SIGINT', onSigint);
       void pool.close();
     }
-    if (interrupted || report.stopped) {
-      io.err('slabecho run: stopped (Ctrl-C); nothing was written');
-      return EXIT_INTERRUPTED;
-    }
+    if (interrupted || report.stopped) return reportStopped(io, 'run');
     for (const w of report.warnings) io.err(`warning: ${w}`);
     const written = writeRunReport(out, report, { maxBytes: budget.maxOutput_bytes, limitName: limitNames.output });
     io.out(`${stack.title}: ${stack.layers.length} layer${stack.layers.length === 1 ? '' : 's'}, ` +

@@ -8,7 +8,7 @@ import { fmtGHz } from '../../stack/warnings.ts';
 import type { Stack } from '../../stack/types.ts';
 import type { StackFile } from '../../stack/file.ts';
 import type { Command, Io, ParsedArgs } from '../command.ts';
-import { CliError, InputError, readArgs, UsageError } from '../command.ts';
+import { CliError, InputError, outDirFromArgs, readArgs, UsageError } from '../command.ts';
 import { ensureDir, loadStackFile, removeIfPresent, textFile, writeFilesAtomic, type OutputFile, type WriteOptions } from '../io.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
 import { formatAgreement } from '../../report/format-agreement.ts';
@@ -112,8 +112,7 @@ Exit: 0 done, 2 invalid stack, usage, or a job over its limits (nothing written)
   async run(args, io) {
     const a = readArgs(solve, args, io, { out: { type: 'string' }, ...FEM_ARG_OPTIONS, ...MEDIA_ARG_OPTIONS, ...TOUCHSTONE_ARG_OPTIONS, ...BUDGET_ARG_OPTIONS }, [1, 1]);
     if (a === null) return 0;
-    const out = a.values.out;
-    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho solve --help)');
+    const out = outDirFromArgs(a.values, 'solve');
     const fem = femOptionsFromArgs(a.values);
     const media = mediaFromArgs(a.values);
     const shift = touchstoneFromArgs(a.values);

@@ -10,20 +10,18 @@ import { angleAxis, polarizationAxis, setAxis, sweepAxes } from '../../studies/s
 import { caseStack, sweepDocument, sweepHead, sweepHeader, type SweepCaseRecord, type SweepPlan } from '../../studies/sweep.ts';
 import { ValueSpecError } from '../../studies/values.ts';
 import { WarningTally } from '../../studies/warning-tally.ts';
-import { InputError, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
+import { outDirFromArgs, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { FEM_ARG_OPTIONS, FEM_ARG_USAGE, femOptionsFromArgs } from '../fem-args.ts';
-import { EXIT_INTERRUPTED, withSigintHeld } from '../signals.ts';
+import { reportStopped } from '../signals.ts';
+import { checkOutputEstimate, outputCapFromArgs, sizeText } from '../budget-args.ts';
 import {
-  checkOutputEstimate, methodsFromArgs, outputCapFromArgs, shardFromArgs, sizeText, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs,
+  methodsFromArgs, refuseInvalidTasks, shardFromArgs, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs,
   TOUCHSTONE_ARG_OPTIONS, TOUCHSTONE_ARG_USAGE, touchstoneFromArgs,
 } from '../studies/args.ts';
 import { execute, studyThreads } from '../studies/execute.ts';
 import { OutputSet } from '../studies/output.ts';
 import { pulseOptionsFromArgs } from './run.ts';
 import { loadOrExplain } from './solve.ts';
-
-/** At most this many problems are listed when cases are invalid. */
-const MAX_LISTED = 10;
 
 /** The axes from --angle, --polarization and --set; UsageError naming the option. */
 function axesFromArgs(values: ParsedArgs['values'], base: StackFile): Axis[] {
@@ -37,21 +35,6 @@ function axesFromArgs(values: ParsedArgs['values'], base: StackFile): Axis[] {
   const pol = typeof values.polarization === 'string' ? tryAxis('--polarization', () => polarizationAxis(values.polarization as string)) : null;
   const sets = ((values.set as string[] | undefined) ?? []).map((s) => tryAxis(`--set ${s}`, () => setAxis(s, base)));
   try { return sweepAxes(angle, pol, sets); } catch (e) { throw new UsageError(`--set: ${(e as Error).message}`); }
-}
-
-/** Validates every case of [from, to) like a stack file; InputError listing the first problems. */
-export function validateCases(plan: SweepPlan, from: number, to: number, io: Io, path: string): void {
-  const problems: string[] = [];
-  let bad = 0;
-  for (let k = from; k < to; k++) {
-    const c = caseStack(plan, k);
-    if (c.ok) continue;
-    bad++;
-    for (const e of c.errors) if (problems.length < MAX_LISTED) problems.push(e);
-  }
-  if (bad === 0) return;
-  for (const p of problems) io.err(`${path}: ${p}`);
-  throw new InputError(`${bad} of ${to - from} cases ${bad === 1 ? 'is' : 'are'} invalid; nothing was computed or written`);
 }
 
 /** Rough cost of one case in exact frequency evaluations (to choose threads). */
@@ -117,8 +100,7 @@ export const sweep: Command = {
       ...TOUCHSTONE_ARG_OPTIONS, ...STUDY_ARG_OPTIONS, ...FEM_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
-    const out = a.values.out;
-    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho sweep --help)');
+    const out = outDirFromArgs(a.values, 'sweep');
     const methods: StudyMethod[] = methodsFromArgs(a.values);
     const options = {
       fem: femOptionsFromArgs(a.values), pulse: pulseOptionsFromArgs(a.values),
@@ -141,7 +123,7 @@ async function runSweep(plan: SweepPlan, o: RunOptions, out: string, io: Io, pat
   const n = to - from;
   const sizes = estimateOutput(plan, n);
   checkOutputEstimate('sweep', sizes, o.cap);
-  validateCases(plan, from, to, io, path);
+  refuseInvalidTasks(from, to, (k) => caseStack(plan, k), 'case', io, path);
   const cost = costPerCase(plan);
   io.err(`sweep: ${total} case${total === 1 ? '' : 's'}${shard ? `, shard ${shard.index}/${shard.count}: cases ${from} to ${to - 1}` : ''}; ` +
     `sweep.csv of about ${sizeText(sizes[0].bytes)}; ${studyThreads(n, cost, threads)} thread(s); methods ${plan.methods.join(', ')}`);
@@ -160,10 +142,10 @@ async function runSweep(plan: SweepPlan, o: RunOptions, out: string, io: Io, pat
       for (const f of r!.files) output.add(f.name, f.text);
     },
   });
-  if (end === 'stopped') { io.err('slabecho sweep: stopped (Ctrl-C); nothing was written'); return EXIT_INTERRUPTED; }
+  if (end === 'stopped') return reportStopped(io, 'sweep');
   const doc = sweepDocument(sweepHead(plan), records, tally.list(), shard ? { ...shard, cases: [from, to] } : null);
   output.add('sweep.json', studyJson(doc));
-  const written = withSigintHeld(() => output.commit(plan.touchstone ? [{ folder: 'touchstone', prefix: 'case-' }] : []));
+  const written = output.commit(plan.touchstone ? [{ folder: 'touchstone', prefix: 'case-' }] : []);
   reportSweep(io, doc, records.length, written.length, out, csv.bytes);
   return 0;
 }

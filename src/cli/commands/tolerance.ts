@@ -15,9 +15,10 @@ import { toleranceDocument, toleranceHead } from '../../studies/tolerance-doc.ts
 import { SAMPLES_FILE, SAMPLES_HEADER, sampleRows } from '../../studies/tolerance-shard.ts';
 import { WarningTally } from '../../studies/warning-tally.ts';
 import type { Stack } from '../../stack/types.ts';
-import { InputError, numberOption, readArgs, UsageError, type Command, type Io } from '../command.ts';
-import { EXIT_INTERRUPTED, withSigintHeld } from '../signals.ts';
-import { checkOutputEstimate, outputCapFromArgs, shardFromArgs, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs } from '../studies/args.ts';
+import { numberOption, outDirFromArgs, readArgs, seedFromArgs, UsageError, type Command, type Io } from '../command.ts';
+import { reportStopped } from '../signals.ts';
+import { checkOutputEstimate, outputCapFromArgs } from '../budget-args.ts';
+import { refuseInvalidTasks, shardFromArgs, STUDY_ARG_OPTIONS, STUDY_ARG_USAGE, threadsFromArgs } from '../studies/args.ts';
 import { execute } from '../studies/execute.ts';
 import { OutputSet } from '../studies/output.ts';
 import { loadOrExplain } from './solve.ts';
@@ -57,12 +58,11 @@ export const tolerance: Command = {
       ...STUDY_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
-    const out = a.values.out;
-    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho tolerance --help)');
+    const out = outDirFromArgs(a.values, 'tolerance');
     const specs = (a.values.vary as string[] | undefined) ?? [];
     if (specs.length === 0) throw new UsageError('--vary PATH:normal:SD (or PATH:uniform:HALF) is required at least once');
     const samples = numberOption(a.values, 'samples', `must be a whole number from 2 to ${MAX_SAMPLES}`, (x) => Number.isInteger(x) && x >= 2 && x <= MAX_SAMPLES) ?? 1000;
-    const seed = numberOption(a.values, 'seed', 'must be a whole number from 0 to 4294967295', (x) => Number.isInteger(x) && x >= 0 && x <= 0xffffffff) ?? 1;
+    const seed = seedFromArgs(a.values);
     const shard = shardFromArgs(a.values), threads = threadsFromArgs(a.values), cap = outputCapFromArgs(a.values);
     const path = a.positionals[0];
     const { file, stack } = loadOrExplain(path, io);
@@ -85,21 +85,6 @@ export const tolerance: Command = {
   },
 };
 
-/** Every sample of [from, to) checked like a stack file; InputError listing the first problems. */
-function validateSamples(plan: TolerancePlan, values: Float64Array, from: number, to: number, io: Io, path: string): void {
-  const problems: string[] = [];
-  let bad = 0;
-  for (let s = from; s < to; s++) {
-    const c = sampleStack(plan, values, s);
-    if (c.ok) continue;
-    bad++;
-    if (problems.length < 10) problems.push(...c.errors.slice(0, 10 - problems.length));
-  }
-  if (bad === 0) return;
-  for (const p of problems) io.err(`${path}: ${p}`);
-  throw new InputError(`${bad} of ${to - from} samples ${bad === 1 ? 'is' : 'are'} invalid; nothing was computed or written`);
-}
-
 async function runTolerance(plan: TolerancePlan, nominal: Stack, o: { shard: Shard | null; threads: number | undefined; cap: number },
   out: string, io: Io, path: string): Promise<number> {
   const { shard, threads } = o;
@@ -112,7 +97,7 @@ async function runTolerance(plan: TolerancePlan, nominal: Stack, o: { shard: Sha
     { name: 'tolerance.json', bytes: 20_000 + 3 * JSON.stringify(plan.base).length }, // the stack, twice more in the worst samples
     { name: SAMPLES_FILE, bytes: shard ? (to - from) * f_Hz.length * 7 * 20 : 0 },
   ], o.cap);
-  validateSamples(plan, values, from, to, io, path);
+  refuseInvalidTasks(from, to, (k) => sampleStack(plan, values, k), 'sample', io, path);
   io.err(`tolerance: ${plan.samples} samples of ${plan.varies.length} value${plan.varies.length === 1 ? '' : 's'}, seed ${plan.seed}` +
     `${shard ? `, shard ${shard.index}/${shard.count}: samples ${from} to ${to - 1}` : ''}; ${f_Hz.length} frequencies`);
   const head = await toleranceHead(plan, nominal);
@@ -131,12 +116,12 @@ async function runTolerance(plan: TolerancePlan, nominal: Stack, o: { shard: Sha
       raw?.write(sampleRows(sample!, f_Hz));
     },
   });
-  if (end === 'stopped') { io.err('slabecho tolerance: stopped (Ctrl-C); nothing was written'); return EXIT_INTERRUPTED; }
+  if (end === 'stopped') return reportStopped(io, 'tolerance');
   const extremes = table.extremes as BandExtremes[];
   const doc = toleranceDocument(head, plan, values, extremes, tally.list(), shard ? { ...shard, cases: [from, to] } : null);
   if (!shard) output.add('tolerance.csv', formatCsv(table.percentileColumns(f_Hz)));
   output.add('tolerance.json', studyJson(doc));
-  const written = withSigintHeld(() => output.commit());
+  const written = output.commit();
   reportTolerance(io, doc, written);
   return 0;
 }

@@ -18,9 +18,9 @@ import { runTune, type TuneSetup } from '../../tune/tune.ts';
 import { DEFAULT_BUDGET, plainBytes, plainDuration, type WorkBudget } from '../../report/budget.ts';
 import { estimateTune } from '../../tune/estimate.ts';
 import { BUDGET_ARG_OPTIONS, budgetFromArgs } from '../budget-args.ts';
-import { InputError, numberOption, readArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
+import { InputError, numberOption, outDirFromArgs, readArgs, seedFromArgs, UsageError, type Command, type Io, type ParsedArgs } from '../command.ts';
 import { ensureDir, readTextFile, textFile, writeFilesAtomic } from '../io.ts';
-import { EXIT_INTERRUPTED, watchInterrupt } from '../signals.ts';
+import { reportStopped, watchInterrupt } from '../signals.ts';
 import { loadOrExplain } from './solve.ts';
 
 /** Default budget: evaluations per free parameter (the global and local stages together). */
@@ -77,8 +77,7 @@ export const tune: Command = {
       ...BUDGET_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
-    const out = a.values.out;
-    if (typeof out !== 'string' || out === '') throw new UsageError('--out DIR is required (see slabecho tune --help)');
+    const out = outDirFromArgs(a.values, 'tune');
     if (typeof a.values.goal !== 'string') throw new UsageError('--goal is required: min-worst-R, max-worst-T or match=MEASURED.csv (see slabecho tune --help)');
     const freeTexts = (a.values.free as string[] | undefined) ?? [];
     if (freeTexts.length === 0) throw new UsageError('--free PATH=LO:HI is required, at least once (see slabecho tune --help)');
@@ -124,7 +123,7 @@ function setupFromArgs(values: ParsedArgs['values'], file: StackFile, stack: Sta
     goal = { name: parsed.name, cases };
   }
   const perParameter = parsed.name === 'match' ? BUDGET_PER_PARAMETER.match : BUDGET_PER_PARAMETER.search;
-  const seed = numberOption(values, 'seed', 'must be a whole number from 0 to 4294967295', (x) => Number.isInteger(x) && x >= 0 && x < 2 ** 32) ?? 1;
+  const seed = seedFromArgs(values);
   const budget = numberOption(values, 'budget', `must be a whole number from ${free.length + 2} to ${MAX_BUDGET}`,
     (x) => Number.isInteger(x) && x >= free.length + 2 && x <= MAX_BUDGET) ?? perParameter * free.length;
   return { file, free, goal, goalText, seed, budget };
@@ -170,7 +169,7 @@ async function runAndWrite(setup: TuneSetup, out: string, io: Io, limits: Return
   } finally {
     interrupt.dispose();
   }
-  if (outcome.stopped || interrupt.interrupted()) { io.err('slabecho tune: stopped (Ctrl-C); nothing was written'); return EXIT_INTERRUPTED; }
+  if (outcome.stopped || interrupt.interrupted()) return reportStopped(io, 'tune');
   ensureDir(out);
   const written = writeFilesAtomic(out, [
     textFile('tuned.stack.json', studyJson(outcome.tunedFile)),

@@ -1,45 +1,25 @@
-// Options the study commands share: --methods, --shard, --threads, --touchstone/--deembed-mm, and the progress
-// line per finished case.
+// Options the study commands share: --methods, --shard, --threads, --touchstone/--deembed-mm (--max-output-MB is
+// budget-args.ts's), the check of every case before any work, and the progress line per finished case.
 
 import { STUDY_METHODS, type StudyMethod } from '../../studies/case.ts';
 import { parseShard, type Shard } from '../../studies/grid.ts';
 import type { PlaneShift } from '../../studies/sparams.ts';
 import { readDecimal } from '../../studies/values.ts';
+import { DEFAULT_BUDGET } from '../../report/budget.ts';
+import { BUDGET_ARG_OPTIONS } from '../budget-args.ts';
 import { InputError, numberOption, UsageError, type Io, type ParsedArgs } from '../command.ts';
 
 export const STUDY_ARG_OPTIONS = {
   shard: { type: 'string' },
   threads: { type: 'string' },
-  'max-output-MB': { type: 'string' },
+  'max-output-MB': BUDGET_ARG_OPTIONS['max-output-MB'],
 } as const;
-
-/** The files a study writes may total this many bytes unless --max-output-MB says otherwise. */
-export const DEFAULT_OUTPUT_CAP_bytes = 50e6;
 
 export const STUDY_ARG_USAGE = `  --shard K/N                run only the K-th of N equal slices of the cases (K from 0 to N - 1);
                              "slabecho merge" joins the shards' folders
   --threads N                worker threads (default: every core; small studies run in one)
-  --max-output-MB M          the files written may total at most M megabytes (10^6 bytes; default ${DEFAULT_OUTPUT_CAP_bytes / 1e6}):
+  --max-output-MB M          the files written may total at most M megabytes (10^6 bytes; default ${DEFAULT_BUDGET.maxOutput_bytes / 1e6}):
                              a study estimated above it is refused before any work`;
-
-/** --max-output-MB in bytes. */
-export function outputCapFromArgs(values: ParsedArgs['values']): number {
-  const mb = numberOption(values, 'max-output-MB', 'must be a number of megabytes > 0, e.g. 500', (x) => x > 0 && x <= 1e7);
-  return mb === undefined ? DEFAULT_OUTPUT_CAP_bytes : mb * 1e6;
-}
-
-/**
- * Refuses a study whose files are estimated above the cap, before any work (InputError, exit 2), naming the
- * biggest file and what to change.
- */
-export function checkOutputEstimate(command: string, parts: { name: string; bytes: number }[], cap: number): void {
-  const total = parts.reduce((s, p) => s + p.bytes, 0);
-  if (total <= cap) return;
-  const list = parts.filter((p) => p.bytes > 0).map((p) => `${p.name} ${sizeText(p.bytes)}`).join(', ');
-  throw new InputError(`${command}: the output would be about ${sizeText(total)} (${list}), over the limit of ${sizeText(cap)} ` +
-    `(--max-output-MB ${cap / 1e6}); raise the limit, use fewer cases, samples or points, or split the study with --shard K/N ` +
-    '(each shard writes its own part); nothing was computed or written');
-}
 
 /** --methods tmm,fem,fdtd: the exact solution always, the others as listed (default tmm,fem). */
 export function methodsFromArgs(values: ParsedArgs['values']): StudyMethod[] {
@@ -101,9 +81,24 @@ export function caseProgress(io: Io, command: string, noun: string, total: numbe
   };
 }
 
-/** "12 MB", "340 kB": an output size for a message. */
-export function sizeText(bytes: number): string {
-  if (bytes >= 1e9) return `${(bytes / 1e9).toFixed(1)} GB`;
-  if (bytes >= 1e6) return `${(bytes / 1e6).toFixed(1)} MB`;
-  return `${Math.max(1, Math.round(bytes / 1e3))} kB`;
+/** At most this many problems are listed when cases or samples are invalid. */
+const MAX_LISTED = 10;
+
+/**
+ * Every task of [from, to) checked like a stack file before any work: InputError counting the invalid ones
+ * (`noun`: "case" or "sample"), after listing the first problems on stderr against the stack file's `path`.
+ */
+export function refuseInvalidTasks(from: number, to: number, check: (k: number) => { ok: boolean; errors?: readonly string[] },
+  noun: string, io: Io, path: string): void {
+  const problems: string[] = [];
+  let bad = 0;
+  for (let k = from; k < to; k++) {
+    const c = check(k);
+    if (c.ok) continue;
+    bad++;
+    for (const e of c.errors ?? []) if (problems.length < MAX_LISTED) problems.push(e);
+  }
+  if (bad === 0) return;
+  for (const p of problems) io.err(`${path}: ${p}`);
+  throw new InputError(`${bad} of ${to - from} ${noun}s ${bad === 1 ? 'is' : 'are'} invalid; nothing was computed or written`);
 }

@@ -1,12 +1,12 @@
 // A study's output files, written as it runs and put in place together at the end: each file is streamed into a
-// temporary file beside its target (".NAME.<pid>.<random>.tmp"), and `commit` renames them all; `abort` (Ctrl-C,
+// temporary file beside its target (named like io.ts's, ".NAME.<pid>.<random>.tmp"), and `commit` renames them all; `abort` (Ctrl-C,
 // an error) removes them, so the folder keeps its previous files and never holds half a file.
 
 import { closeSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmSync, writeSync } from 'node:fs';
-import { randomBytes } from 'node:crypto';
 import { basename, dirname, join } from 'node:path';
 import { InputError } from '../command.ts';
-import { ensureDir } from '../io.ts';
+import { ensureDir, tempName } from '../io.ts';
+import { withSigintHeld } from '../signals.ts';
 
 export interface StreamedFile {
   /** Text, or UTF-8 bytes. */
@@ -28,7 +28,7 @@ export class OutputSet {
   private openTemp(name: string): Pending {
     const target = join(this.dir, name);
     mkdirSync(dirname(target), { recursive: true });
-    const temp = join(dirname(target), `.${basename(target)}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
+    const temp = tempName(target);
     let fd: number;
     try { fd = openSync(temp, 'wx'); } catch (e) { throw this.failure(e); }
     const p: Pending = { target, temp, fd, bytes: 0 };
@@ -74,9 +74,14 @@ export class OutputSet {
 
   /**
    * Rename every file into place and return their paths. Files named `<prefix>*` in `staleIn` that this set did
-   * not write (left by an earlier, larger study) are removed, so the folder holds one study's files.
+   * not write (left by an earlier, larger study) are removed, so the folder holds one study's files. A Ctrl-C
+   * arriving meanwhile waits until every rename is done.
    */
   commit(staleIn: { folder: string; prefix: string }[] = []): string[] {
+    return withSigintHeld(() => this.renameAll(staleIn));
+  }
+
+  private renameAll(staleIn: { folder: string; prefix: string }[]): string[] {
     if (this.done) throw new Error('OutputSet: already committed or aborted');
     for (const p of this.pending) this.close(p);
     this.done = true;
