@@ -72,12 +72,7 @@ export class Engine {
   /** Ask for the next frame (`steps` further); its tag, or 0 when one is already on its way. */
   advance(steps: number): number {
     if (this.advanceInFlight || this.pulseId === 0) return 0;
-    this.advanceInFlight = true;
-    const recycle = this.spare;
-    this.spare = null;
-    const tag = this.nextTag++;
-    this.post(this.live, { kind: 'advance', id: this.pulseId, tag, steps, recycle });
-    return tag;
+    return this.askFrame((tag, recycle) => ({ kind: 'advance', id: this.pulseId, tag, steps, recycle }));
   }
 
   /** Back to step 0 of the current run; a frame follows. */
@@ -90,11 +85,16 @@ export class Engine {
   /** A fresh run of the current stack at exactly `step`; a frame with the returned tag follows (0: no run). */
   seek(step: number): number {
     if (this.pulseId === 0) return 0;
+    return this.askFrame((tag, recycle) => ({ kind: 'seek', id: this.pulseId, tag, step, recycle }));
+  }
+
+  /** Send the live worker a request for a frame (handing back the spare frame's buffers); returns its tag. */
+  private askFrame(message: (tag: number, recycle: FieldFrame | null) => ToWorker): number {
     this.advanceInFlight = true;
     const recycle = this.spare;
     this.spare = null;
     const tag = this.nextTag++;
-    this.post(this.live, { kind: 'seek', id: this.pulseId, tag, step, recycle });
+    this.post(this.live, message(tag, recycle));
     return tag;
   }
 

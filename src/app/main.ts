@@ -10,13 +10,17 @@ import { Engine, type Solved } from './engine.ts';
 import { FieldView, type FieldViewOptions } from './fieldView.ts';
 import type { WorkbenchStats } from './stats.ts';
 import { exportZip } from './exporter.ts';
-import { loadStoredOrigin, loadStoredSettings, loadStoredStack, originLabel, storeOrigin, storeSettings, storeStack, type Origin } from './persist.ts';
+import { loadStoredSettings, originLabel, storeOrigin, storeSettings, storeStack, type Origin } from './persist.ts';
 import { describe as describeValue } from '../stack/problems.ts';
-import { DEFAULT_PRESET, PRESETS, presetFile } from './presets.ts';
+import { PRESETS, presetFile } from './presets.ts';
 import type { FieldFrame, PulseGeometry, WireReport } from './protocol.ts';
 import { downloadBlob, fileStem } from './download.ts';
 import { autoStepsPerFrame, CLIP_FPS, readSettings, type Settings } from './settings.ts';
 import { makeClip, type Clip } from './clip/session.ts';
+import { clipSavedNote, clipStats } from './clip/saved.ts';
+import { initialStack } from './initialStack.ts';
+import { wirePlayKeys } from './keys.ts';
+import { viewTexts } from './viewTexts.ts';
 import { sketchStack, type StackSketch } from './sketch.ts';
 import { Messages } from './messages.ts';
 import { adoptGuiStyles } from './guiStyles.ts';
@@ -32,8 +36,6 @@ import type { SweepResult, ToleranceResult } from './studies/compute.ts';
 import type { QuantityName } from '../studies/quantities.ts';
 import { TunePanel, type TuneHost } from './tune/panel.ts';
 import type { MeasuredOverlay, ToleranceOverlay } from './views/spectrumView.ts';
-import { formatCsv } from '../report/table.ts';
-import { csvGrid, spacetimeCsv } from './spacetime/csv.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
 
 const $ = <T extends HTMLElement>(testid: string): T => {
@@ -133,7 +135,7 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
     this.tuning = new TunePanel($('controls'), this);
     this.drawStudyMap();
     this.wireButtons();
-    this.wireKeys();
+    wirePlayKeys({ togglePlay: () => this.togglePlay(), stepOnce: () => this.stepOnce() });
     this.showTitle();
     this.showWarnings();
     this.solveNow();
@@ -211,15 +213,7 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
   loadPreset(name: string): void {
     const r = parseStackObject(presetFile(name));
     if (!r.ok) { this.messages.show('edit', 'error', `Preset ${name} is invalid:`, r.errors); return; }
-    this.clearRefusals();
-    this.apply(r.file, r.stack, r.warnings);
-    this.origin = { kind: 'preset', name, edited: false };
-    storeOrigin(this.origin);
-    this.field.resetFraming();
-    this.controls.refresh();
-    this.editor.refresh();
-    this.studies.refresh();
-    this.tuning.refresh();
+    this.adoptLoaded(r, { kind: 'preset', name, edited: false });
   }
 
   importText(name: string, text: string): void {
@@ -228,16 +222,21 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
       this.messages.show('import', 'error', `${name} was not loaded (the current stack is kept):`, r.errors);
       return;
     }
+    this.adoptLoaded(r, { kind: 'import', name, edited: false });
+    this.messages.show('import', 'info', `Loaded ${name}.`, []);
+  }
+
+  /** A whole new stack (a preset or an imported file): it replaces the current one and every panel shows it afresh. */
+  private adoptLoaded(r: { file: StackFile; stack: Stack; warnings: string[] }, origin: Origin): void {
     this.clearRefusals();
     this.apply(r.file, r.stack, r.warnings);
-    this.origin = { kind: 'import', name, edited: false };
+    this.origin = origin;
     storeOrigin(this.origin);
     this.field.resetFraming();
     this.controls.refresh();
     this.editor.refresh();
     this.studies.refresh();
     this.tuning.refresh();
-    this.messages.show('import', 'info', `Loaded ${name}.`, []);
   }
 
   private apply(file: StackFile, stack: Stack, warnings: string[]): void {
@@ -603,14 +602,9 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
       if (clip === null) { this.messages.show('record', 'info', 'The clip was cancelled.', []); return; }
       const name = `${fileStem(this.file.title)}.${clip.extension}`;
       this.lastClip = { version, name, clip };
-      this.stats.lastClip = {
-        name, description: clip.description, frames: clip.frames, fps: clip.fps, duration_s: clip.duration_s, bytes: clip.blob.size,
-        start_ns: clip.start_ns, end_ns: clip.end_ns, arrival_ns: clip.arrival_ns, stepsPerFrame: clip.stepsPerFrame,
-      };
+      this.stats.lastClip = clipStats(name, clip);
       downloadBlob(name, clip.blob);
-      this.messages.show('record', 'info', `Clip saved as ${name}: ${clip.duration_s.toFixed(1)} s, ${clip.frames} frames of ${clip.stepsPerFrame} steps, `
-        + `t = ${clip.start_ns.toFixed(3)} to ${clip.end_ns.toFixed(3)} ns${clip.ends === 'run-end' ? ' (the run ended before the view was quiet)' : ''}, `
-        + `${clip.description}, ${(clip.blob.size / 1024).toFixed(0)} KiB.`, []);
+      this.messages.show('record', 'info', clipSavedNote(name, clip), []);
     } catch (e) {
       this.messages.show('record', 'error', 'The clip could not be made:', [e instanceof Error ? e.message : String(e)]);
     } finally {
@@ -675,41 +669,6 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
     $('about-close').addEventListener('click', () => about.close());
   }
 
-  private wireKeys(): void {
-    const typing = (e: KeyboardEvent): boolean => {
-      const t = e.target as HTMLElement | null;
-      return t !== null && t.closest('input, select, textarea, dialog, [contenteditable="true"]') !== null;
-    };
-    const isSpace = (e: KeyboardEvent): boolean => e.key === ' ' || e.code === 'Space';
-    window.addEventListener('keydown', (e) => {
-      if (typing(e) || e.altKey || e.ctrlKey || e.metaKey) return;
-      if (isSpace(e)) { e.preventDefault(); if (!e.repeat) this.togglePlay(); }
-      else if (e.key === 'ArrowRight') { e.preventDefault(); this.stepOnce(); }
-    });
-    // Space on a focused button would also click it on key-up: space always means play/pause here.
-    window.addEventListener('keyup', (e) => { if (isSpace(e) && !typing(e)) e.preventDefault(); });
-  }
-
-  /** Files of the views beyond the CLI's tables, with a README line each. */
-  private exportTexts(): Array<{ name: string; text: string; about: string }> {
-    const out: Array<{ name: string; text: string; about: string }> = [];
-    const t = this.tolerance;
-    if (t !== null && t.version === this.version) {
-      out.push({ name: 'tolerance.csv', text: formatCsv(t.result.columns),
-        about: `tolerance.csv: the tolerance study's percentiles (${t.result.samples} samples, seed ${t.result.seed}, varying ${t.result.varies.join('; ')}), as \`slabecho tolerance\` writes them` });
-    }
-    const map = this.reportCurrent()?.spacetime ?? null;
-    if (map !== null) {
-      const g = csvGrid(map), field = this.settings.spacetimeField;
-      out.push({
-        name: 'spacetime.csv', text: spacetimeCsv(map, field),
-        about: `spacetime.csv: the ${field} field E/E0 of the space–time map, t_ns,x_mm,E, on ${g.times} times ${+g.dt_ns.toPrecision(4)} ns apart`
-          + ` × ${g.positions} positions ${+g.dx_mm.toPrecision(4)} mm apart (every ${g.every_row * map.stepsPerRow} steps of the run, every ${g.every_column}th grid node of the view)`,
-      });
-    }
-    return out;
-  }
-
   private async exportNow(): Promise<void> {
     this.field.render();
     const clip = this.lastClip !== null && this.lastClip.version === this.version ? { name: this.lastClip.name, blob: this.lastClip.clip.blob } : null;
@@ -727,7 +686,8 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
           ['spacetime-view', this.spacetime.canvas],
           ...(this.sweep?.version === this.version ? [['study-view', this.studyMap.canvas] as [string, HTMLCanvasElement]] : []),
         ],
-        texts: this.exportTexts(),
+        texts: viewTexts(this.tolerance?.version === this.version ? this.tolerance.result : null,
+          this.reportCurrent()?.spacetime ?? null, this.settings.spacetimeField),
         clip,
         date: new Date(),
       });
@@ -737,21 +697,6 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
       this.messages.show('export', 'error', 'The export failed:', [e instanceof Error ? e.message : String(e)]);
     }
   }
-}
-
-function initialStack(): { file: StackFile; stack: Stack; warnings: string[]; origin: Origin; note: string | null } {
-  const stored = loadStoredStack();
-  const preset: Origin = { kind: 'preset', name: DEFAULT_PRESET, edited: false };
-  if (stored !== undefined) {
-    const r = parseStackObject(stored);
-    // A stack stored before origins were kept is shown as an edited default.
-    if (r.ok) return { ...r, origin: loadStoredOrigin() ?? { ...preset, edited: true }, note: null };
-  }
-  const r = parseStackObject(presetFile(DEFAULT_PRESET));
-  if (r.ok) return { ...r, origin: preset, note: stored !== undefined ? 'The stored stack was unreadable; the default preset is loaded.' : null };
-  const empty = parseStackObject({ title: 'Empty stack', band_GHz: [1, 10], layers: [] });
-  if (!empty.ok) throw new Error(empty.errors.join('\n'));
-  return { ...empty, origin: preset, note: `The default preset is invalid: ${r.errors.join('; ')}` };
 }
 
 adoptGuiStyles();

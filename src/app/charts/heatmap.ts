@@ -3,6 +3,7 @@
 // drawn), a colour bar, and the frame with its two axes' ticks. Everything goes into the view's one canvas.
 
 import { THEME } from '../theme.ts';
+import { ReadoutBox } from './readoutBox.ts';
 import { niceTicks, tickLabel } from './ticks.ts';
 
 /** 256 colours (r, g, b) sampled from an interpolator over [0, 1]. */
@@ -140,4 +141,49 @@ export function sizeCanvas(canvas: HTMLCanvasElement, w: number, h: number): Can
   if (ctx === null) throw new Error('2D canvas unavailable');
   ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
   return ctx;
+}
+
+/** The padding around a map's plot: room for the axes' labels and, on the right, the colour bar. */
+export interface MapPadding { left: number; right: number; top: number; bottom: number }
+
+/**
+ * A map panel's canvas sized to its host (at least 300 px wide), cleared to the panel colour, with its title at
+ * the top left; returns the context, the width and where the subtitle begins.
+ */
+export function beginMapPanel(canvas: HTMLCanvasElement, host: HTMLElement, height: number, title: string): { ctx: CanvasRenderingContext2D; w: number; subtitleAt: number } {
+  const w = Math.max(300, Math.floor(host.clientWidth));
+  const ctx = sizeCanvas(canvas, w, height);
+  ctx.fillStyle = THEME.panel;
+  ctx.fillRect(0, 0, w, height);
+  ctx.fillStyle = THEME.ink;
+  ctx.font = `600 13px ${THEME.font}`;
+  ctx.textAlign = 'left';
+  ctx.fillText(title, 12, 20);
+  return { ctx, w, subtitleAt: 12 + ctx.measureText(title).width + 10 };
+}
+
+/** The plot's rectangle in a map panel `w` × `height` px. */
+export const mapPlotRect = (w: number, height: number, pad: MapPadding): Rect =>
+  ({ left: pad.left, top: pad.top, width: w - pad.left - pad.right, height: height - pad.top - pad.bottom });
+
+/** The colour bar beside a map's plot, from `lo` (bottom) to `hi`, titled `label`. */
+export function paintColourBarBeside(ctx: CanvasRenderingContext2D, plot: Rect, lut: Uint8ClampedArray, lo: number, hi: number, label: string): void {
+  paintColourBar(ctx, { left: plot.left + plot.width + 22, top: plot.top + 14, width: 14, height: plot.height - 14 }, lut, lo, hi, label);
+}
+
+/** Whether a pointer at (px, py) is over the frame's plot. */
+export const overPlot = (f: Frame2, px: number, py: number): boolean =>
+  px >= f.rect.left && px <= f.rect.left + f.rect.width && py >= f.rect.top && py <= f.rect.top + f.rect.height;
+
+/**
+ * A map panel's host and canvas wired up: redrawn (`request`) when the host is resized, a readout box
+ * (`readoutId`) shown by `hover` while the pointer moves over the canvas and hidden when it leaves.
+ */
+export function wireMapCanvas(host: HTMLElement, canvas: HTMLCanvasElement, readoutId: string, request: () => void,
+  hover: (px: number, py: number) => void): ReadoutBox {
+  const readout = new ReadoutBox(host, readoutId);
+  new ResizeObserver(() => request()).observe(host);
+  canvas.addEventListener('pointermove', (e) => hover(e.offsetX, e.offsetY));
+  canvas.addEventListener('pointerleave', () => readout.hide());
+  return readout;
 }

@@ -6,9 +6,11 @@
 
 import { interpolatePuOr } from 'd3-scale-chromatic';
 import type { EchoRays } from '../../echoes/rays.ts';
-import { ReadoutBox } from '../charts/readoutBox.ts';
+import type { ReadoutBox } from '../charts/readoutBox.ts';
 import { nearestIndex, readoutValue } from '../charts/readout.ts';
-import { colourTable, frameDataX, frameDataY, frameX, frameY, gridImage, paintAxes, paintColourBar, sizeCanvas, type Frame2 } from '../charts/heatmap.ts';
+import {
+  beginMapPanel, colourTable, frameDataX, frameDataY, frameX, frameY, gridImage, mapPlotRect, overPlot, paintAxes, paintColourBarBeside, wireMapCanvas, type Frame2,
+} from '../charts/heatmap.ts';
 import { fitText } from '../charts/paint.ts';
 import type { StackSketch } from '../sketch.ts';
 import { THEME } from '../theme.ts';
@@ -57,10 +59,7 @@ export class SpacetimeView {
     this.now.className = 'spacetime-now';
     this.now.hidden = true;
     host.append(this.canvas, this.now);
-    this.readout = new ReadoutBox(host, 'spacetime-view-readout');
-    new ResizeObserver(() => this.request()).observe(host);
-    this.canvas.addEventListener('pointermove', (e) => this.hover(e.offsetX, e.offsetY));
-    this.canvas.addEventListener('pointerleave', () => this.readout.hide());
+    this.readout = wireMapCanvas(host, this.canvas, 'spacetime-view-readout', () => this.request(), (px, py) => this.hover(px, py));
   }
 
   show(input: SpacetimeInput, look: SpacetimeLook): void {
@@ -92,15 +91,7 @@ export class SpacetimeView {
   }
 
   draw(): void {
-    const w = Math.max(300, Math.floor(this.host.clientWidth));
-    const ctx = sizeCanvas(this.canvas, w, HEIGHT);
-    ctx.fillStyle = THEME.panel;
-    ctx.fillRect(0, 0, w, HEIGHT);
-    ctx.fillStyle = THEME.ink;
-    ctx.font = `600 13px ${THEME.font}`;
-    ctx.textAlign = 'left';
-    ctx.fillText('Space–time map', 12, 20);
-    const subtitleAt = 12 + ctx.measureText('Space–time map').width + 10;
+    const { ctx, w, subtitleAt } = beginMapPanel(this.canvas, this.host, HEIGHT, 'Space–time map');
     const input = this.input, m = input?.map ?? null;
     this.frame = null;
     this.rays = [];
@@ -123,7 +114,7 @@ export class SpacetimeView {
     ctx.fillText(fitText(ctx, `${what} · ${m.t_ns.length} × ${m.x_mm.length} samples, every ${m.stepsPerRow} steps${input.note ? ` · ${input.note}` : ''}`, w - subtitleAt - 12), subtitleAt, 20);
     const nx = m.x_mm.length, nt = m.t_ns.length;
     const dx = nx > 1 ? (m.x_mm[nx - 1] - m.x_mm[0]) / (nx - 1) : 1, dt = nt > 1 ? (m.t_ns[nt - 1] - m.t_ns[0]) / (nt - 1) : 1;
-    const rect = { left: PAD.left, top: PAD.top, width: w - PAD.left - PAD.right, height: HEIGHT - PAD.top - PAD.bottom };
+    const rect = mapPlotRect(w, HEIGHT, PAD);
     const f: Frame2 = { rect, x: [m.x_mm[0] - dx / 2, m.x_mm[nx - 1] + dx / 2], y: [m.t_ns[0] - dt / 2, m.t_ns[nt - 1] + dt / 2], yDown: true };
     this.frame = f;
     const values = look.field === 'total' ? m.total : m.scattered;
@@ -143,13 +134,13 @@ export class SpacetimeView {
     if (look.rays && input.rays !== null) this.rays = paintRays(ctx, f, drawnRays(input.rays, f.x[0], f.x[1]));
     ctx.restore();
     paintAxes(ctx, f, 'position x (mm), front face at 0', 'run time t (ns)');
-    paintColourBar(ctx, { left: rect.left + rect.width + 22, top: rect.top + 14, width: 14, height: rect.height - 14 }, LUT, -range, range, 'E / E₀');
+    paintColourBarBeside(ctx, rect, LUT, -range, range, 'E / E₀');
     this.draws++;
   }
 
   private hover(px: number, py: number): void {
     const f = this.frame, m = this.input?.map;
-    if (f === null || m === null || m === undefined || px < f.rect.left || px > f.rect.left + f.rect.width || py < f.rect.top || py > f.rect.top + f.rect.height) {
+    if (f === null || m === null || m === undefined || !overPlot(f, px, py)) {
       this.readout.hide();
       return;
     }

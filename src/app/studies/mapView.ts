@@ -5,9 +5,11 @@
 
 import { interpolateCividis } from 'd3-scale-chromatic';
 import type { QuantityName } from '../../studies/quantities.ts';
-import { ReadoutBox } from '../charts/readoutBox.ts';
+import type { ReadoutBox } from '../charts/readoutBox.ts';
 import { nearestIndex, readoutValue } from '../charts/readout.ts';
-import { colourTable, frameDataX, frameDataY, frameY, gridImage, paintAxes, paintColourBar, sizeCanvas, type Frame2 } from '../charts/heatmap.ts';
+import {
+  beginMapPanel, colourTable, frameDataX, frameDataY, frameY, gridImage, mapPlotRect, overPlot, paintAxes, paintColourBarBeside, wireMapCanvas, type Frame2,
+} from '../charts/heatmap.ts';
 import { fitText } from '../charts/paint.ts';
 import { THEME } from '../theme.ts';
 import type { SweepResult } from './compute.ts';
@@ -37,10 +39,7 @@ export class StudyMapView {
     this.canvas = document.createElement('canvas');
     this.canvas.className = 'chart-canvas';
     host.append(this.canvas);
-    this.readout = new ReadoutBox(host, 'study-view-readout');
-    new ResizeObserver(() => this.request()).observe(host);
-    this.canvas.addEventListener('pointermove', (e) => this.hover(e.offsetX, e.offsetY));
-    this.canvas.addEventListener('pointerleave', () => this.readout.hide());
+    this.readout = wireMapCanvas(host, this.canvas, 'study-view-readout', () => this.request(), (px, py) => this.hover(px, py));
   }
 
   show(sweep: SweepResult | null, quantity: QuantityName, note: string): void {
@@ -63,15 +62,7 @@ export class StudyMapView {
   }
 
   draw(): void {
-    const w = Math.max(300, Math.floor(this.host.clientWidth));
-    const ctx = sizeCanvas(this.canvas, w, HEIGHT);
-    ctx.fillStyle = THEME.panel;
-    ctx.fillRect(0, 0, w, HEIGHT);
-    ctx.fillStyle = THEME.ink;
-    ctx.font = `600 13px ${THEME.font}`;
-    ctx.textAlign = 'left';
-    ctx.fillText('Sweep map', 12, 20);
-    const at = 12 + ctx.measureText('Sweep map').width + 10;
+    const { ctx, w, subtitleAt: at } = beginMapPanel(this.canvas, this.host, HEIGHT, 'Sweep map');
     this.frame = null;
     const s = this.sweep;
     ctx.font = `12px ${THEME.font}`;
@@ -90,7 +81,7 @@ export class StudyMapView {
     const v = this.order.map((i) => s.values[i]);
     const edge = (k: number): number => (k <= 0 ? v[0] - (ny > 1 ? (v[1] - v[0]) / 2 : 0.5) : k >= ny ? v[ny - 1] + (ny > 1 ? (v[ny - 1] - v[ny - 2]) / 2 : 0.5) : (v[k - 1] + v[k]) / 2);
     const df = nx > 1 ? (s.f_GHz[nx - 1] - s.f_GHz[0]) / (nx - 1) : 1;
-    const rect = { left: PAD.left, top: PAD.top, width: w - PAD.left - PAD.right, height: HEIGHT - PAD.top - PAD.bottom };
+    const rect = mapPlotRect(w, HEIGHT, PAD);
     const f: Frame2 = { rect, x: [s.f_GHz[0] - df / 2, s.f_GHz[nx - 1] + df / 2], y: [edge(0), edge(ny)], yDown: false };
     this.frame = f;
     let lo = Infinity, hi = -Infinity;
@@ -103,12 +94,12 @@ export class StudyMapView {
       ctx.drawImage(this.image!, 0, row, nx, 1, rect.left, top, rect.width, bottom - top);
     });
     paintAxes(ctx, f, 'frequency (GHz)', s.path);
-    paintColourBar(ctx, { left: rect.left + rect.width + 22, top: rect.top + 14, width: 14, height: rect.height - 14 }, LUT, lo, hi, this.quantity);
+    paintColourBarBeside(ctx, rect, LUT, lo, hi, this.quantity);
   }
 
   private hover(px: number, py: number): void {
     const f = this.frame, s = this.sweep;
-    if (f === null || s === null || px < f.rect.left || px > f.rect.left + f.rect.width || py < f.rect.top || py > f.rect.top + f.rect.height) {
+    if (f === null || s === null || !overPlot(f, px, py)) {
       this.readout.hide();
       return;
     }
