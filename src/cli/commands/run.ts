@@ -23,6 +23,13 @@ import type { RunParallel } from '../../report/run.ts';
 
 export { EXIT_INTERRUPTED };
 
+/** The pulse run's options, shared by `run` and `sweep --methods …,fdtd`. */
+export const PULSE_ARG_OPTIONS = {
+  accuracy: { type: 'string' },
+  'cells-per-wavelength': { type: 'string' },
+  courant: { type: 'string' },
+} as const;
+
 /** Pulse options from the command line; UsageError (exit 2) naming the option. */
 export function pulseOptionsFromArgs(values: ParsedArgs['values']): PulseOptions {
   const out: PulseOptions = {};
@@ -96,9 +103,7 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
   async run(args, io) {
     const a = readArgs(run, args, io, {
       out: { type: 'string' },
-      accuracy: { type: 'string' },
-      'cells-per-wavelength': { type: 'string' },
-      courant: { type: 'string' },
+      ...PULSE_ARG_OPTIONS,
       'echo-floor': { type: 'string' },
       ...FEM_ARG_OPTIONS,
       ...MEDIA_ARG_OPTIONS,

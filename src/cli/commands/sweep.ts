@@ -20,7 +20,7 @@ import {
 } from '../studies/args.ts';
 import { execute, studyThreads } from '../studies/execute.ts';
 import { OutputSet } from '../studies/output.ts';
-import { pulseOptionsFromArgs } from './run.ts';
+import { PULSE_ARG_OPTIONS, pulseOptionsFromArgs } from './run.ts';
 import { loadOrExplain } from './solve.ts';
 
 /** The axes from --angle, --polarization and --set; UsageError naming the option. */
@@ -96,8 +96,7 @@ export const sweep: Command = {
     const a = readArgs(sweep, args, io, {
       out: { type: 'string' }, angle: { type: 'string' }, polarization: { type: 'string' },
       set: { type: 'string', multiple: true }, methods: { type: 'string' },
-      accuracy: { type: 'string' }, 'cells-per-wavelength': { type: 'string' }, courant: { type: 'string' },
-      ...TOUCHSTONE_ARG_OPTIONS, ...STUDY_ARG_OPTIONS, ...FEM_ARG_OPTIONS,
+      ...PULSE_ARG_OPTIONS, ...TOUCHSTONE_ARG_OPTIONS, ...STUDY_ARG_OPTIONS, ...FEM_ARG_OPTIONS,
     }, [1, 1]);
     if (a === null) return 0;
     const out = outDirFromArgs(a.values, 'sweep');
