@@ -129,6 +129,23 @@ function breakStack(file: Json, m: typeof mutation extends fc.Arbitrary<infer T>
 
 interface Outcome { command: string; code: number; err: string; seconds: number }
 
+/**
+ * The first cell of a CSV's rows (its header skipped) that is not a finite number, named with its line, or null.
+ * The numeric columns only for the echo tables (their path columns are text). One plain loop over every cell,
+ * one assertion per file: an assertion per cell cost a third of this file's time.
+ */
+function firstNonFinite(name: string, text: string): string | null {
+  const lines = text.trimEnd().split('\n');
+  const numeric = name.startsWith('echoes') ? 4 : Infinity;
+  for (let i = 1; i < lines.length; i++) {
+    const cells = lines[i].split(',');
+    for (let k = 0; k < Math.min(numeric, cells.length); k++) {
+      if (!Number.isFinite(Number(cells[k]))) return `${name}: "${cells[k]}" in "${lines[i].slice(0, 80)}"`;
+    }
+  }
+  return null;
+}
+
 /** Every file of a finished solve/run: finite numbers only, and all of them within the output limit. */
 function checkOutputs(dir: string): void {
   let total = 0;
@@ -138,11 +155,7 @@ function checkOutputs(dir: string): void {
     total += statSync(path).size;
     const text = readFileSync(path, 'utf8');
     if (name.endsWith('.csv')) {
-      const lines = text.trimEnd().split('\n');
-      for (const line of lines.slice(1)) {
-        const cells = name.startsWith('echoes') ? line.split(',').slice(0, 4) : line.split(',');
-        for (const c of cells) expect(Number.isFinite(Number(c)), `${name}: "${c}" in "${line.slice(0, 80)}"`).toBe(true);
-      }
+      expect(firstNonFinite(name, text)).toBeNull();
     } else if (name.endsWith('.json')) {
       expect(text).not.toMatch(/NaN|Infinity/);
       JSON.parse(text);
