@@ -11,7 +11,7 @@ import { analyseEchoes, type EchoAnalysis, type EchoTable } from '../../src/echo
 import { bandPulse } from '../../src/echoes/band-pulse.ts';
 import type { BulkMaterial, Layer, SheetMaterial, Stack } from '../../src/stack/types.ts';
 import { AIR, dielectric, layer, makeStack } from '../support/build-stack.ts';
-import { exactRecords, expectExact } from './support.ts';
+import { envelopeValue, exactEnvelope, exactPeaks, exactRecords, expectExact } from './support.ts';
 import { EARLIEST_WIDTHS } from '../../src/echoes/detect.ts';
 
 const cat = (name: string) => catalogMaterial(name) as BulkMaterial;
@@ -130,5 +130,35 @@ describe('paths that cancel (a matched absorber: front face and conductor out of
     expect(i).toBe(0);
     expect(a.reflected.path[0]).toMatch(/front face \+ conductor/);
     expect(Math.abs(a.reflected.predicted_t_s[0] - a.reflected.t_s[0])).toBeLessThan(0.1 * W);
+  });
+});
+
+describe('interfering paths whose humps tie in height (a radome skin at a steep angle)', () => {
+  it('the prediction is the hump the detection took, not the other one a pulse width away', () => {
+    // An invented sandwich radome (0.8 mm skins of ε = 4.2, σ = 0.02 S/m, 10 mm foam of ε = 1.1), 2–18 GHz,
+    // 60° TE. The front face and the first skin's back face nearly cancel, so the exact envelope (support.ts,
+    // an FFT Hilbert envelope of the exact R) has two humps 0.16 ns apart, within 0.7 dB of each other, the
+    // first before the search window opens: one row at the window's start.
+    const skin = dielectric(4.2, 0.02, 'skin'), foam = dielectric(1.1, 0, 'foam');
+    const stack = makeStack({ band_GHz: [2, 18], angle_deg: 60, polarization: 'TE', layers: [layer(skin, 0.0008), layer(foam, 0.01), layer(skin, 0.0008)] });
+    const a = analyse(stack);
+    const W = bandPulse(stack.band_Hz).width_s;
+    expect(a.reflected.t_s.length).toBe(1);
+    expect(a.reflected.path[0]).toMatch(/^front face \+ back of layer 1 \(skin\)/);
+    expect(Math.abs(a.reflected.predicted_t_s[0] - a.reflected.t_s[0])).toBeLessThan(0.1 * W);
+    // each face's own echo sits at its closed-form delay, 2 Σ d √(ε' − sin²θ)/c (Born & Wolf §1.6; low loss)
+    const c0 = 299792458, s2 = Math.sin(Math.PI / 3) ** 2;
+    const oneSkin = (2 * 0.0008 * Math.sqrt(4.2 - s2)) / c0, oneFoam = (2 * 0.01 * Math.sqrt(1.1 - s2)) / c0;
+    const member = (path: string) => a.reflected.members[0].find((m) => m.path === path)!.t_s;
+    expect(Math.abs(member('back of layer 1 (skin)') - oneSkin)).toBeLessThan(0.02 * oneSkin);
+    expect(Math.abs(member('back of layer 2 (foam)') - (oneSkin + oneFoam))).toBeLessThan(0.02 * (oneSkin + oneFoam));
+    expect(Math.abs(member('back face') - (2 * oneSkin + oneFoam))).toBeLessThan(0.02 * (2 * oneSkin + oneFoam));
+    // the row reads the exact envelope where it says (two humps, as described, and the level at the row's delay)
+    const exact = exactEnvelope(stack, 'R', W / 200);
+    const humps = exactPeaks(exact, 0.01);
+    expect(humps.length).toBe(2);
+    expect(Math.abs(20 * Math.log10(humps[0].level / humps[1].level))).toBeLessThan(1);
+    expect(humps[1].t_s - humps[0].t_s).toBeLessThan(W);
+    expect(Math.abs(a.reflected.level_dB[0] - 20 * Math.log10(envelopeValue(exact, a.reflected.t_s[0])))).toBeLessThan(0.1);
   });
 });
