@@ -20,6 +20,7 @@ import { type AnalyticSamples, analyticSamples, envelopePeak, sampleIndex } from
 import { latticePaths, type PathSet } from './lattice.ts';
 import { MAX_PATH_CHARS, type RowName, reflectedPathName, rowText, transmittedPathName } from './names.ts';
 import { latticeFrequencies, predictPaths, type PredictedPaths } from './paths.ts';
+import { tmmAt } from '../tmm/solve.ts';
 
 /** A bounce path's own echo through the band pulse; `crossings` counts its crossings of each bulk layer. */
 export interface PathEcho { path: string; t_s: number; level_dB: number; crossings: Int32Array }
@@ -43,6 +44,13 @@ export interface EchoTable {
   resolved: boolean[];
   /** Paths whose echoes reach the floor but that no detected echo took (their echoes merge into a neighbour's). */
   unseen: PathEcho[];
+  /**
+   * How far the paths followed fall short of the whole response: max over the lattice's frequencies of
+   * |Σ paths − exact R (or T)|. Small (below the floor) when every path that matters was followed; large
+   * when the lattice had to drop too many (a stack of many layers of equal delay, such as a quarter-wave
+   * mirror, has more paths of each delay than can be followed): names and predictions are then incomplete.
+   */
+  lattice_residual: number;
 }
 
 /** Envelopes for display on the run's own time axis (t = 0 at the start of the run), relative to the incident band pulse's peak. */
@@ -79,7 +87,7 @@ const LATTICE_BELOW_FLOOR = 0.1;
 
 export function emptyEchoTable(): EchoTable {
   const z = () => new Float64Array(0);
-  return { t_s: z(), level_dB: z(), amplitude: z(), amplitude_re: z(), amplitude_im: z(), predicted_t_s: z(), path: [], members: [], nearest_path: [], resolved: [], unseen: [] };
+  return { t_s: z(), level_dB: z(), amplitude: z(), amplitude_re: z(), amplitude_im: z(), predicted_t_s: z(), path: [], members: [], nearest_path: [], resolved: [], unseen: [], lattice_residual: 0 };
 }
 
 /** The analysis of records too short or empty to hold a pulse: no rows, no envelopes. */
@@ -118,11 +126,25 @@ function tableOf(rows: AttributedEcho[], unseen: number[], P: PredictedPaths, st
     nearest_path: rows.map((r) => (r.paths.length === 0 && r.nearest >= 0 ? rowText([named(r.nearest)], MAX_PATH_CHARS) : '')),
     resolved: rows.map((r) => r.paths.length <= 1),
     unseen: unseen.map(echo),
+    lattice_residual: 0,
   };
   return t;
 }
 
-interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer }
+/** max_l |Σ_p A_p(f_l) − exact(f_l)|: what the paths followed leave out of the whole response. */
+function latticeResidual(set: PathSet, exact: (f_Hz: number) => { re: number; im: number }): number {
+  const F = set.f_Hz.length, n = set.crossings.length;
+  let worst = 0;
+  for (let l = 0; l < F; l++) {
+    let re = 0, im = 0;
+    for (let p = 0; p < n; p++) { re += set.re[p * F + l]; im += set.im[p * F + l]; }
+    const e = exact(set.f_Hz[l]);
+    worst = Math.max(worst, Math.hypot(re - e.re, im - e.im));
+  }
+  return worst;
+}
+
+interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer; exact: (f_Hz: number) => { re: number; im: number } }
 
 function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, latest_s: number): EchoTable {
   const band = pulse.band_Hz, B = band[1] - band[0];
@@ -132,7 +154,7 @@ function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, 
   const a = side.a, peak = side.S.peak;
   const envelope = (t: number) => a.mag[sampleIndex(a, t)] / peak;
   const { rows, unseen } = attributeEchoes(echoes, P, { floor, width_s: pulse.width_s, bandWidth_Hz: B, envelope, earliest_s });
-  return tableOf(rows, unseen, P, stack, side.name);
+  return { ...tableOf(rows, unseen, P, stack, side.name), lattice_residual: latticeResidual(side.set, side.exact) };
 }
 
 /** Envelope samples on the run's time axis, from t = 0 to the end of the records. */
@@ -168,8 +190,8 @@ export function analyseEchoes(stack: Stack, records: PulseRecords, options: Echo
   });
   const aR = analyticSamples(b.responses[0], pulse.width_s);
   const aT = withT ? analyticSamples(b.responses[1], pulse.width_s) : null;
-  const reflectedTable = analyseSide({ S: b.responses[0], a: aR, set: lattice.reflected, name: reflectedPathName }, stack, pulse, floor, latest);
-  const transmittedTable = aT ? analyseSide({ S: b.responses[1], a: aT, set: lattice.transmitted, name: transmittedPathName }, stack, pulse, floor, latest) : null;
+  const reflectedTable = analyseSide({ S: b.responses[0], a: aR, set: lattice.reflected, name: reflectedPathName, exact: (f) => tmmAt(stack, f).R }, stack, pulse, floor, latest);
+  const transmittedTable = aT ? analyseSide({ S: b.responses[1], a: aT, set: lattice.transmitted, name: transmittedPathName, exact: (f) => tmmAt(stack, f).T }, stack, pulse, floor, latest) : null;
   return {
     reflected: reflectedTable,
     transmitted: stack.back === 'pec' ? null : transmittedTable ?? emptyEchoTable(),

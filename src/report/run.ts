@@ -16,7 +16,7 @@ import { degFromRad } from '../units.ts';
 import { roundedRow } from './format-agreement.ts';
 import { fdtdAgreementRows } from './fdtd-agreement.ts';
 import { QUANTITY_NAMES } from '../studies/quantities.ts';
-import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns } from './echo-table.ts';
+import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns, latticeWarning } from './echo-table.ts';
 import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
@@ -153,6 +153,10 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   if (!analysing) t1 = now();
   const echoes: EchoAnalysis = analysing ? await analysing : analyseEchoes(stack, rec, echoOptions);
   const echoes_ms = now() - t1;
+  for (const [which, t] of [['reflected', echoes.reflected], ['transmitted', echoes.transmitted]] as const) {
+    const w = t ? latticeWarning(which, t, echoes.floor_dB) : null;
+    if (w) warn(w);
+  }
 
   // The traces, every stride-th step when all of them would pass the output limit.
   const stride = decimationStride(rec.count, job.outputs.traceRowsCap ?? Infinity);

@@ -13,6 +13,8 @@ import type { BulkMaterial, Layer, SheetMaterial, Stack } from '../../src/stack/
 import { AIR, dielectric, layer, makeStack } from '../support/build-stack.ts';
 import { envelopeValue, exactEnvelope, exactPeaks, exactRecords, expectExact } from './support.ts';
 import { EARLIEST_WIDTHS } from '../../src/echoes/detect.ts';
+import { latticeWarning } from '../../src/report/echo-table.ts';
+import { tmmAt } from '../../src/tmm/solve.ts';
 
 const cat = (name: string) => catalogMaterial(name) as BulkMaterial;
 const named = (name: string, ohm_per_sq: number): Layer =>
@@ -160,5 +162,45 @@ describe('interfering paths whose humps tie in height (a radome skin at a steep 
     expect(Math.abs(20 * Math.log10(humps[0].level / humps[1].level))).toBeLessThan(1);
     expect(humps[1].t_s - humps[0].t_s).toBeLessThan(W);
     expect(Math.abs(a.reflected.level_dB[0] - 20 * Math.log10(envelopeValue(exact, a.reflected.t_s[0])))).toBeLessThan(0.1);
+  });
+});
+
+describe('a lossless quarter-wave mirror: more paths of each delay than the lattice can follow', () => {
+  // Six pairs of quarter-wave layers at 10 GHz (n = 2 and 1.2, an invented mirror) in air, 5–15 GHz. Every layer has
+  // the same delay, so the number of bounce paths of each delay grows combinatorially; the lattice keeps the strongest.
+  const c0 = 299792458, lam = c0 / 10e9, hi = dielectric(4, 0, 'hi'), lo = dielectric(1.44, 0, 'lo');
+  const layers = Array.from({ length: 12 }, (_, i) => (i % 2 === 0 ? layer(hi, lam / 8) : layer(lo, lam / 4.8)));
+  const stack = makeStack({ band_GHz: [5, 15], layers });
+
+  it('is the mirror: |R| = tanh(N ln(n_H/n_L)) at the centre (Orfanidis, Electromagnetic Waves and Antennas, ch. 6)', () => {
+    const R = tmmAt(stack, 10e9).R;
+    expect(Math.abs(Math.hypot(R.re, R.im) - Math.tanh(6 * Math.log(2 / 1.2)))).toBeLessThan(1e-12);
+  });
+
+  it('the tables say their paths fall short of the exact response, and the rows left unexplained are real echoes', () => {
+    const a = analyse(stack);
+    for (const [which, t] of [['reflected', a.reflected], ['transmitted', a.transmitted!]] as const) {
+      expect(t.lattice_residual).toBeGreaterThan(0.1);
+      expect(latticeWarning(which, t, a.floor_dB)).toMatch(/only within .* "unexplained" may be paths not followed/);
+      // every unexplained row is where the exact envelope (support.ts) holds it: a real echo, not a pulse-run error
+      const W = bandPulse(stack.band_Hz).width_s, exact = exactEnvelope(stack, which === 'reflected' ? 'R' : 'T', W / 200);
+      t.path.forEach((p, i) => {
+        if (p === 'unexplained') expect(Math.abs(t.level_dB[i] - 20 * Math.log10(envelopeValue(exact, t.t_s[i])))).toBeLessThan(1);
+      });
+    }
+    expect(a.reflected.path).toContain('unexplained');
+  });
+
+  it('an ordinary wall and a radome at a steep angle have their paths complete: no warning', () => {
+    const wall = makeStack({ band_GHz: [1, 6], layers: [layer(cat('concrete'), 0.15)], back: 'pec' });
+    const skin = dielectric(4.2, 0.02, 'skin'), foam = dielectric(1.1, 0, 'foam');
+    const radome = makeStack({ band_GHz: [2, 18], angle_deg: 60, layers: [layer(skin, 0.0008), layer(foam, 0.01), layer(skin, 0.0008)] });
+    for (const s of [wall, radome]) {
+      const a = analyse(s);
+      for (const t of [a.reflected, a.transmitted].filter((x): x is EchoTable => x !== null)) {
+        expect(t.lattice_residual).toBeLessThan(0.05);
+        expect(latticeWarning('reflected', t, a.floor_dB)).toBeNull();
+      }
+    }
   });
 });
