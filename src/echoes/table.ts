@@ -20,7 +20,6 @@ import { type AnalyticSamples, analyticSamples, envelopePeak, sampleIndex } from
 import { latticePaths, type PathSet } from './lattice.ts';
 import { MAX_PATH_CHARS, type RowName, reflectedPathName, rowText, transmittedPathName } from './names.ts';
 import { latticeFrequencies, predictPaths, type PredictedPaths } from './paths.ts';
-import { tmmAt } from '../tmm/solve.ts';
 
 /** A bounce path's own echo through the band pulse; `crossings` counts its crossings of each bulk layer. */
 export interface PathEcho { path: string; t_s: number; level_dB: number; crossings: Int32Array }
@@ -82,6 +81,8 @@ export interface EchoOptions {
 }
 
 export const DEFAULT_FLOOR_dB = -40;
+/** Layers whose delays differ by less than this many pulse widths are one class when the lattice merges paths. */
+const SAME_DELAY_WIDTHS = 5e-3;
 /** Waves this far below the floor (20 dB) are not followed further through the lattice. */
 const LATTICE_BELOW_FLOOR = 0.1;
 
@@ -131,20 +132,8 @@ function tableOf(rows: AttributedEcho[], unseen: number[], P: PredictedPaths, st
   return t;
 }
 
-/** max_l |Σ_p A_p(f_l) − exact(f_l)|: what the paths followed leave out of the whole response. */
-function latticeResidual(set: PathSet, exact: (f_Hz: number) => { re: number; im: number }): number {
-  const F = set.f_Hz.length, n = set.crossings.length;
-  let worst = 0;
-  for (let l = 0; l < F; l++) {
-    let re = 0, im = 0;
-    for (let p = 0; p < n; p++) { re += set.re[p * F + l]; im += set.im[p * F + l]; }
-    const e = exact(set.f_Hz[l]);
-    worst = Math.max(worst, Math.hypot(re - e.re, im - e.im));
-  }
-  return worst;
-}
 
-interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer; exact: (f_Hz: number) => { re: number; im: number } }
+interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer }
 
 function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, latest_s: number): EchoTable {
   const band = pulse.band_Hz, B = band[1] - band[0];
@@ -154,7 +143,7 @@ function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, 
   const a = side.a, peak = side.S.peak;
   const envelope = (t: number) => a.mag[sampleIndex(a, t)] / peak;
   const { rows, unseen } = attributeEchoes(echoes, P, { floor, width_s: pulse.width_s, bandWidth_Hz: B, envelope, earliest_s });
-  return { ...tableOf(rows, unseen, P, stack, side.name), lattice_residual: latticeResidual(side.set, side.exact) };
+  return { ...tableOf(rows, unseen, P, stack, side.name), lattice_residual: side.set.residual };
 }
 
 /** Envelope samples on the run's time axis, from t = 0 to the end of the records. */
@@ -186,12 +175,12 @@ export function analyseEchoes(stack: Stack, records: PulseRecords, options: Echo
   const latest = end_s - t_inc;
   const F = options.latticeFrequencies ?? 16;
   const lattice = latticePaths(stack, latticeFrequencies(stack.band_Hz, F), pulse.f0_Hz, {
-    minAmplitude: LATTICE_BELOW_FLOOR * floor, maxDelay_s: latest + 2 * pulse.width_s,
+    minAmplitude: LATTICE_BELOW_FLOOR * floor, maxDelay_s: latest + 2 * pulse.width_s, sameDelay_s: SAME_DELAY_WIDTHS * pulse.width_s,
   });
   const aR = analyticSamples(b.responses[0], pulse.width_s);
   const aT = withT ? analyticSamples(b.responses[1], pulse.width_s) : null;
-  const reflectedTable = analyseSide({ S: b.responses[0], a: aR, set: lattice.reflected, name: reflectedPathName, exact: (f) => tmmAt(stack, f).R }, stack, pulse, floor, latest);
-  const transmittedTable = aT ? analyseSide({ S: b.responses[1], a: aT, set: lattice.transmitted, name: transmittedPathName, exact: (f) => tmmAt(stack, f).T }, stack, pulse, floor, latest) : null;
+  const reflectedTable = analyseSide({ S: b.responses[0], a: aR, set: lattice.reflected, name: reflectedPathName }, stack, pulse, floor, latest);
+  const transmittedTable = aT ? analyseSide({ S: b.responses[1], a: aT, set: lattice.transmitted, name: transmittedPathName }, stack, pulse, floor, latest) : null;
   return {
     reflected: reflectedTable,
     transmitted: stack.back === 'pec' ? null : transmittedTable ?? emptyEchoTable(),
