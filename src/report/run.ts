@@ -19,7 +19,7 @@ import { QUANTITY_NAMES } from '../studies/quantities.ts';
 import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns, latticeWarning } from './echo-table.ts';
 import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
-import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
+import { assertFiniteValues, assertTable, complexColumns, findColumn, ordinal, scaledColumn, type Column } from './table.ts';
 import { estimateRun, WorkRefused } from './estimate.ts';
 import { decimationStride } from './output-plan.ts';
 
@@ -162,7 +162,7 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const stride = decimationStride(rec.count, job.outputs.traceRowsCap ?? Infinity);
   const trace = traceColumns(rec, stride);
   if (stride > 1) {
-    warn(`trace.csv holds every ${stride}th time step (${r6(stride * rec.dt_s * 1e12)} ps apart, ${trace[0].data.length} of ${rec.count} samples) ` +
+    warn(`trace.csv holds every ${ordinal(stride)} time step (${r6(stride * rec.dt_s * 1e12)} ps apart, ${trace[0].data.length} of ${rec.count} samples) ` +
       `to stay within the output limit (${job.outputs.limitName}); the spectra and echoes use every step`);
   }
 

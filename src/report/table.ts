@@ -49,6 +49,12 @@ export function assertFiniteValues(value: unknown, path = 'summary'): void {
 }
 
 /** A number with 12 significant digits, trailing zeros dropped: 1.5, 0.000123, 1.23e-7, -0 → 0. */
+/** An English ordinal: 1st, 2nd, 3rd, 4th, 11th, 12th, 13th, 21st, 102nd (common practice, no source). */
+export function ordinal(n: number): string {
+  const teen = Math.floor(n / 10) % 10 === 1, last = n % 10;
+  return `${n}${teen ? 'th' : last === 1 ? 'st' : last === 2 ? 'nd' : last === 3 ? 'rd' : 'th'}`;
+}
+
 export function formatNumber(x: number): string {
   if (x === 0) return '0';
   // Fast path, the same text as String(Number(x.toPrecision(12))) (the definition, below): in fixed notation
