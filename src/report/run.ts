@@ -14,7 +14,7 @@ import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
 import { roundedRow } from './format-agreement.ts';
-import { fdtdAgreementRows } from './fdtd-agreement.ts';
+import { fdtdAgreementRows, modelShareWarning } from './fdtd-agreement.ts';
 import { QUANTITY_NAMES } from '../studies/quantities.ts';
 import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns, latticeWarning } from './echo-table.ts';
 import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
@@ -170,6 +170,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   // engine stepped other media than the tables (and the tmm columns are the tables'), the stepped-media split.
   const agreement = fdtdAgreementRows(run, fdtd, spectrumFromColumns(spectrum, 'tmm', f_Hz), spectrumFromColumns(spectrum, 'fem', f_Hz), !stepped);
   const allAgreement = [...base.agreement, ...agreement];
+  const shareWarning = modelShareWarning(agreement, run.plan.accuracyTarget);
+  if (shareWarning) warn(shareWarning);
   summary.agreement = allAgreement.map(roundedRow);
 
   methods.push({ name: 'fdtd', description: fdtdDescription(stack), time_ms: Math.round(run_ms * 1e3) / 1e3 });
