@@ -1,7 +1,7 @@
 // The files of the workbench's views that the CLI's tables do not hold, for the export: the tolerance study's
 // percentiles and the space–time map, each with its line for the export's README.
 
-import { formatCsv } from '../report/table.ts';
+import { formatCsv, ordinal } from '../report/table.ts';
 import { csvGrid, spacetimeCsv } from './spacetime/csv.ts';
 import type { SpacetimeMap } from './spacetime/recorder.ts';
 import type { SpacetimeField } from './spacetime/view.ts';
@@ -21,7 +21,7 @@ export function viewTexts(tolerance: ToleranceResult | null, map: SpacetimeMap |
     out.push({
       name: 'spacetime.csv', text: spacetimeCsv(map, field),
       about: `spacetime.csv: the ${field} field E/E0 of the space–time map, t_ns,x_mm,E, on ${g.times} times ${+g.dt_ns.toPrecision(4)} ns apart`
-        + ` × ${g.positions} positions ${+g.dx_mm.toPrecision(4)} mm apart (every ${g.every_row * map.stepsPerRow} steps of the run, every ${g.every_column}th grid node of the view)`,
+        + ` × ${g.positions} positions ${+g.dx_mm.toPrecision(4)} mm apart (every ${g.every_row * map.stepsPerRow} steps of the run, every ${ordinal(g.every_column)} grid node of the view)`,
     });
   }
   return out;
