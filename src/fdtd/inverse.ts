@@ -12,8 +12,8 @@
 // The zeros are found by the Aberth–Ehrlich simultaneous iteration (Aberth, Math. Comp. 27, 1973) on the
 // numerator N = m·D, whose logarithmic derivative N′/N = m′/m + Σ 1/(s − p_j) comes from the partial-fraction
 // form of m (well conditioned, no polynomial coefficients), in units of the poles' geometric mean. Every
-// result is checked: the reconstruction must equal 1/m to 1e-8 over four decades around the poles, and no
-// zero may lie in the right half-plane; otherwise `reciprocal` throws.
+// result is checked: the reconstruction must equal 1/m to 1e-8 (of |1/m|, or of 1/m∞ where |1/m| is smaller)
+// over four decades around the poles, and no zero may lie in the right half-plane; otherwise `reciprocal` throws.
 
 import type { Complex } from '../complex.ts';
 import { EPS0_F_per_m } from '../units.ts';
@@ -194,7 +194,10 @@ function reconstructionError(m: StepModel, r: StepModel, lo_Hz: number, hi_Hz: n
     // Offset from the decades, so no point falls exactly on a lossless resonance.
     const f = lo_Hz * Math.pow(hi_Hz / lo_Hz, (i + 0.371) / CHECK_POINTS);
     const a = cdiv({ re: 1, im: 0 }, stepModelPermittivity(m, f)), b = stepModelPermittivity(r, f);
-    worst = Math.max(worst, cabs({ re: a.re - b.re, im: a.im - b.im }) / cabs(a));
+    // Relative to |1/m|, but never to less than the constant part 1/m∞: where 1/m is far smaller (a Drude or
+    // conducting medium far below its plasma or relaxation frequency) the sum 1/m∞ + Σ terms cancels to it,
+    // and its rounding, ~1e-16/m∞, is what the line sees beside its other term of order one.
+    worst = Math.max(worst, cabs({ re: a.re - b.re, im: a.im - b.im }) / Math.max(cabs(a), r.epsInf));
   }
   return worst;
 }

@@ -67,6 +67,19 @@ describe('the reciprocal of a stepped model, closed forms', () => {
     expect(rel(r.osc[0].c, (-wp * wp) / 4)).toBeLessThan(1e-10);
     expect(r.osc[0].gamma).toBe(0);
   });
+
+  it('a lightly damped Drude (ωp/γ ≈ 785) inverts to 1 − ωp²/(s² + γs + ωp²), also far below its plasma frequency', () => {
+    // Closed form: 1/(1 + ωp²/(s² + γs)) = 1 − ωp²/(s² + γs + ωp²). Below ω ≪ γ, 1/ε ≈ jωγ/ωp² is far smaller
+    // than the constant 1 its terms cancel to; the check there is relative to that constant (a stability-test
+    // counterexample was once refused for it).
+    const wp = 1e12, gamma = wp * 10 ** -2.8946179117925306;
+    const r = reciprocal({ epsInf: 1, sigma: 0, debye: [], osc: [{ c: wp * wp, w0sq: 0, gamma }] });
+    expect(r.epsInf).toBe(1);
+    expect(r.osc).toHaveLength(1);
+    expect(rel(r.osc[0].w0sq, wp * wp)).toBeLessThan(1e-12);
+    expect(rel(r.osc[0].c, -wp * wp)).toBeLessThan(1e-12);
+    expect(rel(r.osc[0].gamma, gamma)).toBeLessThan(1e-10);
+  });
 });
 
 describe('the reciprocal of random passive mixtures and of fitted power laws', () => {
