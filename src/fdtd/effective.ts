@@ -10,7 +10,7 @@ import type { BulkMaterial, Stack } from '../stack/types.ts';
 import { GHz, MU0_H_per_m, ps } from '../units.ts';
 import { tableInterpolant, tableValue } from '../materials/table.ts';
 import { PlanError } from './errors.ts';
-import { type PowerLawFit, fitPermittivity, permeabilityTarget, powerLawTarget, tableTarget } from './fit-power-law.ts';
+import { type PowerLawFit, fitPermittivity, permeabilityTarget, powerLawTarget, tableTarget } from './causal-fit.ts';
 import { type LineMedium, type StepModel, UNIT_MODEL, lineMedium, stepModelOf } from './media.ts';
 import { probeWeights } from './probe-weights.ts';
 import type { EffectiveStack, GridSegment, GridSheet } from './types.ts';

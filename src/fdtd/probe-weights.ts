@@ -8,7 +8,7 @@ import { mul, scale, type Complex } from '../complex.ts';
 import type { Stack } from '../stack/types.ts';
 import { regionOf, stackAtFrequency, type Region, type StackAtFrequency } from '../tmm/media.ts';
 import { solveAt } from '../tmm/recursion.ts';
-import type { ProbeWeight } from './fit-power-law.ts';
+import type { ProbeWeight } from './causal-fit.ts';
 
 /** Relative step of the finite difference (the response is smooth in ε; this keeps rounding far below it). */
 const STEP = 1e-6;

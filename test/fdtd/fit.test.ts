@@ -7,7 +7,7 @@
 // (0.6–0.7 % over 1–6 GHz, 3.2 % over 1–40 GHz, a measurement there, not a standard).
 import { describe, expect, it } from 'vitest';
 import { fitWarnings, resolveStack } from '../../src/fdtd/effective.ts';
-import { fitPowerLaw, type PowerLawFit } from '../../src/fdtd/fit-power-law.ts';
+import { fitPowerLaw, type PowerLawFit } from '../../src/fdtd/causal-fit.ts';
 import { stepModelPermittivity, type StepModel } from '../../src/fdtd/media.ts';
 import { solveEffective } from '../../src/fdtd/stepped-exact.ts';
 import { permittivity } from '../../src/materials/permittivity.ts';
