@@ -12,6 +12,7 @@ import { atIncidence } from '../../src/fdtd/oblique.ts';
 import { probeSensitivity } from '../../src/fdtd/probe-sensitivity.ts';
 import { solveEffective } from '../../src/fdtd/stepped-exact.ts';
 import { catalogMaterial } from '../../src/materials/catalog.ts';
+import { permittivity } from '../../src/materials/permittivity.ts';
 import type { PowerLawModel } from '../../src/materials/types.ts';
 import { compareSpectra } from '../../src/report/agreement.ts';
 import { solveTmm } from '../../src/tmm/solve.ts';
@@ -35,6 +36,19 @@ describe('causal fit: outside truths', () => {
       const fit = fitPermittivity(target, [band[0] * GHz, band[1] * GHz], 'debye');
       expect(Math.max(fit.maxRelErr_re, fit.maxRelErr_im)).toBeLessThan(2e-3);
       for (const o of fit.model.osc) expect(o.c).toBeGreaterThan(0);
+    }
+  });
+
+  it('every ITU wall material: worst relative error near the causal floor (1–6 GHz ≤ 0.75 %, 1–40 GHz ≤ 3.6 %)', () => {
+    // The physics reference reports 0.6–0.7 % and 3.2 % for concrete (a measurement there, from an independent
+    // minimax, not a standard); measured here: concrete 0.69 % and 3.4 %, chipboard 0.68 % and 3.3 %, the rest lower
+    // (the previous fit: concrete 1.1 % and 4.9 %).
+    for (const name of ['concrete', 'brick', 'plasterboard', 'wood', 'glass', 'chipboard', 'marble', 'ceiling-board']) {
+      const pl = catalogMaterial(name)!.spec as PowerLawModel;
+      for (const [band, bound] of [[[1, 6], 0.0075], [[1, 40], 0.036]] as [[number, number], number][]) {
+        const fit = fitPermittivity({ source: 'power-law', eps: (f) => permittivity(pl, f), range_Hz: null }, [band[0] * GHz, band[1] * GHz], name);
+        expect(Math.max(fit.maxRelErr_re, fit.maxRelErr_im)).toBeLessThan(bound);
+      }
     }
   });
 

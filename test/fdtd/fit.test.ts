@@ -90,9 +90,9 @@ describe('power-law fit (linear program over passive second-order terms and σ)'
 
   it('near the causal floor for concrete; and over a decade the non-causal table cannot be matched: the residue is reported', () => {
     const narrow = fitPowerLaw(itu.concrete, [1 * GHz, 6 * GHz]), wide = fitPowerLaw(itu.concrete, [1 * GHz, 40 * GHz]);
-    // The reference's 0.6–0.7 % over 1–6 GHz: this fit reaches 0.7 %.
+    // The reference's 0.6–0.7 % over 1–6 GHz and 3.2 % over 1–40 GHz: this fit reaches 0.7 % and 3.4 %.
     expect(Math.max(narrow.maxRelErr_re, narrow.maxRelErr_im)).toBeLessThan(0.008);
-    expect(Math.max(wide.maxRelErr_re, wide.maxRelErr_im)).toBeLessThan(0.05);
+    expect(Math.max(wide.maxRelErr_re, wide.maxRelErr_im)).toBeLessThan(0.04);
     // Constant ε′ with a falling ε′′ violates Kramers–Kronig; a percent-level residue remains.
     expect(narrow.maxRelErr_abs).toBeGreaterThan(0.003);
     // Below the band, where the pulse still carries energy, the fit follows the table at a far gentler weight
