@@ -32,7 +32,7 @@ import type { SweepResult, ToleranceResult } from './studies/compute.ts';
 import type { QuantityName } from '../studies/quantities.ts';
 import { TunePanel, type TuneHost } from './tune/panel.ts';
 import type { MeasuredOverlay, ToleranceOverlay } from './views/spectrumView.ts';
-import { formatCsv } from '../report/table.ts';
+import { formatCsv, ordinal } from '../report/table.ts';
 import { csvGrid, spacetimeCsv } from './spacetime/csv.ts';
 import type { AgreementRow } from '../report/format-agreement.ts';
 
@@ -704,7 +704,7 @@ class Workbench implements ControlHost, EditorHost, StudyHost, TuneHost {
       out.push({
         name: 'spacetime.csv', text: spacetimeCsv(map, field),
         about: `spacetime.csv: the ${field} field E/E0 of the space–time map, t_ns,x_mm,E, on ${g.times} times ${+g.dt_ns.toPrecision(4)} ns apart`
-          + ` × ${g.positions} positions ${+g.dx_mm.toPrecision(4)} mm apart (every ${g.every_row * map.stepsPerRow} steps of the run, every ${g.every_column}th grid node of the view)`,
+          + ` × ${g.positions} positions ${+g.dx_mm.toPrecision(4)} mm apart (every ${g.every_row * map.stepsPerRow} steps of the run, every ${ordinal(g.every_column)} grid node of the view)`,
       });
     }
     return out;

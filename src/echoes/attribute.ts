@@ -153,14 +153,25 @@ function contributions(P: PredictedPaths, t: number, width_s: number): { order: 
 
 /**
  * Where the lattice's summed response peaks near `own`, searched like the detection: from the earliest delay
- * on. Paths that cancel (an absorber's front face and conductor) can leave a hump before delay zero; the
- * detection then reports the window's start, so the prediction does too, and the two stay comparable.
+ * on. Paths that cancel (an absorber's front face and conductor, or a thin skin's two faces at a steep angle)
+ * can leave a hump before delay zero; the detection then sees the window's start (where the envelope falls
+ * from it) or the next hump. Of those two the prediction takes the one the detection took, the one nearer the
+ * detected delay `at`: their heights can tie within the lattice's own error (a few tenths of a dB), and
+ * ranking them by height could predict the other hump, a pulse width away.
  */
-function predictedPeak(S: UniformSpectrum, own: number, o: AttributeOptions): number {
+function predictedPeak(S: UniformSpectrum, own: number, at: number, o: AttributeOptions): number {
   const t = nearestPeak(S, own, o.width_s / 2, o.width_s)?.t ?? own;
   if (t >= o.earliest_s) return t;
   const later = nearestPeak(S, o.earliest_s + o.width_s / 2, o.width_s / 2, o.width_s);
-  return later && later.t >= o.earliest_s && later.value > envelopeAt(S, o.earliest_s) ? later.t : o.earliest_s;
+  if (!later || later.t < o.earliest_s) return o.earliest_s;
+  const startIsPeak = envelopeAt(S, o.earliest_s) > envelopeAt(S, o.earliest_s + 1e-3 * o.width_s);
+  if (!startIsPeak) return later.t;
+  return Math.abs(later.t - at) < Math.abs(o.earliest_s - at) ? later.t : o.earliest_s;
+}
+
+/** The hump of a group's summed response nearest t_s (within half a pulse width), else its highest within one width. */
+function groupOwnPeak(P: PredictedPaths, paths: readonly number[], t_s: number, width_s: number): number {
+  return nearestPeak(groupSpectrum(P, paths), t_s, width_s / 2, width_s)?.t ?? groupPeak(P, paths, t_s, width_s, width_s).t;
 }
 
 function nearestPath(P: PredictedPaths, t: number): number {
@@ -200,9 +211,11 @@ export function attributeEchoes(echoes: readonly DetectedEcho[], P: PredictedPat
       row.paths = [];
     }
     if (row.paths.length === 0) { row.predicted_t_s = row.nearest >= 0 ? P.t_s[row.nearest] : row.echo.t_s; continue; }
-    // where the lattice puts the envelope peak: these paths' own peak, then all paths' summed response there
-    const own = row.paths.length === 1 ? P.t_s[row.paths[0]] : groupPeak(P, row.paths, row.echo.t_s, o.width_s, o.width_s).t;
-    row.predicted_t_s = predictedPeak(lattice(P, own, o.width_s), own, o);
+    // where the lattice puts the envelope peak: these paths' own peak (for several, the hump of their summed
+    // response nearest the detected delay, as humps of interfering paths can tie in height), then all paths'
+    // summed response there
+    const own = row.paths.length === 1 ? P.t_s[row.paths[0]] : groupOwnPeak(P, row.paths, row.echo.t_s, o.width_s);
+    row.predicted_t_s = predictedPeak(lattice(P, own, o.width_s), own, row.echo.t_s, o);
   }
   return { rows: kept, unseen };
 }

@@ -6,10 +6,18 @@
 // is a vector of crossing counts. Waves leaving through the front face are reflected paths; through
 // the back face, transmitted paths. Summed over all paths, the amplitudes are the exact R(f) and T(f)
 // (the multiple-reflection series of Born & Wolf §1.6 and Orfanidis ch. 6).
+//
+// Layers of one delay make many paths of each delay: a quarter-wave mirror of 12 layers has more than any number
+// of waves in flight could hold, and the waves kept then sum to nothing like R. When waves overflow, or the paths
+// kept miss more than ten floors of the exact R or T, and layers of equal delay (within `sameDelay_s`) exist, the
+// lattice is built again with a path identified by its crossings of each class of such layers: the paths of one
+// class vector arrive together, and are summed (merging waves is exact for the sum, whatever their history),
+// the sum named by its first member. The lattice that leaves less out is kept.
 
 import { type StackAtFrequency, stackAtFrequency } from '../tmm/media.ts';
 import type { Stack } from '../stack/types.ts';
 import { layerGroupDelays_s } from './delays.ts';
+import { tmmAt } from '../tmm/solve.ts';
 
 /** Paths leaving through one face, amplitudes at every frequency of the lattice. */
 export interface PathSet {
@@ -21,6 +29,11 @@ export interface PathSet {
   im: Float64Array;
   /** Σ crossings × layer group delay at the band centre (s): where to look for the path's echo. */
   delay0_s: Float64Array;
+  /**
+   * How far the paths fall short of the whole response: max over the frequencies of |Σ paths − exact R (or T)|,
+   * a bound on the envelope of every path dropped.
+   */
+  residual: number;
 }
 
 export interface LatticeOptions {
@@ -32,6 +45,11 @@ export interface LatticeOptions {
   maxWaves?: number;
   /** Most layer crossings in total. Default 400. */
   maxCrossings?: number;
+  /**
+   * Layers whose delays differ by at most this are one class when the lattice must merge paths (below).
+   * Default 0: equal delays only.
+   */
+  sameDelay_s?: number;
 }
 
 /** Interface coefficients at every frequency, for each interface and direction. */
@@ -113,7 +131,25 @@ function pathSet(f_Hz: Float64Array, paths: Map<Key, Wave>): PathSet {
   const list = [...paths.values()].sort((a, b) => a.delay - b.delay);
   const F = f_Hz.length, re = new Float64Array(list.length * F), im = new Float64Array(list.length * F);
   list.forEach((w, p) => { re.set(w.re, p * F); im.set(w.im, p * F); });
-  return { f_Hz, crossings: list.map((w) => w.crossings), re, im, delay0_s: Float64Array.from(list, (w) => w.delay) };
+  return { f_Hz, crossings: list.map((w) => w.crossings), re, im, delay0_s: Float64Array.from(list, (w) => w.delay), residual: 0 };
+}
+
+/** max_l |Σ_p A_p(f_l) − exact(f_l)|. */
+function residualOf(set: PathSet, exact: { re: number; im: number }[]): number {
+  const F = set.f_Hz.length, n = set.crossings.length;
+  let worst = 0;
+  for (let l = 0; l < F; l++) {
+    let re = 0, im = 0;
+    for (let p = 0; p < n; p++) { re += set.re[p * F + l]; im += set.im[p * F + l]; }
+    worst = Math.max(worst, Math.hypot(re - exact[l].re, im - exact[l].im));
+  }
+  return worst;
+}
+
+/** Per layer, the first layer whose delay is within `tol_s` of its own (itself if none). */
+function equalLayers(tau: Float64Array, tol_s: number): Int32Array {
+  const same = (i: number, j: number) => Math.abs(tau[i] - tau[j]) <= Math.max(tol_s, 1e-12 * Math.max(tau[i], tau[j]));
+  return Int32Array.from(tau, (_, i) => { for (let j = 0; j < i; j++) if (same(i, j)) return j; return i; });
 }
 
 /** Reflected and transmitted bounce paths of the stack at the frequencies f_Hz (group delays at centre_Hz). */
@@ -123,8 +159,6 @@ export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number
   const s = Array.from(f_Hz, (f) => stackAtFrequency(stack, f));
   const L = s[0].layers.length;
   const tau = layerGroupDelays_s(stack, centre_Hz);
-  const fromLeft = Array.from({ length: L + 1 }, (_, k) => interfaceCoefficients(s, k, true));
-  const fromRight = Array.from({ length: L + 1 }, (_, k) => interfaceCoefficients(s, k, false));
   // e^{−j k_x d} of each layer at each frequency
   const prop = Array.from({ length: L }, (_, i) => {
     const re = new Float64Array(F), im = new Float64Array(F);
@@ -134,6 +168,40 @@ export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number
     }
     return { re, im };
   });
+  const exact = Array.from(f_Hz, (f) => tmmAt(stack, f));
+  const measured = (r: { reflected: PathSet; transmitted: PathSet; overflowed: boolean }) => {
+    r.reflected.residual = residualOf(r.reflected, exact.map((e) => e.R));
+    r.transmitted.residual = s[0].back ? residualOf(r.transmitted, exact.map((e) => e.T)) : 0;
+    return r;
+  };
+  const first = measured(follow(s, f_Hz, tau, prop, Int32Array.from({ length: L }, (_, i) => i), o));
+  // Waves dropped for room, or paths missing more than ten floors (100 × the smallest wave kept): follow equal
+  // layers as one class, and keep whichever lattice leaves less out.
+  const short = Math.max(first.reflected.residual, first.transmitted.residual) > RESIDUAL_WAVES * o.minAmplitude;
+  const classes = equalLayers(tau, o.sameDelay_s ?? 0);
+  let paths = first;
+  if ((first.overflowed || short) && classes.some((c, i) => c !== i)) {
+    const merged = measured(follow(s, f_Hz, tau, prop, classes, o));
+    if (Math.max(merged.reflected.residual, merged.transmitted.residual) < Math.max(first.reflected.residual, first.transmitted.residual)) paths = merged;
+  }
+  // The per-layer delays go out too: the space–time view draws each path's rays from exactly these.
+  return { reflected: paths.reflected, transmitted: paths.transmitted, layerDelays_s: tau };
+}
+
+/** Paths missing more than this many times the smallest wave kept make the lattice try classes of equal layers. */
+const RESIDUAL_WAVES = 100;
+
+/**
+ * The waves through the lattice, a path identified by its crossings of each class of layers (`cls[i]`, the class
+ * of layer i: each layer its own, or the first of its equal layers); `overflowed` when more waves were in flight
+ * than `maxWaves` and the weakest were dropped.
+ */
+function follow(s: StackAtFrequency[], f_Hz: Float64Array, tau: Float64Array, prop: Complexes[], cls: Int32Array, o: LatticeOptions):
+  { reflected: PathSet; transmitted: PathSet; overflowed: boolean } {
+  const F = f_Hz.length, L = s[0].layers.length;
+  let overflowed = false;
+  const fromLeft = Array.from({ length: L + 1 }, (_, k) => interfaceCoefficients(s, k, true));
+  const fromRight = Array.from({ length: L + 1 }, (_, k) => interfaceCoefficients(s, k, false));
   const reflected = new Pool(F, o.minAmplitude), transmitted = new Pool(F, o.minAmplitude);
   const maxWaves = o.maxWaves ?? 3000, maxCrossings = o.maxCrossings ?? 400;
   // Keys: Σ crossings_i · radix^i, exact while radix^L stays below 2^52; a wave's identity adds where it is.
@@ -172,17 +240,25 @@ export function latticePaths(stack: Stack, f_Hz: Float64Array, centre_Hz: number
   const st: Step = { parent: incident.parent, layer: 0, key: key0, delay: 0 };
   for (let n = 1; n <= maxCrossings && level.map.size > 0; n++) {
     const next = new Pool(F, o.minAmplitude);
+    if (level.map.size > maxWaves) overflowed = true;
     const waves = level.map.size > maxWaves ? strongest([...level.map.values()], maxWaves) : level.map.values();
     for (const w of waves) {
       const i = w.medium - 1;
       st.parent = w; st.layer = i; st.delay = w.delay + tau[i];
       if (st.delay > o.maxDelay_s) continue;
-      if (typeof w.key === 'number') st.key = w.key + place[i];
-      else { const c = w.crossings.slice(); c[i] += 1; st.key = c.join(','); }
+      if (typeof w.key === 'number') st.key = w.key + place[cls[i]];
+      else st.key = classCounts(w.crossings, cls, i).join(',');
       split(next, st, w.right);
     }
     level = next;
   }
-  // The per-layer delays go out too: the space–time view draws each path's rays from exactly these.
-  return { reflected: pathSet(f_Hz, reflected.map), transmitted: pathSet(f_Hz, transmitted.map), layerDelays_s: tau };
+  return { reflected: pathSet(f_Hz, reflected.map), transmitted: pathSet(f_Hz, transmitted.map), overflowed };
+}
+
+/** Crossings per class of layers after one more crossing of layer i (the text key of a path). */
+function classCounts(crossings: Int32Array, cls: Int32Array, i: number): Int32Array {
+  const c = new Int32Array(crossings.length);
+  for (let k = 0; k < crossings.length; k++) c[cls[k]] += crossings[k];
+  c[cls[i]] += 1;
+  return c;
 }

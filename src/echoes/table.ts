@@ -43,6 +43,13 @@ export interface EchoTable {
   resolved: boolean[];
   /** Paths whose echoes reach the floor but that no detected echo took (their echoes merge into a neighbour's). */
   unseen: PathEcho[];
+  /**
+   * How far the paths followed fall short of the whole response: max over the lattice's frequencies of
+   * |Σ paths − exact R (or T)|. Small (below the floor) when every path that matters was followed; large
+   * when the lattice had to drop too many (a stack of many layers of equal delay, such as a quarter-wave
+   * mirror, has more paths of each delay than can be followed): names and predictions are then incomplete.
+   */
+  lattice_residual: number;
 }
 
 /** Envelopes for display on the run's own time axis (t = 0 at the start of the run), relative to the incident band pulse's peak. */
@@ -74,12 +81,14 @@ export interface EchoOptions {
 }
 
 export const DEFAULT_FLOOR_dB = -40;
+/** Layers whose delays differ by less than this many pulse widths are one class when the lattice merges paths. */
+const SAME_DELAY_WIDTHS = 5e-3;
 /** Waves this far below the floor (20 dB) are not followed further through the lattice. */
 const LATTICE_BELOW_FLOOR = 0.1;
 
 export function emptyEchoTable(): EchoTable {
   const z = () => new Float64Array(0);
-  return { t_s: z(), level_dB: z(), amplitude: z(), amplitude_re: z(), amplitude_im: z(), predicted_t_s: z(), path: [], members: [], nearest_path: [], resolved: [], unseen: [] };
+  return { t_s: z(), level_dB: z(), amplitude: z(), amplitude_re: z(), amplitude_im: z(), predicted_t_s: z(), path: [], members: [], nearest_path: [], resolved: [], unseen: [], lattice_residual: 0 };
 }
 
 /** The analysis of records too short or empty to hold a pulse: no rows, no envelopes. */
@@ -118,9 +127,11 @@ function tableOf(rows: AttributedEcho[], unseen: number[], P: PredictedPaths, st
     nearest_path: rows.map((r) => (r.paths.length === 0 && r.nearest >= 0 ? rowText([named(r.nearest)], MAX_PATH_CHARS) : '')),
     resolved: rows.map((r) => r.paths.length <= 1),
     unseen: unseen.map(echo),
+    lattice_residual: 0,
   };
   return t;
 }
+
 
 interface Side { S: BandSpectrum; a: AnalyticSamples; set: PathSet; name: Namer }
 
@@ -132,7 +143,7 @@ function analyseSide(side: Side, stack: Stack, pulse: BandPulse, floor: number, 
   const a = side.a, peak = side.S.peak;
   const envelope = (t: number) => a.mag[sampleIndex(a, t)] / peak;
   const { rows, unseen } = attributeEchoes(echoes, P, { floor, width_s: pulse.width_s, bandWidth_Hz: B, envelope, earliest_s });
-  return tableOf(rows, unseen, P, stack, side.name);
+  return { ...tableOf(rows, unseen, P, stack, side.name), lattice_residual: side.set.residual };
 }
 
 /** Envelope samples on the run's time axis, from t = 0 to the end of the records. */
@@ -164,7 +175,7 @@ export function analyseEchoes(stack: Stack, records: PulseRecords, options: Echo
   const latest = end_s - t_inc;
   const F = options.latticeFrequencies ?? 16;
   const lattice = latticePaths(stack, latticeFrequencies(stack.band_Hz, F), pulse.f0_Hz, {
-    minAmplitude: LATTICE_BELOW_FLOOR * floor, maxDelay_s: latest + 2 * pulse.width_s,
+    minAmplitude: LATTICE_BELOW_FLOOR * floor, maxDelay_s: latest + 2 * pulse.width_s, sameDelay_s: SAME_DELAY_WIDTHS * pulse.width_s,
   });
   const aR = analyticSamples(b.responses[0], pulse.width_s);
   const aT = withT ? analyticSamples(b.responses[1], pulse.width_s) : null;

@@ -10,6 +10,7 @@ import type { BulkMaterial, Stack } from '../stack/types.ts';
 import { GHz, MU0_H_per_m, ps } from '../units.ts';
 import { tableInterpolant, tableValue } from '../materials/table.ts';
 import { PlanError } from './errors.ts';
+import { sheetExcessTransmission_dB } from './film-error.ts';
 import { type PowerLawFit, fitPermittivity, permeabilityTarget, powerLawTarget, tableTarget } from './causal-fit.ts';
 import { type LineMedium, type StepModel, UNIT_MODEL, lineMedium, stepModelOf } from './media.ts';
 import { probeSensitivity } from './probe-sensitivity.ts';
@@ -27,6 +28,15 @@ export function isConductor(m: BulkModel, band_Hz: [number, number]): boolean {
 
 const skinDepth_m = (m: BulkModel, f_Hz: number): number =>
   Math.sqrt(2 / (2 * Math.PI * f_Hz * MU0_H_per_m * effectiveConductivity(m, f_Hz)));
+
+/** Below this the sheet's excess transmission is not worth a word (dB). */
+const FILM_NOTE_DB = 0.1;
+/** What the sheet does to a shielding figure, when it matters. */
+function filmShieldingNote(d_over_delta: number): string {
+  const excess = sheetExcessTransmission_dB(d_over_delta);
+  return excess < FILM_NOTE_DB ? '' :
+    ` As a sheet it leaves out the loss inside the film, so the pulse run's T is up to ${excess.toFixed(1)} dB too high at the band top (too little shielding): take shielding figures from the exact solution.`;
+}
 
 export interface Resolved { effective: EffectiveStack; fits: PowerLawFit[]; warnings: string[] }
 
@@ -157,7 +167,7 @@ function resolveUncached(stack: Stack): Resolved {
       const delta = skinDepth_m(spec, band[0]);
       if (d >= WALL_SKIN_DEPTHS * delta) {
         warnings.push(
-          `${label}: a conductor ${(d / delta).toFixed(0)} skin depths thick at the band bottom; the pulse engine treats it as a perfect conductor at its front face (x = ${(x * 1e3).toFixed(3)} mm): layers behind it are not simulated and T = 0.`,
+          `${label}: a conductor ${(d / delta).toFixed(0)} skin depths thick at the band bottom; the pulse engine treats it as a perfect conductor at its front face (x = ${(x * 1e3).toFixed(3)} mm): layers behind it are not simulated and T = 0, so the pulse run gives no shielding figure: take it from the exact solution.`,
         );
         ended = true;
         conductors++;
@@ -166,7 +176,7 @@ function resolveUncached(stack: Stack): Resolved {
       const sigma = effectiveConductivity(spec, band[0]);
       const kd = d / skinDepth_m(spec, band[1]);
       warnings.push(
-        `${label}: a conductive film ${(d * 1e6).toFixed(2)} µm thick (${kd.toFixed(2)} skin depths at the band top); the pulse engine treats it as a resistive sheet of ${(1 / (sigma * d)).toPrecision(3)} Ω/sq at its centre (thin-film approximation, error of order (d/δ)² = ${(kd * kd).toPrecision(2)}).`,
+        `${label}: a conductive film ${(d * 1e6).toFixed(2)} µm thick (${kd.toFixed(2)} skin depths at the band top); the pulse engine treats it as a resistive sheet of ${(1 / (sigma * d)).toPrecision(3)} Ω/sq at its centre (thin-film approximation, error of order (d/δ)² = ${(kd * kd).toPrecision(2)}).${filmShieldingNote(kd)}`,
       );
       sheets.push({ x_m: x + d / 2, conductance_S: sigma * d, label });
       conductors++;

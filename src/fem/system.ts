@@ -23,7 +23,7 @@ import { freeSpaceWavenumber, setFormWeight, setNormalWavenumber } from './media
 import { type Complex, mul } from '../complex.ts';
 import type { FemMesh } from './mesh.ts';
 import type { Tridiagonal } from './tridiag.ts';
-import { clearTridiagonal, createTridiagonal, solveTridiagonal } from './tridiag.ts';
+import { clearTridiagonal, createTridiagonal, solveSeriesShunt } from './tridiag.ts';
 
 export interface FemSystem {
   mesh: FemMesh;
@@ -31,6 +31,8 @@ export interface FemSystem {
   condenser: Condenser;
   /** Per region: condensed vertex diagonals and coupling (complex), and the interior recovery G (m×2). */
   d0Re: Float64Array; d0Im: Float64Array; d1Re: Float64Array; d1Im: Float64Array; oRe: Float64Array; oIm: Float64Array;
+  /** Per region: the condensed rows' sums (the shunt parts, computed without cancellation). */
+  p0Re: Float64Array; p0Im: Float64Array; p1Re: Float64Array; p1Im: Float64Array;
   gRe: Float64Array; gIm: Float64Array;
   /** Per region: the weak form's weight a (complex), kept for field recovery (TM tangential E). */
   aRe: Float64Array; aIm: Float64Array;
@@ -46,6 +48,7 @@ export function createFemSystem(mesh: FemMesh): FemSystem {
   return {
     mesh, tri: createTridiagonal(mesh.vertexX.length), condenser: createCondenser(mesh.order),
     d0Re: f(nr), d0Im: f(nr), d1Re: f(nr), d1Im: f(nr), oRe: f(nr), oIm: f(nr),
+    p0Re: f(nr), p0Im: f(nr), p1Re: f(nr), p1Im: f(nr),
     gRe: f(nr * m * 2), gIm: f(nr * m * 2), aRe: f(nr), aIm: f(nr),
     port: { kaRe: 0, kaIm: 0, backKaRe: 0, backKaIm: 0 },
     scratch: { a: { re: 0, im: 0 }, kz: { re: 0, im: 0 } },
@@ -74,26 +77,28 @@ export function solveAt(sys: FemSystem, f_Hz: number): void {
     // α = a / h, β = a k_z² h
     const c = sys.condenser.condense(a.re / h, a.im / h, (a.re * kzRe - a.im * kzIm) * h, (a.re * kzIm + a.im * kzRe) * h);
     sys.d0Re[r] = c.d0Re; sys.d0Im[r] = c.d0Im; sys.d1Re[r] = c.d1Re; sys.d1Im[r] = c.d1Im; sys.oRe[r] = c.oRe; sys.oIm[r] = c.oIm;
+    sys.p0Re[r] = c.p0Re; sys.p0Im[r] = c.p0Im; sys.p1Re[r] = c.p1Re; sys.p1Im[r] = c.p1Im;
     for (let k = 0; k < m * 2; k++) { sys.gRe[r * m * 2 + k] = c.gRe[k]; sys.gIm[r * m * 2 + k] = c.gIm[k]; }
     sys.aRe[r] = a.re; sys.aIm[r] = a.im;
   }
 
   clearTridiagonal(tri);
-  const { dRe, dIm, oRe, oIm, bRe, bIm } = tri;
+  // the matrix as shunt parts per vertex and series couplings per segment (tridiag.ts solveSeriesShunt)
+  const { shRe, shIm, seRe, seIm, bRe, bIm } = tri;
   const n = tri.n;
   for (let s = 0; s < mesh.segRegion.length; s++) {
     const r = mesh.segRegion[s];
     if (r >= 0) {
-      dRe[s] += sys.d0Re[r]; dIm[s] += sys.d0Im[r];
-      dRe[s + 1] += sys.d1Re[r]; dIm[s + 1] += sys.d1Im[r];
-      oRe[s] = sys.oRe[r]; oIm[s] = sys.oIm[r];
+      shRe[s] += sys.p0Re[r]; shIm[s] += sys.p0Im[r];
+      shRe[s + 1] += sys.p1Re[r]; shIm[s + 1] += sys.p1Im[r];
+      seRe[s] = -sys.oRe[r]; seIm[s] = -sys.oIm[r];
     } else {
       const y = (k0 * mesh.sheets[-1 - r].ohm_per_sq) / ETA0_ohm; // TM sheet link, y = j k0 R_s / η0
-      dIm[s] += y; dIm[s + 1] += y; oIm[s] = -y;
+      seIm[s] = y; // [y, −y; −y, y]: a series coupling with no shunt part
     }
   }
   if (mesh.polarization === 'TE')
-    for (const sh of mesh.sheets) dIm[sh.vertex] += (k0 * ETA0_ohm) / sh.ohm_per_sq;
+    for (const sh of mesh.sheets) shIm[sh.vertex] += (k0 * ETA0_ohm) / sh.ohm_per_sq;
 
   // Front port at vertex 0, position x_p.
   setNormalWavenumber(kz, nF2.re, nF2.im, k0, kt2Re, kt2Im);
@@ -101,7 +106,7 @@ export function solveAt(sys: FemSystem, f_Hz: number): void {
   const kaRe = kz.re * a.re - kz.im * a.im, kaIm = kz.re * a.im + kz.im * a.re;
   const kz0Re = kz.re, kz0Im = kz.im;
   sys.port.kaRe = kaRe; sys.port.kaIm = kaIm;
-  dRe[0] += -kaIm; dIm[0] += kaRe; // + j k_z0 a_f
+  shRe[0] += -kaIm; shIm[0] += kaRe; // + j k_z0 a_f
   // u_inc(x_p) = e^{−j k_z0 x_p}
   const xp = mesh.vertexX[0];
   const mag = Math.exp(kz0Im * xp), ph = -kz0Re * xp;
@@ -115,10 +120,11 @@ export function solveAt(sys: FemSystem, f_Hz: number): void {
     setFormWeight(a, epsB, muB, mesh.polarization);
     const bkRe = kz.re * a.re - kz.im * a.im, bkIm = kz.re * a.im + kz.im * a.re;
     sys.port.backKaRe = bkRe; sys.port.backKaIm = bkIm;
-    dRe[n - 1] += -bkIm; dIm[n - 1] += bkRe;
+    shRe[n - 1] += -bkIm; shIm[n - 1] += bkRe;
   } else if (mesh.polarization === 'TE') {
-    dRe[n - 1] = 1; dIm[n - 1] = 0; bRe[n - 1] = 0; bIm[n - 1] = 0;
-    if (n > 1) { oRe[n - 2] = 0; oIm[n - 2] = 0; }
+    // E = 0 at the last vertex: its row is the identity, and the coupling stays in the row before only
+    shRe[n - 1] = 1; shIm[n - 1] = 0; bRe[n - 1] = 0; bIm[n - 1] = 0;
+    if (n > 1) { shRe[n - 2] += seRe[n - 2]; shIm[n - 2] += seIm[n - 2]; seRe[n - 2] = 0; seIm[n - 2] = 0; }
   }
-  solveTridiagonal(tri);
+  solveSeriesShunt(tri);
 }

@@ -82,7 +82,26 @@ export function echoSummary(e: EchoTable): Record<string, unknown> {
     resolved: e.resolved,
     paths: e.members.map((row) => row.map((m) => ({ path: m.path, t_ns: Number(nsFromS(m.t_s).toPrecision(6)), level_dB: Number(m.level_dB.toFixed(2)) }))),
     unseen: e.unseen.map((m) => ({ path: m.path, t_ns: Number(nsFromS(m.t_s).toPrecision(6)), level_dB: Number(m.level_dB.toFixed(2)) })),
+    lattice_residual: Number(e.lattice_residual.toPrecision(3)),
   };
+}
+
+/** A lattice residual above this many times the floor leaves echoes above the floor unnamed. */
+const RESIDUAL_FLOORS = 10;
+
+/**
+ * The warning for a table whose bounce paths, summed, fall well short of the exact response (`lattice_residual`
+ * above 10 floors), or null. The residual bounds the envelope of every path not followed, so below it no
+ * echo above the floor can be missed.
+ */
+export function latticeWarning(which: 'reflected' | 'transmitted', e: EchoTable, floor_dB: number): string | null {
+  const floor = 10 ** (floor_dB / 20);
+  if (!(e.lattice_residual > RESIDUAL_FLOORS * floor)) return null;
+  return `${which} echoes: the bounce paths followed sum to the exact ${which === 'reflected' ? 'R' : 'T'} only within ` +
+    `${e.lattice_residual.toPrecision(2)} at the worst frequency (the floor is ${floor.toPrecision(2)}, ${floor_dB} dB): ` +
+    'this stack has more paths of each delay than can be followed (many layers of equal delay, such as a quarter-wave mirror), ' +
+    'so path names and predicted delays are incomplete and a row marked "unexplained" may be paths not followed ' +
+    'rather than an error of the pulse run';
 }
 
 /** Rows of the printed table before "… N more". */

@@ -14,12 +14,12 @@ import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
 import { degFromRad } from '../units.ts';
 import { roundedRow } from './format-agreement.ts';
-import { fdtdAgreementRows } from './fdtd-agreement.ts';
+import { fdtdAgreementRows, modelShareWarning } from './fdtd-agreement.ts';
 import { QUANTITY_NAMES } from '../studies/quantities.ts';
-import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns } from './echo-table.ts';
+import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns, latticeWarning } from './echo-table.ts';
 import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
-import { assertFiniteValues, assertTable, complexColumns, findColumn, scaledColumn, type Column } from './table.ts';
+import { assertFiniteValues, assertTable, complexColumns, findColumn, ordinal, scaledColumn, type Column } from './table.ts';
 import { estimateRun, WorkRefused } from './estimate.ts';
 import { decimationStride } from './output-plan.ts';
 
@@ -153,12 +153,16 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   if (!analysing) t1 = now();
   const echoes: EchoAnalysis = analysing ? await analysing : analyseEchoes(stack, rec, echoOptions);
   const echoes_ms = now() - t1;
+  for (const [which, t] of [['reflected', echoes.reflected], ['transmitted', echoes.transmitted]] as const) {
+    const w = t ? latticeWarning(which, t, echoes.floor_dB) : null;
+    if (w) warn(w);
+  }
 
   // The traces, every stride-th step when all of them would pass the output limit.
   const stride = decimationStride(rec.count, job.outputs.traceRowsCap ?? Infinity);
   const trace = traceColumns(rec, stride);
   if (stride > 1) {
-    warn(`trace.csv holds every ${stride}th time step (${r6(stride * rec.dt_s * 1e12)} ps apart, ${trace[0].data.length} of ${rec.count} samples) ` +
+    warn(`trace.csv holds every ${ordinal(stride)} time step (${r6(stride * rec.dt_s * 1e12)} ps apart, ${trace[0].data.length} of ${rec.count} samples) ` +
       `to stay within the output limit (${job.outputs.limitName}); the spectra and echoes use every step`);
   }
 
@@ -166,6 +170,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   // engine stepped other media than the tables (and the tmm columns are the tables'), the stepped-media split.
   const agreement = fdtdAgreementRows(run, fdtd, spectrumFromColumns(spectrum, 'tmm', f_Hz), spectrumFromColumns(spectrum, 'fem', f_Hz), !stepped);
   const allAgreement = [...base.agreement, ...agreement];
+  const shareWarning = modelShareWarning(agreement, run.plan.accuracyTarget);
+  if (shareWarning) warn(shareWarning);
   summary.agreement = allAgreement.map(roundedRow);
 
   methods.push({ name: 'fdtd', description: fdtdDescription(stack), time_ms: Math.round(run_ms * 1e3) / 1e3 });

@@ -48,6 +48,12 @@ export function assertFiniteValues(value: unknown, path = 'summary'): void {
   }
 }
 
+/** An English ordinal: 1st, 2nd, 3rd, 4th, 11th, 12th, 13th, 21st, 102nd (common practice, no source). */
+export function ordinal(n: number): string {
+  const teen = Math.floor(n / 10) % 10 === 1, last = n % 10;
+  return `${n}${teen ? 'th' : last === 1 ? 'st' : last === 2 ? 'nd' : last === 3 ? 'rd' : 'th'}`;
+}
+
 /** A number with 12 significant digits, trailing zeros dropped: 1.5, 0.000123, 1.23e-7, -0 → 0. */
 export function formatNumber(x: number): string {
   if (x === 0) return '0';
@@ -61,6 +67,12 @@ export function formatNumber(x: number): string {
   while (s.charCodeAt(end - 1) === 48) end--; // '0'
   if (s.charCodeAt(end - 1) === 46) end--; // '.'
   return s.slice(0, end);
+}
+
+/** x with n decimals for a printed summary, never "-0.00" (a rounding of a tiny negative value). */
+export function fixedDecimals(x: number, n: number): string {
+  const s = x.toFixed(n);
+  return /^-0(\.0*)?$/.test(s) ? s.slice(1) : s;
 }
 
 /** The header line of a table's CSV form, with its "\n". */

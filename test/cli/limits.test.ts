@@ -6,6 +6,7 @@
 import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { ordinal } from '../../src/report/table.ts';
 import { cli, readCsv, tempDir } from './support.ts';
 
 const tmp = tempDir();
@@ -98,7 +99,7 @@ describe('outputs within the limit', () => {
     expect(totalBytes(small)).toBeLessThanOrEqual(0.3e6);
     const stride = JSON.parse(readFileSync(join(small, 'summary.json'), 'utf8')).run.trace_every_nth_step as number;
     expect(stride).toBeGreaterThan(1);
-    expect(r.stderr).toContain(`warning: trace.csv holds every ${stride}th time step`);
+    expect(r.stderr).toContain(`warning: trace.csv holds every ${ordinal(stride)} time step`);
     const a = readCsv(readFileSync(join(full, 'trace.csv'), 'utf8')).rows, b = readCsv(readFileSync(join(small, 'trace.csv'), 'utf8')).rows;
     expect(b.length).toBe(Math.ceil(a.length / stride));
     expect(b[3]).toEqual(a[3 * stride]);

@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { planMesh } from '../../src/fem/mesh.ts';
 import { solveFem } from '../../src/fem/solve.ts';
-import { createTridiagonal, solveTridiagonal } from '../../src/fem/tridiag.ts';
+import { createTridiagonal, solveSeriesShunt, solveTridiagonal } from '../../src/fem/tridiag.ts';
 import { interfacePositions_m } from '../../src/stack/types.ts';
 import { C0_m_per_s } from '../../src/units.ts';
 import { AIR, dielectric, layer, makeStack, prng, sheet } from '../support/build-stack.ts';
@@ -63,6 +63,24 @@ describe('complex tridiagonal solve', () => {
       const terms: [number, number, number][] = [[t.dRe[i], t.dIm[i], i]];
       if (i > 0) terms.push([t.oRe[i - 1], t.oIm[i - 1], i - 1]);
       if (i < n - 1) terms.push([t.oRe[i], t.oIm[i], i + 1]);
+      let rr = -t.bRe[i], ri = -t.bIm[i];
+      for (const [ar, ai, j] of terms) { rr += ar * t.xRe[j] - ai * t.xIm[j]; ri += ar * t.xIm[j] + ai * t.xRe[j]; }
+      expect(Math.hypot(rr, ri)).toBeLessThan(1e-10);
+    }
+  });
+
+  it('in shunt and series form: the same system, A x = b checked directly with d = shunt + the series either side', () => {
+    const rand = prng(11), n = 50, t = createTridiagonal(n);
+    for (let i = 0; i < n; i++) {
+      t.shRe[i] = rand() * 4 - 2; t.shIm[i] = rand() * 4 - 2; t.bRe[i] = rand(); t.bIm[i] = rand();
+      if (i < n - 1) { t.seRe[i] = rand() - 0.5; t.seIm[i] = rand() - 0.5; }
+    }
+    solveSeriesShunt(t);
+    const se = (i: number): [number, number] => (i >= 0 && i < n - 1 ? [t.seRe[i], t.seIm[i]] : [0, 0]);
+    for (let i = 0; i < n; i++) {
+      const terms: [number, number, number][] = [[t.shRe[i] + se(i - 1)[0] + se(i)[0], t.shIm[i] + se(i - 1)[1] + se(i)[1], i]];
+      if (i > 0) terms.push([-se(i - 1)[0], -se(i - 1)[1], i - 1]);
+      if (i < n - 1) terms.push([-se(i)[0], -se(i)[1], i + 1]);
       let rr = -t.bRe[i], ri = -t.bIm[i];
       for (const [ar, ai, j] of terms) { rr += ar * t.xRe[j] - ai * t.xIm[j]; ri += ar * t.xIm[j] + ai * t.xRe[j]; }
       expect(Math.hypot(rr, ri)).toBeLessThan(1e-10);

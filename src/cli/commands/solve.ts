@@ -3,7 +3,7 @@
 import { join } from 'node:path';
 import { solveReport, type Media, type Report } from '../../report/solve.ts';
 import { PlanError } from '../../fdtd/errors.ts';
-import { csvChunks } from '../../report/table.ts';
+import { csvChunks, fixedDecimals } from '../../report/table.ts';
 import { fmtGHz } from '../../stack/warnings.ts';
 import type { Stack } from '../../stack/types.ts';
 import type { StackFile } from '../../stack/file.ts';
@@ -140,8 +140,8 @@ Exit: 0 done, 2 invalid stack, usage, or a job over its limits (nothing written)
     }
     io.out(line);
     if (r.T_dB_min !== null && typeof r.IL_dB_min === 'number') {
-      io.out(`insertion loss ${r.IL_dB_min.toFixed(2)} to ${(r.IL_dB_max as number).toFixed(2)} dB; ` +
-        `insertion phase delay ${(r.IPD_deg_min as number).toFixed(1)} to ${(r.IPD_deg_max as number).toFixed(1)}°`);
+      io.out(`insertion loss ${fixedDecimals(r.IL_dB_min, 2)} to ${fixedDecimals(r.IL_dB_max as number, 2)} dB; ` +
+        `insertion phase delay ${fixedDecimals(r.IPD_deg_min as number, 1)} to ${fixedDecimals(r.IPD_deg_max as number, 1)}°`);
     }
     io.out(`wrote ${written.join(', ')} (${s.methods.map((m) => `${m.name} ${m.time_ms.toFixed(1)} ms`).join(', ')})`);
     if (report.agreement.length > 0) io.out(formatAgreement(report.agreement));

@@ -1,0 +1,30 @@
+// The warning that tells a missed target from the material model's share apart from the engine's own error.
+// The rows are built here by hand: the check is of the wording's logic, the figures themselves are measured in
+// test/fdtd (engine error) and bench/walls.ts (model share). Common practice, no source: a report names which
+// of two error sources broke its target.
+import { describe, expect, it } from 'vitest';
+import { modelShareWarning } from '../../src/report/fdtd-agreement.ts';
+import type { AgreementRow } from '../../src/report/format-agreement.ts';
+
+const row = (pair: string, R_max: number, T_max: number): AgreementRow => ({ pair, R_max, R_worst_f_GHz: 2, T_max, T_worst_f_GHz: 17.92 });
+
+describe('modelShareWarning', () => {
+  it('names the share, its frequency and the engine error when the share passes the target', () => {
+    const w = modelShareWarning([row('fdtd-tmm', 3e-3, 1.6e-2), row('fdtd-tmm as stepped', 1e-3, 2e-3), row('stepped media-tmm', 2e-3, 1.4e-2)], 0.01);
+    expect(w).toContain('max|dT| 1.4e-2 at 17.92 GHz');
+    expect(w).toContain("engine's own error is 2.0e-3");
+    expect(w).toContain('--media stepped');
+  });
+  it('stays silent when the share is within the target, or when nothing was substituted', () => {
+    expect(modelShareWarning([row('fdtd-tmm', 3e-3, 3e-3), row('fdtd-tmm as stepped', 1e-3, 2e-3), row('stepped media-tmm', 2e-3, 9e-3)], 0.01)).toBeNull();
+    expect(modelShareWarning([row('fdtd-tmm', 3e-2, 3e-2)], 0.01)).toBeNull();
+  });
+});
+
+describe('modelShareWarning behind a conductor', () => {
+  it('leaves out T, which is zero there', () => {
+    const w = modelShareWarning([row('fdtd-tmm as stepped', 1.9e-3, 0), row('stepped media-tmm', 1.2e-2, 0)], 0.01);
+    expect(w).toContain('max|dR| 1.2e-2');
+    expect(w).not.toContain('max|dT|');
+  });
+});
