@@ -11,9 +11,9 @@ import { GHz, MU0_H_per_m, ps } from '../units.ts';
 import { tableInterpolant, tableValue } from '../materials/table.ts';
 import { PlanError } from './errors.ts';
 import { sheetExcessTransmission_dB } from './film-error.ts';
-import { type PowerLawFit, fitPermittivity, permeabilityTarget, powerLawTarget, tableTarget } from './fit-power-law.ts';
+import { type PowerLawFit, fitPermittivity, permeabilityTarget, powerLawTarget, tableTarget } from './causal-fit.ts';
 import { type LineMedium, type StepModel, UNIT_MODEL, lineMedium, stepModelOf } from './media.ts';
-import { probeWeights } from './probe-weights.ts';
+import { probeSensitivity } from './probe-sensitivity.ts';
 import type { EffectiveStack, GridSegment, GridSheet } from './types.ts';
 
 /** ε''/max(ε', 1) at the band top above which a medium is a conductor for the engine. */
@@ -120,12 +120,12 @@ function resolveUncached(stack: Stack): Resolved {
     if (spec.model !== 'power-law' && spec.model !== 'table') return stepModelOf(spec);
     const target = spec.model === 'table' ? tableTarget(spec) : powerLawTarget(spec);
     return cached(`ε|${mat.name}|${JSON.stringify(spec)}`,
-      () => fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name) }));
+      () => fitPermittivity(target, band, mat.name, { sensitivity: probeSensitivity(stack, mat.name) }));
   };
   const seriesOf = (mat: BulkMaterial): StepModel => {
     const spec = mat.spec;
     const fitMu = (target: ReturnType<typeof permeabilityTarget>) => cached(`μ|${mat.name}|${JSON.stringify(spec)}`,
-      () => fitPermittivity(target, band, mat.name, { probeWeight: probeWeights(stack, mat.name, 'permeability') }));
+      () => fitPermittivity(target, band, mat.name, { sensitivity: probeSensitivity(stack, mat.name, 'permeability') }));
     if (spec.model === 'table' && spec.mu_points !== undefined) {
       // A measured μ table: fitted as a table of ε is (its range, no conduction term).
       const pts = spec.mu_points, range = [...tableInterpolant(pts).range_Hz] as [number, number];

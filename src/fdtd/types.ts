@@ -9,7 +9,7 @@
 import type { Profile } from '../results.ts';
 import type { PulseShape } from './pulse.ts';
 import type { LineMedium } from './media.ts';
-import type { PowerLawFit } from './fit-power-law.ts';
+import type { PowerLawFit } from './causal-fit.ts';
 import type { EngineKind } from './engine.ts';
 
 /** Knobs of a pulse run; every one optional. */

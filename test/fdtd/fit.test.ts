@@ -7,7 +7,7 @@
 // (0.6–0.7 % over 1–6 GHz, 3.2 % over 1–40 GHz, a measurement there, not a standard).
 import { describe, expect, it } from 'vitest';
 import { fitWarnings, resolveStack } from '../../src/fdtd/effective.ts';
-import { fitPowerLaw, type PowerLawFit } from '../../src/fdtd/fit-power-law.ts';
+import { fitPowerLaw, type PowerLawFit } from '../../src/fdtd/causal-fit.ts';
 import { stepModelPermittivity, type StepModel } from '../../src/fdtd/media.ts';
 import { solveEffective } from '../../src/fdtd/stepped-exact.ts';
 import { permittivity } from '../../src/materials/permittivity.ts';
@@ -90,23 +90,27 @@ describe('power-law fit (linear program over passive second-order terms and σ)'
 
   it('near the causal floor for concrete; and over a decade the non-causal table cannot be matched: the residue is reported', () => {
     const narrow = fitPowerLaw(itu.concrete, [1 * GHz, 6 * GHz]), wide = fitPowerLaw(itu.concrete, [1 * GHz, 40 * GHz]);
-    expect(Math.max(narrow.maxRelErr_re, narrow.maxRelErr_im)).toBeLessThan(0.012);
-    expect(Math.max(wide.maxRelErr_re, wide.maxRelErr_im)).toBeLessThan(0.05);
+    // The reference's 0.6–0.7 % over 1–6 GHz and 3.2 % over 1–40 GHz: this fit reaches 0.7 % and 3.4 %.
+    expect(Math.max(narrow.maxRelErr_re, narrow.maxRelErr_im)).toBeLessThan(0.008);
+    expect(Math.max(wide.maxRelErr_re, wide.maxRelErr_im)).toBeLessThan(0.04);
     // Constant ε′ with a falling ε′′ violates Kramers–Kronig; a percent-level residue remains.
     expect(narrow.maxRelErr_abs).toBeGreaterThan(0.003);
-    // Below the band, where the pulse still carries energy, the fit stays close to the table (gentler weight).
-    const t = permittivity(itu.concrete, 0.5 * GHz).re, g = stepModelPermittivity(narrow.model, 0.5 * GHz).re;
-    expect(Math.abs(g - t) / t).toBeLessThan(0.2);
+    // Below the band, where the pulse still carries energy, the fit follows the table at a far gentler weight
+    // (0.03 of the band's, falling with the pulse's content): within 10 % at 0.7 GHz, 35 % at the fit's bottom.
+    for (const [f, bound] of [[0.7, 0.1], [0.5, 0.35]]) {
+      const t = permittivity(itu.concrete, f * GHz).re, g = stepModelPermittivity(narrow.model, f * GHz).re;
+      expect(Math.abs(g - t) / t).toBeLessThan(bound);
+    }
   });
 
-  it('weighted by what reaches the probes: 150 mm of concrete on a conductor, 1–6 GHz, model share ≤ 1.5e-2', () => {
+  it('weighted by what reaches the probes: 150 mm of concrete on a conductor, 1–6 GHz, model share ≤ 1.0e-2', () => {
     // Reference: the exact layered solution (src/tmm) of the ITU concrete wall; the model share is the exact
     // solution of the fitted medium against it.
     const concrete = material('concrete', itu.concrete);
     const stack = stackOf([bulk(concrete, 150)], { band_GHz: [1, 6], back: 'pec' });
     const f = linspace(1 * GHz, 6 * GHz, 201);
     const share = compareSpectra(solveEffective(resolveStack(stack).effective, f), solveTmm(stack, f));
-    expect(share.R_max).toBeLessThanOrEqual(1.5e-2);
+    expect(share.R_max).toBeLessThanOrEqual(1.0e-2);
     expect(share.R_max).toBeGreaterThan(1e-3); // a non-causal table leaves a visible share
   });
 

@@ -9,7 +9,7 @@
 // directly, every zero in the left half-plane, and −1/ε with the loss sign of a passive medium.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { fitPowerLaw } from '../../src/fdtd/fit-power-law.ts';
+import { fitPowerLaw } from '../../src/fdtd/causal-fit.ts';
 import { reciprocal } from '../../src/fdtd/inverse.ts';
 import { type StepModel, stepModelPermittivity } from '../../src/fdtd/media.ts';
 import { catalogMaterial } from '../../src/materials/catalog.ts';

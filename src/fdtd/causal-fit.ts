@@ -8,12 +8,17 @@
 // bottom of the fitted range (σ_eff = ωε0ε'' there): the fit invents no DC conduction the table lacks.
 //
 // The fit is a linear program (simplex.ts): minimize t subject to
-//   w'(f)·|ε'_fit − ε'|/ε' ≤ t  and  w''(f)·|ε''_fit − ε''|/ε'' ≤ t   (ε' and ε'' separately),
+//   |ΔR(f)|·s ≤ t and |ΔT(f)|·s ≤ t, with ΔR ≈ ∂R/∂ε'·(ε'_fit − ε') + ∂R/∂ε''·(ε''_fit − ε'') (T alike),
+//   w_floor·|ε'_fit − ε'|/ε' ≤ t  and  w_floor·|ε''_fit − ε''|/ε'' ≤ t,
 //   ε'_fit ≥ 1 from half the band's bottom to twice its top,  σ ≤ σ_table(bottom of the fitted range),
-// over the band and the pulse's spectral support around it, as far as the target has values (weights there
-// fall with the pulse's content, gentler than in the band). The weights say how much R and T at the probes move for a relative change
-// of ε' and of ε'' at f (`probeWeight`, from the stack: a wall that swallows a wave does not make its
-// depth matter), floored so neither part is ignored. Kramers–Kronig forbids a flat ε' with a falling ε'',
+// over the band and the pulse's spectral support around it, as far as the target has values (every row's weight
+// there falls with the pulse's content, well below the band's). ΔR and ΔT are the first-order change of the
+// probes' response the fit's error makes (`probeSensitivity`, the derivatives from the exact solution of the
+// stack at its angle and polarization); |·| is bounded by a hexagon (Re(e^{jθ}ΔR)·s ≤ t at six θ), s scales a
+// unit relative error where the probes see most to about 1, and w_floor bounds the relative errors too, so
+// neither part is ignored where the probes cannot see it (a wall that swallows a wave does not make its depth
+// matter; an error of ε' that one of ε'' offsets in R and T is cheap). Without a stack (no sensitivity), the
+// relative errors of ε' and ε'' alone are minimized. Kramers–Kronig forbids a flat ε' with a falling ε'',
 // so for a power law a residue remains; a measured table is fitted as closely as its own causality allows.
 // Either way the residue is reported beside the results (worst errors over the band).
 // The same program fits a permeability the engine cannot step as it is — a fixed μ' − jμ'' with loss (constant
@@ -27,6 +32,7 @@ import { EPS0_F_per_m } from '../units.ts';
 import type { StepModel } from './media.ts';
 import { stepModelPermittivity } from './media.ts';
 import { pulseForBand, pulseSpectrumRelative, type PulseShape } from './pulse.ts';
+import type { ProbeSensitivity, ResponseDerivatives } from './probe-sensitivity.ts';
 import { minimizeLp } from './simplex.ts';
 
 /** What a fit approximates: ε_r(f) (or μ_r(f)) where it has values. */
@@ -76,18 +82,16 @@ export interface PowerLawFit {
   fitRange_Hz: [number, number];
 }
 
-/** How much the probes see a relative change of ε' (re) and ε'' (im) at f; any positive scale. */
-export type ProbeWeight = (f_Hz: number) => { re: number; im: number };
-
 export interface FitOptions {
-  /** Sensitivity of R and T to this material (default: all frequencies alike). */
-  probeWeight?: ProbeWeight;
+  /** How R and T at the probes change with this material's ε' and ε'' (default: none; the relative errors of
+   *  ε' and ε'' alike are minimized). */
+  sensitivity?: ProbeSensitivity;
   /** The run's pulse (default: the engine's pulse for the band). */
   pulse?: PulseShape;
 }
 
 /** Resonance frequencies of the terms: per decade, and how far beyond the fitted range they reach (decades). */
-const TERMS_PER_DECADE = 3;
+const TERMS_PER_DECADE = 6;
 const TERMS_BELOW_DECADES = 2;
 const TERMS_ABOVE_DECADES = 2;
 /** Quality factors ω_k/γ_k of the terms (0.02: a Debye relaxation in all but name). */
@@ -96,6 +100,10 @@ const TERM_Q = [0.02, 0.1, 0.3, 1, 3, 10];
  *  a Lorentz μ of Q = 0.5 is fitted to 5e-4 with these, to 10 % with the power law's. */
 const RESONANT_TERMS_PER_DECADE = 4;
 const RESONANT_TERM_Q = [0.02, 0.1, 0.2, 0.3, 0.5, 0.7, 1, 2, 3, 5, 10];
+/** At most this many terms per decade of the fitted range, plus TERM_BUDGET_BASE. */
+const TERM_BUDGET_PER_DECADE = 3;
+const TERM_BUDGET_BASE = 8;
+const PRUNED_ERROR_RATIO = 1.1;
 /** No term relaxes slower than this many periods of the bottom of the fitted range (the run waits for it). */
 const SLOWEST_RELAXATION_PERIODS = 10 / (2 * Math.PI);
 /** Samples per decade in the band (at least BAND_MIN_SAMPLES) and outside it. */
@@ -108,9 +116,13 @@ const SUPPORT_LEVEL = 0.01;
 const SUPPORT_LOW_LIMIT = 0.5;
 const SUPPORT_HIGH_LIMIT = 3;
 /** Outside the band, weights are this fraction of the band's at its edges, falling with the pulse's content. */
-const OUTSIDE_WEIGHT = 0.15;
-/** A part's weight never falls below this fraction of the largest in the band (neither ε' nor ε'' is ignored). */
+const OUTSIDE_WEIGHT = 0.03;
+/** With the probes' sensitivity: the relative errors of ε' and ε'' are bounded too, at this weight beside the
+ *  response's (scaled by its largest sensitivity in the band), so neither part is ignored where the probes cannot see it. */
 const WEIGHT_FLOOR = 0.15;
+/** |ΔR| ≤ t as a polygon: Re(e^{jθ}ΔR) ≤ t at this many directions θ (a hexagon: overestimates |ΔR| by at most
+ *  1/cos(π/6), 15 %; an octagon's 8 % changes the model share by a few percent and costs a third more rows). */
+const DIRECTIONS = 6;
 /** ε' ≥ 1 is imposed at this many points from half the band's bottom to twice its top, then wherever it fails. */
 const EPS_RE_CHECKS = 40;
 const EPS_RE_ROUNDS = 4;
@@ -120,7 +132,7 @@ const COEFFICIENT_COST = 1e-9;
 const CHECK_POINTS = 201;
 const WIDE_CHECK_POINTS = 600;
 
-interface Sample { f: number; w: number; re: number; im: number }
+interface Sample { f: number; w: number; re: number; im: number; d?: ResponseDerivatives }
 
 const logspace = (a: number, b: number, n: number): number[] =>
   n <= 1 ? [a] : Array.from({ length: n }, (_, i) => a * Math.pow(b / a, i / (n - 1)));
@@ -198,18 +210,41 @@ export function fitPermittivity(target: FitTarget, band_Hz: [number, number], ma
   const [f1, f2] = band_Hz;
   const { list, range } = samples(target, band_Hz, options.pulse ?? pulseForBand(band_Hz));
   const terms = dictionary(range, target.resonant);
-  const weights = errorWeights(list, options.probeWeight);
+  if (options.sensitivity) for (const s of list) s.d = options.sensitivity(s.f);
+  const weights = errorWeights(list, options.sensitivity !== undefined);
   // σ ≤ the target's effective conductivity ωε0ε'' at the bottom of the fitted range (no invented DC conduction).
   const sigmaMax = target.conduction === false ? 0 : Math.max(0, -target.eps(range[0]).im * 2 * Math.PI * range[0] * EPS0_F_per_m);
   const floor = target.floor ?? 1;
   // ε' ≥ floor: imposed at fixed points, then (cutting planes) wherever the fit still dips below it.
   const checks = logspace(f1 / 2, 2 * f2, EPS_RE_CHECKS);
-  let model = solveFit(list, weights, terms, checks, sigmaMax, floor);
-  for (let round = 0; round < EPS_RE_ROUNDS; round++) {
-    const dips = epsReDips(model, [f1 / 2, 2 * f2], floor);
-    if (dips.length === 0) break;
-    checks.push(...dips);
-    model = solveFit(list, weights, terms, checks, sigmaMax, floor);
+  const solve = (dict: Term[]): { model: StepModel; t: number } => {
+    let fit = solveFit(list, weights, dict, checks, sigmaMax, floor);
+    for (let round = 0; round < EPS_RE_ROUNDS; round++) {
+      const dips = epsReDips(fit.model, [f1 / 2, 2 * f2], floor);
+      if (dips.length === 0) break;
+      checks.push(...dips);
+      fit = solveFit(list, weights, dict, checks, sigmaMax, floor);
+    }
+    return fit;
+  };
+  const full = solve(terms);
+  let model = full.model;
+  // Every term costs the run a pole update per cell and step: beyond the budget, the terms that matter least
+  // (smallest largest share of ε over the samples) are dropped and the rest refitted; the refit is kept only if
+  // its worst weighted error is within PRUNED_ERROR_RATIO of the full dictionary's.
+  const budget = Math.ceil(TERM_BUDGET_PER_DECADE * Math.log10(range[1] / range[0])) + TERM_BUDGET_BASE;
+  if (model.osc.length > budget) {
+    const share = (o: StepModel['osc'][number]): number => {
+      let top = 0;
+      for (const s of list) {
+        const w = 2 * Math.PI * s.f, a = o.w0sq - w * w, b = w * o.gamma, d = a * a + b * b;
+        top = Math.max(top, (o.c * Math.hypot(a, b)) / d / Math.hypot(s.re, s.im));
+      }
+      return top;
+    };
+    const kept = model.osc.map((o) => ({ o, v: share(o) })).sort((x, y) => y.v - x.v).slice(0, budget);
+    const pruned = solve(kept.map(({ o }) => ({ w0sq: o.w0sq, gamma: o.gamma })));
+    if (pruned.t <= PRUNED_ERROR_RATIO * full.t) model = pruned.model;
   }
   return {
     material, source: target.source, quantity: target.quantity ?? 'permittivity', band_Hz: [f1, f2], model,
@@ -217,15 +252,22 @@ export function fitPermittivity(target: FitTarget, band_Hz: [number, number], ma
   };
 }
 
-/** Weights on the relative errors of ε' and ε'': the probes' sensitivity, floored, times the sample's base weight. */
-function errorWeights(list: Sample[], probeWeight?: ProbeWeight): { re: number[]; im: number[] } {
-  const pw = list.map((s) => probeWeight?.(s.f) ?? { re: 1, im: 1 });
+/**
+ * Weights: on the relative errors of ε' and ε'' (the sample's base weight; WEIGHT_FLOOR of it when the response
+ * is bounded as well), and the scale of the response rows, 1/(the largest change of R and T per unit relative
+ * change of ε' or ε'' in the band), so a unit relative error where the probes see most costs about 1.
+ */
+function errorWeights(list: Sample[], sensed: boolean): { rel: number[]; response: number } {
+  if (!sensed) return { rel: list.map((s) => s.w), response: 0 };
   let top = 1e-300;
-  list.forEach((s, i) => { if (s.w === 1) top = Math.max(top, pw[i].re, pw[i].im); });
-  return {
-    re: list.map((s, i) => s.w * Math.max(pw[i].re / top, WEIGHT_FLOOR)),
-    im: list.map((s, i) => s.w * Math.max(pw[i].im / top, WEIGHT_FLOOR)),
-  };
+  const lossless = list.every((s) => s.im === 0);
+  for (const s of list) {
+    if (s.w !== 1 || !s.d) continue;
+    const d = s.d;
+    top = Math.max(top, (Math.hypot(d.dR_re.re, d.dR_re.im) + Math.hypot(d.dT_re.re, d.dT_re.im)) * s.re,
+      (Math.hypot(d.dR_im.re, d.dR_im.im) + Math.hypot(d.dT_im.re, d.dT_im.im)) * (lossless ? s.re : s.im));
+  }
+  return { rel: list.map((s) => WEIGHT_FLOOR * s.w), response: 1 / top };
 }
 
 /** Frequencies where ε'_fit dips below 1: local minima of a fine grid, refined by golden-section search. */
@@ -248,11 +290,22 @@ function epsReDips(model: StepModel, [a, b]: [number, number], floor: number): n
   return out;
 }
 
-/** The linear program of the header comment, solved; its unknowns as a step model. */
-function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms: Term[], checks: number[], sigmaMax: number, floor: number): StepModel {
+/** The linear program of the header comment, solved: its unknowns as a step model, and its worst weighted error t. */
+function solveFit(list: Sample[], weights: { rel: number[]; response: number }, terms: Term[], checks: number[], sigmaMax: number, floor: number): { model: StepModel; t: number } {
   const lossless = list.every((s) => s.im === 0);
   const nx = 2 + terms.length, n = nx + 1; // unknowns, then t
-  const m = 4 * list.length + checks.length + 1;
+  // A response row binds only where the response is more sensitive than the floor rows allow: elsewhere
+  // |ΔR|·scale ≤ (|∂R/∂ε'|ε' + |∂R/∂ε''|ε'')·scale·max(|e'|, |e''|) ≤ WEIGHT_FLOOR·max(|e'|, |e''|) ≤ t already.
+  const sensed = (s: Sample, dRe: Complex, dIm: Complex) =>
+    (Math.hypot(dRe.re, dRe.im) * s.re + Math.hypot(dIm.re, dIm.im) * (lossless ? s.re : s.im)) * weights.response > WEIGHT_FLOOR;
+  let responseRows = 0;
+  if (weights.response > 0) {
+    for (const s of list) {
+      if (s.d && sensed(s, s.d.dR_re, s.d.dR_im)) responseRows += DIRECTIONS;
+      if (s.d && sensed(s, s.d.dT_re, s.d.dT_im)) responseRows += DIRECTIONS;
+    }
+  }
+  const m = 4 * list.length + responseRows + checks.length + 1;
   const G = new Float64Array(m * n), h = new Float64Array(m);
   const cr = new Float64Array(nx), ci = new Float64Array(nx);
   // Column scales: each unknown's largest relative contribution over the samples becomes 1 (conditioning).
@@ -271,12 +324,22 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
   };
   list.forEach((s, i) => {
     columns(terms, 2 * Math.PI * s.f, cr, ci);
-    const ar = weights.re[i] / s.re;
+    const ar = weights.rel[i] / s.re;
     put(ar, 0, ar * (s.re - floor), 1); //  w'(ε'_fit − ε')/ε' ≥ −t
     put(-ar, 0, -ar * (s.re - floor), 1); // w'(ε'_fit − ε')/ε' ≤ t
-    const ai = weights.im[i] / (lossless ? s.re : s.im); // a lossless table: ε'' relative to ε'
+    const ai = weights.rel[i] / (lossless ? s.re : s.im); // a lossless table: ε'' relative to ε'
     put(0, ai, ai * s.im, 1);
     put(0, -ai, -ai * s.im, 1);
+    // The response: ΔR ≈ ∂R/∂ε'·(ε'_fit − ε') + ∂R/∂ε''·(ε''_fit − ε''), Re(e^{jθ}ΔR)·w ≤ t (and T alike).
+    if (weights.response === 0 || !s.d) return;
+    for (const [dRe, dIm] of [[s.d.dR_re, s.d.dR_im], [s.d.dT_re, s.d.dT_im]]) {
+      if (!sensed(s, dRe, dIm)) continue;
+      for (let k = 0; k < DIRECTIONS; k++) {
+        const c = Math.cos((2 * Math.PI * k) / DIRECTIONS), sn = Math.sin((2 * Math.PI * k) / DIRECTIONS);
+        const p = (c * dRe.re - sn * dRe.im) * s.w * weights.response, q = (c * dIm.re - sn * dIm.im) * s.w * weights.response;
+        put(-p, -q, -(p * (s.re - floor) + q * s.im), 1);
+      }
+    }
   });
   for (const f of checks) { columns(terms, 2 * Math.PI * f, cr, ci); put(1, 0, 0, 0); } // ε'_fit − floor ≥ 0
   cr.fill(0); ci.fill(0); cr[1] = -1;
@@ -286,10 +349,11 @@ function solveFit(list: Sample[], weights: { re: number[]; im: number[] }, terms
   c[nx] = 1;
   const sol = minimizeLp(c, G, h, m, n);
   const x = Array.from({ length: nx }, (_, j) => sol.x[j] * scale[j]);
-  return {
+  const model: StepModel = {
     epsInf: floor + x[0], sigma: x[1], debye: [],
     osc: terms.map((t, k) => ({ c: x[2 + k], w0sq: t.w0sq, gamma: t.gamma })).filter((o) => o.c > 0),
   };
+  return { model, t: sol.x[nx] };
 }
 
 /** Worst relative errors over the band and the smallest ε' from half its bottom to twice its top. */
