@@ -99,7 +99,8 @@ export function latticeWarning(which: 'reflected' | 'transmitted', e: EchoTable,
   if (!(e.lattice_residual > RESIDUAL_FLOORS * floor)) return null;
   return `${which} echoes: the bounce paths followed sum to the exact ${which === 'reflected' ? 'R' : 'T'} only within ` +
     `${e.lattice_residual.toPrecision(2)} at the worst frequency (the floor is ${floor.toPrecision(2)}, ${floor_dB} dB): ` +
-    'this stack has more paths of each delay than can be followed (many layers of equal delay, such as a quarter-wave mirror), ' +
+    'this stack has more paths of each delay than can be followed (many layers of equal delay, such as a quarter-wave mirror, ' +
+    'or a stack far thinner than the pulse, whose single bounces only are followed), ' +
     'so path names and predicted delays are incomplete and a row marked "unexplained" may be paths not followed ' +
     'rather than an error of the pulse run';
 }
