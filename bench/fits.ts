@@ -17,6 +17,7 @@ import { parseStackObject } from '../src/stack/parse.ts';
 import type { Stack } from '../src/stack/types.ts';
 import { solveTmm } from '../src/tmm/solve.ts';
 import { linspace } from '../src/units.ts';
+import { REPRESENTATIVE_WALLS } from './wall-list.ts';
 
 const { values } = parseArgs({ options: { only: { type: 'string' }, set: { type: 'string' } } });
 
@@ -32,13 +33,7 @@ const wall = (material: string, mm: number, band: [number, number], back: string
 
 const cases: Case[] = [];
 if ((values.set ?? 'walls') === 'walls') {
-  for (const [m, mm, band, back] of [
-    ['concrete', 20, [1, 40], 'air'], ['concrete', 150, [1, 6], 'pec'], ['concrete', 200, [24, 40], 'air'],
-    ['concrete', 200, [1, 6], 'pec'], ['concrete', 300, [1, 6], 'air'], ['concrete', 300, [1, 40], 'pec'],
-    ['brick', 100, [1, 6], 'air'], ['brick', 20, [1, 40], 'pec'], ['glass', 20, [1, 40], 'pec'],
-    ['plasterboard', 300, [1, 20], 'air'], ['wood', 50, [1, 40], 'pec'], ['concrete', 150, [1, 40], 'pec'],
-    ['marble', 100, [1, 20], 'air'], ['chipboard', 20, [1, 40], 'air'],
-  ] as [string, number, [number, number], string][]) cases.push(wall(m, mm, band, back));
+  for (const [m, mm, band, back] of REPRESENTATIVE_WALLS) cases.push(wall(m, mm, band, back));
   cases.push(wall('concrete', 150, [1, 6], 'pec', 45, 'TE'), wall('concrete', 150, [1, 6], 'pec', 60, 'TM'));
   cases.push(wall('brick', 120, [1, 4], 'medium-dry-ground'), wall('plywood', 18, [1, 20], 'air', 30, 'TM'));
 } else {

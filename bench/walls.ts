@@ -10,6 +10,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { planGrid } from '../src/fdtd/plan.ts';
 import { type Case, measureCases, stackFrom } from './measure-cases.ts';
+import { REPRESENTATIVE_WALLS } from './wall-list.ts';
 
 const { values } = parseArgs({ options: { only: { type: 'string' }, accuracy: { type: 'string' }, set: { type: 'string' }, json: { type: 'boolean' } } });
 const accuracy = values.accuracy ? Number(values.accuracy) : undefined;
@@ -24,13 +25,7 @@ const wall = (material: string, mm: number, band: [number, number], back: string
 });
 const set = values.set ?? 'walls';
 if (set === 'walls' || set === 'all') {
-  for (const [m, mm, band, back] of [
-    ['concrete', 20, [1, 40], 'air'], ['concrete', 150, [1, 6], 'pec'], ['concrete', 200, [24, 40], 'air'],
-    ['concrete', 200, [1, 6], 'pec'], ['concrete', 300, [1, 6], 'air'], ['concrete', 300, [1, 40], 'pec'],
-    ['brick', 100, [1, 6], 'air'], ['brick', 20, [1, 40], 'pec'], ['glass', 20, [1, 40], 'pec'],
-    ['plasterboard', 300, [1, 20], 'air'], ['wood', 50, [1, 40], 'pec'], ['concrete', 150, [1, 40], 'pec'],
-    ['marble', 100, [1, 20], 'air'], ['chipboard', 20, [1, 40], 'air'],
-  ] as [string, number, [number, number], string][]) cases.push(wall(m, mm, band, back));
+  for (const [m, mm, band, back] of REPRESENTATIVE_WALLS) cases.push(wall(m, mm, band, back));
 }
 if (set === 'all') {
   for (const m of ['concrete', 'brick', 'plasterboard', 'wood', 'glass', 'marble', 'chipboard']) {
