@@ -119,12 +119,15 @@ Exit: 0 done, 2 invalid stack, usage or a grid too large (nothing written), 1 in
     const { budget, limitNames } = budgetFromArgs(a.values);
     const path = a.positionals[0];
     const { stack, warnings } = loadOrExplain(path, io);
+    // A worker thread, where a core is idle, for the exact and FEM solves (beside the pulse run) and the echo
+    // analysis (beside the spectra). Started first, so it loads while the estimate plans the grid (the fits).
+    const pool = new TaskPool();
     // Before anything heavy: the engine's plan, the FEM's mesh, the outputs, the time and memory they need.
     const job = estimateRun(stack, { fem, pulse, budget, limitNames });
-    if (job.refusal !== undefined) throw new CliError(`${job.refusal}; nothing was written`, 2);
-    // A worker thread, where a core is idle, for the exact and FEM solves (beside the pulse run) and the echo
-    // analysis (beside the spectra).
-    const pool = new TaskPool();
+    if (job.refusal !== undefined) {
+      void pool.close();
+      throw new CliError(`${job.refusal}; nothing was written`, 2);
+    }
     const parallel: RunParallel = {
       solve: (s, options) => pool.run('solve', { stack: s, options }),
       echoes: (s, records, options) => pool.run('echoes', { stack: s, records, options }),
