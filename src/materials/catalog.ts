@@ -1,5 +1,5 @@
 // The built-in material catalog: air, the ITU-R P.2040-3 Table 3 building materials, and water.
-// Every Table 3 row was checked against two independent transcriptions of the table (P.2040-3, and
+// Every Table 3 row was checked against two independent copies of the table (P.2040-3, and
 // P.2040-2, whose coefficients for these materials are the same). A material may have more than one
 // validity range, each with its own coefficients (glass and ceiling board have a sub-millimetre row):
 // a stack picks the range that holds its band (`pickRange`).

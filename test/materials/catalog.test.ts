@@ -13,7 +13,7 @@ const bulk = (name: string): BulkModel => {
 
 // ITU-R P.2040-3 (08/2023) Table 3: ε' = a f^b, σ = c f^d (S/m), f in GHz; ε'' = σ / (2π f ε0).
 // Coefficients and frequency ranges as in the Recommendation: rows concrete…glass checked against a published
-// evaluation at 9 GHz, the others against an independent transcription of Table 3 in P.2040-2 (same
+// evaluation at 9 GHz, the others against an independent copy of Table 3 in P.2040-2 (same
 // coefficients for these materials); glass and ceiling board also have a 220–450 GHz row.
 const ITU_TABLE_3: [string, number, number, number, number, [number, number]][] = [
   ['concrete', 5.24, 0, 0.0462, 0.7822, [1, 100]],
