@@ -12,12 +12,11 @@ import type { Profile, Spectrum } from '../results.ts';
 import { spectrumFromRecords, type PulseSpectrum } from '../spectra/spectrum.ts';
 import { stackThickness_m, type Stack } from '../stack/types.ts';
 import { stackAtFrequency } from '../tmm/media.ts';
-import { degFromRad } from '../units.ts';
 import { roundedRow } from './format-agreement.ts';
 import { fdtdAgreementRows, modelShareWarning } from './fdtd-agreement.ts';
 import { QUANTITY_NAMES } from '../studies/quantities.ts';
 import { echoColumns, echoSummary, emptyEchoColumns, type EchoColumns, latticeWarning } from './echo-table.ts';
-import { fittedMagneticModel, fittedModel } from './fitted-model.ts';
+import { fdtdDescription, fitSummaries, gridSummary, pulseSummary, runSummary } from './run-summary.ts';
 import { solveReport, type Report, type SolveOptions } from './solve.ts';
 import { assertFiniteValues, assertTable, complexColumns, findColumn, ordinal, scaledColumn, type Column } from './table.ts';
 import { estimateRun, WorkRefused } from './estimate.ts';
@@ -68,7 +67,6 @@ export interface RunReport extends Report {
 }
 
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
-const r3 = (x: number): number => Number(x.toPrecision(3));
 const r6 = (x: number): number => Number(x.toPrecision(6));
 
 /**
@@ -94,16 +92,9 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
     run = job.grid !== null ? createRunOfPlan(stack.band_Hz, job.grid, { engine: options.pulse?.engine }) : createPulseRun(stack, options.pulse);
   } catch (e) {
     if (e instanceof PlanError && e.code === 'unsupported') {
-      const base = await solved;
-      const warnings = [...base.warnings];
-      const warn = (w: string) => { if (!warnings.includes(w)) warnings.push(w); };
-      const summary: Record<string, unknown> = { ...base.summary };
-      const why = `FDTD skipped: ${e.message}`;
-      warn(why);
-      summary.fdtd = { skipped: e.message };
-      summary.warnings = warnings;
+      const report = skippedReport(await solved, e.message);
       progress(1);
-      return { ...base, summary, warnings, echoes: emptyEchoColumns(), echoesT: emptyEchoColumns(), envelope: envelopeColumns(null), trace: emptyTrace(), stopped: false, skipped: e.message, rays: null };
+      return report;
     }
     throw e;
   }
@@ -134,20 +125,8 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   const fdtd = spectrumFromRecords(rec, f_Hz);
   for (const w of fdtd.warnings) warn(w);
   const spectrum_ms = now() - tSpectra;
-  // The pulse columns go after the other methods' and before the engineering quantities, which stay last.
-  const isQuantity = (c: Column) => (QUANTITY_NAMES as readonly string[]).includes(c.name);
-  const spectrum = [...base.spectrum.filter((c) => !isQuantity(c)),
-    ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im),
-    ...base.spectrum.filter(isQuantity)];
-
-  // Profile: the FDTD phasor interpolated onto the report's x grid.
-  let profile = base.profile;
-  const xCol = findColumn(base.profile, 'x_mm');
-  if (xCol) {
-    const x_m = Float64Array.from(xCol.data, (x) => x * 1e-3);
-    const p = profileOnGrid(stack, run, x_m);
-    profile = [...base.profile, ...complexColumns('E_fdtd', p.re, p.im)];
-  }
+  const spectrum = withPulseSpectrum(base.spectrum, fdtd);
+  const profile = withPulseProfile(stack, run, base.profile);
 
   // Echoes (from t1 on: beside the rest when elsewhere).
   if (!analysing) t1 = now();
@@ -177,63 +156,52 @@ export async function runReport(stack: Stack, options: RunOptions = {}): Promise
   methods.push({ name: 'fdtd', description: fdtdDescription(stack), time_ms: Math.round(run_ms * 1e3) / 1e3 });
   summary.methods = methods;
   summary.grid = gridSummary(run.plan);
-  const energy = run.energy();
-  summary.run = {
-    steps: run.stepIndex,
-    simulated_ns: r6(run.time_s * 1e9),
-    end: run.doneReason,
-    end_rule: endRule(run),
-    residual_energy_dB: Number.isFinite(energy.level_dB) ? r3(energy.level_dB) : null,
-    decay_target_dB: -run.plan.decay_dB,
-    truncated: run.doneReason !== 'converged',
-    engine: run.engine,
-    ...(run.engineFallback !== null ? { engine_note: run.engineFallback } : {}),
-    weak_incident_frequencies: fdtd.weak.reduce((s, v) => s + v, 0),
-    trace_every_nth_step: stride,
-  };
-  summary.power_law_fits = run.plan.fits.filter((f) => f.quantity === 'permittivity').map((f) => ({
-    material: f.material,
-    source_model: f.source,
-    band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
-    max_rel_error_eps_re: r3(f.maxRelErr_re),
-    max_rel_error_eps_im: r3(f.maxRelErr_im),
-    max_rel_error_eps: r3(f.maxRelErr_abs),
-    min_eps_re_half_to_twice_band: r3(f.minEpsRe_wide),
-    fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
-    model: fittedModel(f.model),
-  }));
-  // A fixed permeability with loss (not causal) or a μ table: stepped as a fitted Lorentz sum, written as a magnetic block.
-  summary.permeability_fits = run.plan.fits.filter((f) => f.quantity === 'permeability').map((f) => ({
-    material: f.material,
-    source_model: f.source,
-    band_GHz: [f.band_Hz[0] / 1e9, f.band_Hz[1] / 1e9],
-    max_rel_error_mu_re: r3(f.maxRelErr_re),
-    max_rel_error_mu_im: r3(f.maxRelErr_im),
-    max_rel_error_mu: r3(f.maxRelErr_abs),
-    fit_range_GHz: [r6(f.fitRange_Hz[0] / 1e9), r6(f.fitRange_Hz[1] / 1e9)],
-    magnetic: fittedMagneticModel(f.model),
-  }));
-  summary.pulse = {
-    f0_GHz: r6(run.plan.pulse.f0_Hz / 1e9),
-    tau_ps: r6(run.plan.pulse.tau_s * 1e12),
-    band_edge_dB: run.plan.pulse.edge_dB,
-    envelope_fwhm_ns: r6(2 * Math.sqrt(Math.LN2) * run.plan.pulse.tau_s * 1e9),
-  };
+  summary.run = runSummary(run, fdtd.weak.reduce((a, v) => a + v, 0), stride);
+  Object.assign(summary, fitSummaries(run.plan.fits));
+  summary.pulse = pulseSummary(run.plan);
   summary.echoes = { ...echoAnalysisSummary(echoes), ...echoSummary(echoes.reflected) };
   summary.transmitted = echoes.transmitted ? echoSummary(echoes.transmitted) : null;
   summary.timings_ms = { fdtd: Math.round(run_ms), spectra: Math.round(spectrum_ms), echoes: Math.round(echoes_ms) };
   summary.warnings = warnings;
 
-  assertTable(spectrum);
+  const tables = echoTables(echoes);
+  for (const t of [spectrum, trace, tables.envelope]) assertTable(t);
   if (profile.length > 0) assertTable(profile);
-  assertTable(trace);
-  const ech = echoColumns(echoes.reflected), echT = echoes.transmitted ? echoColumns(echoes.transmitted) : emptyEchoColumns();
-  for (const t of [ech, echT]) if (t.path.length > 0) assertTable(t.columns);
-  const envelope = envelopeColumns(echoes.envelopes);
-  assertTable(envelope);
   assertFiniteValues(summary);
   progress(1);
-  return { spectrum, profile, summary, warnings, echoes: ech, echoesT: echT, envelope, trace, agreement: allAgreement, stopped, rays: echoRays(stack, echoes) };
+  return { spectrum, profile, summary, warnings, ...tables, trace, agreement: allAgreement, stopped, rays: echoRays(stack, echoes) };
+}
+
+/** The echo analysis as the report's tables (echoes.csv, echoes_T.csv, the envelopes), each checked. */
+function echoTables(e: EchoAnalysis): { echoes: EchoColumns; echoesT: EchoColumns; envelope: Column[] } {
+  const echoes = echoColumns(e.reflected), echoesT = e.transmitted ? echoColumns(e.transmitted) : emptyEchoColumns();
+  for (const t of [echoes, echoesT]) if (t.path.length > 0) assertTable(t.columns);
+  return { echoes, echoesT, envelope: envelopeColumns(e.envelopes) };
+}
+
+/** The pulse columns after the other methods' and before the engineering quantities, which stay last. */
+function withPulseSpectrum(columns: Column[], fdtd: PulseSpectrum): Column[] {
+  const isQuantity = (c: Column) => (QUANTITY_NAMES as readonly string[]).includes(c.name);
+  return [...columns.filter((c) => !isQuantity(c)),
+    ...complexColumns('R_fdtd', fdtd.R_re, fdtd.R_im), ...complexColumns('T_fdtd', fdtd.T_re, fdtd.T_im),
+    ...columns.filter(isQuantity)];
+}
+
+/** The profile with the FDTD phasor interpolated onto its x grid (unchanged when it has none). */
+function withPulseProfile(stack: Stack, run: PulseRun, columns: Column[]): Column[] {
+  const xCol = findColumn(columns, 'x_mm');
+  if (!xCol) return columns;
+  const p = profileOnGrid(stack, run, Float64Array.from(xCol.data, (x) => x * 1e-3));
+  return [...columns, ...complexColumns('E_fdtd', p.re, p.im)];
+}
+
+/** Solve's report with empty pulse tables, when the engine declines the stack (`why`). */
+function skippedReport(base: Report, why: string): RunReport {
+  const warnings = [...base.warnings];
+  const text = `FDTD skipped: ${why}`;
+  if (!warnings.includes(text)) warnings.push(text);
+  const summary: Record<string, unknown> = { ...base.summary, fdtd: { skipped: why }, warnings };
+  return { ...base, summary, warnings, echoes: emptyEchoColumns(), echoesT: emptyEchoColumns(), envelope: envelopeColumns(null), trace: emptyTrace(), stopped: false, skipped: why, rays: null };
 }
 
 /** runToEnd with an observer: chunks of whole strides, `sample` after each stride, a turn of the event loop per chunk. */
@@ -300,45 +268,6 @@ function spectrumFromColumns(cols: readonly Column[], tag: string, f_Hz: Float64
 }
 
 /** What the pulse engine stepped, in words (the phase-matched line at an angle, fdtd/oblique.ts). */
-function fdtdDescription(stack: Stack): string {
-  const { angle_rad, polarization } = stack.incidence;
-  if (angle_rad === 0) return 'leapfrog FDTD pulse run (normal incidence)';
-  const line = polarization === 'TE' ? 'series μ, shunt ε − s²/μ' : 'series μ − s²/ε, shunt ε';
-  return `leapfrog FDTD pulse run (${polarization} at ${r6(degFromRad(angle_rad))}°, as the phase-matched line: ${line}, s² = ε_front μ_front sin²θ)`;
-}
-
-/** Which rule ended the run, in words. */
-function endRule(run: PulseRun): string {
-  switch (run.doneReason) {
-    case 'converged': return `converged: R and T settled at every check frequency across the band (its bottom included) and the stored energy, pole states included, fell ${run.plan.decay_dB} dB below its peak`;
-    case 'step-limit': return `step limit: ${run.plan.stepsLimit} steps reached before the run converged (see the warnings)`;
-    default: return 'stopped before the run converged';
-  }
-}
-
-function gridSummary(p: GridPlan): Record<string, unknown> {
-  return {
-    cell_mm: r6(p.dx_m * 1e3),
-    time_step_ps: r6(p.dt_s * 1e12),
-    courant: r6(p.courant),
-    cells: p.cells,
-    cells_per_wavelength: r3(p.cellsPerWavelength),
-    pml_cells: p.pmlCells,
-    predicted_error: r3(p.predictedError),
-    slowest_relaxation_ns: Number.isFinite(p.slowestRelaxation_s) ? r3(p.slowestRelaxation_s * 1e9) : null,
-    accuracy_target: p.accuracyTarget,
-    steps_limit: p.stepsLimit,
-    memory_MB: r3(p.memory_bytes / 1e6),
-    layers: p.layers.map((l) => ({
-      index: l.index,
-      name: l.name,
-      cells: r3(l.cells),
-      cells_per_wavelength: r3(l.cellsPerWavelength),
-      phase_error_deg: r3(degFromRad(l.phaseError_rad)),
-    })),
-  };
-}
-
 /**
  * The FDTD standing wave at the report's positions: linear interpolation of the run's phasor
  * between grid nodes; outside the run's span, the front medium's incident + reflected waves
