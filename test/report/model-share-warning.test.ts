@@ -15,6 +15,13 @@ describe('modelShareWarning', () => {
     expect(w).toContain("engine's own error is 2.0e-3");
     expect(w).toContain('--media stepped');
   });
+  it('speaks when the share and the engine error, each within the target, add up to a miss (250 mm brick at 2–18 GHz)', () => {
+    const w = modelShareWarning([row('fdtd-tmm', 2.9e-3, 1.1e-2), row('fdtd-tmm as stepped', 5.4e-4, 1.9e-3), row('stepped media-tmm', 2.7e-3, 9.4e-3)], 0.01);
+    expect(w).toContain('max|dT| 9.4e-3');
+  });
+  it('stays silent when the engine itself misses (a grid matter, not the model)', () => {
+    expect(modelShareWarning([row('fdtd-tmm', 3e-2, 3e-2), row('fdtd-tmm as stepped', 2e-2, 2e-2), row('stepped media-tmm', 1.2e-2, 1e-3)], 0.01)).toBeNull();
+  });
   it('stays silent when the share is within the target, or when nothing was substituted', () => {
     expect(modelShareWarning([row('fdtd-tmm', 3e-3, 3e-3), row('fdtd-tmm as stepped', 1e-3, 2e-3), row('stepped media-tmm', 2e-3, 9e-3)], 0.01)).toBeNull();
     expect(modelShareWarning([row('fdtd-tmm', 3e-2, 3e-2)], 0.01)).toBeNull();
